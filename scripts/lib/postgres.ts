@@ -1,0 +1,147 @@
+import { createHash } from "node:crypto";
+import { chmodSync, existsSync, mkdirSync, readdirSync, rmSync } from "node:fs";
+import os from "node:os";
+import path from "node:path";
+
+import { aptInstall, isRoot, portInUse, run } from "./process";
+
+const debianRoot = "/usr/lib/postgresql";
+
+function findBinDir(): string | null {
+  if (!existsSync(debianRoot)) return null;
+  const versions = readdirSync(debianRoot)
+    .filter((name) => existsSync(path.join(debianRoot, name, "bin", "initdb")))
+    .sort((a, b) => Number(b) - Number(a));
+  return versions[0] ? path.join(debianRoot, versions[0], "bin") : null;
+}
+
+/** PostgreSQL's server binaries from Debian's package, installing the package when allowed. */
+export async function ensurePostgresBinaries(): Promise<string> {
+  const found = findBinDir();
+  if (found) return found;
+  await aptInstall(["postgresql"], "PostgreSQL (Debian package postgresql)");
+  const installed = findBinDir();
+  if (!installed) throw new Error(`PostgreSQL was installed but no initdb was found under ${debianRoot}.`);
+  return installed;
+}
+
+/** As root, PostgreSQL refuses to run: each command runs as the `postgres` system user. */
+function pg(binDir: string, tool: string, args: string[]): string {
+  const binary = path.join(binDir, tool);
+  if (isRoot) return run("runuser", ["-u", "postgres", "--", binary, ...args], { cwd: "/" });
+  return run(binary, args);
+}
+
+/** Whether the `postgres` user can reach and write `dir` (a 0700 home in the path stops it). */
+function postgresUserCanUse(dir: string): boolean {
+  if (!isRoot) return true;
+  try {
+    run("runuser", ["-u", "postgres", "--", "test", "-x", dir]);
+    return true;
+  } catch {
+    return false;
+  }
+}
+
+export interface ClusterOptions {
+  /** Folder for data, socket and log. */
+  folder: string;
+  port: number;
+  /** Throwaway clusters trade durability for speed. */
+  throwaway?: boolean;
+}
+
+export interface Cluster {
+  folder: string;
+  port: number;
+  binDir: string;
+  urlFor: (database: string) => string;
+  isRunning: () => boolean;
+  start: () => Promise<void>;
+  createDatabase: (name: string) => void;
+  stop: () => void;
+  /** Stops and deletes the folder (throwaway clusters only). */
+  destroy: () => void;
+}
+
+/**
+ * Picks the cluster folder: the wanted one, or — when running as root and the `postgres` user
+ * cannot enter it — a stable folder under the system temp directory.
+ */
+export function chooseClusterFolder(wanted: string): { folder: string; moved: boolean } {
+  mkdirSync(wanted, { recursive: true });
+  if (postgresUserCanUse(wanted)) return { folder: wanted, moved: false };
+  const tag = createHash("sha256").update(wanted).digest("hex").slice(0, 12);
+  const folder = path.join(os.tmpdir(), `lintel-postgres-${tag}`);
+  mkdirSync(folder, { recursive: true });
+  return { folder, moved: true };
+}
+
+export async function prepareCluster(options: ClusterOptions): Promise<Cluster> {
+  const binDir = await ensurePostgresBinaries();
+  const { folder, port } = options;
+  const dataDir = path.join(folder, "data");
+  const socketDir = path.join(folder, "run");
+  const logFile = path.join(folder, "server.log");
+  mkdirSync(socketDir, { recursive: true });
+  if (isRoot) {
+    run("chown", ["-R", "postgres:postgres", folder]);
+  }
+
+  if (!existsSync(path.join(dataDir, "PG_VERSION"))) {
+    pg(binDir, "initdb", ["-D", dataDir, "-U", "postgres", "--auth=trust", "--encoding=UTF8", "--locale=C.UTF-8"]);
+  }
+  if (isRoot) chmodSync(folder, 0o755);
+
+  const isRunning = () => {
+    try {
+      pg(binDir, "pg_ctl", ["-D", dataDir, "status"]);
+      return true;
+    } catch {
+      return false;
+    }
+  };
+
+  const settings = [
+    `-p ${port}`,
+    "-c listen_addresses=127.0.0.1",
+    `-k ${socketDir}`,
+    ...(options.throwaway ? ["-c fsync=off", "-c synchronous_commit=off", "-c full_page_writes=off"] : []),
+  ].join(" ");
+
+  const cluster: Cluster = {
+    folder,
+    port,
+    binDir,
+    urlFor: (database) => `postgres://postgres@127.0.0.1:${port}/${database}`,
+    isRunning,
+    async start() {
+      if (isRunning()) return;
+      if (await portInUse(port)) {
+        throw new Error(
+          `Port ${port} on 127.0.0.1 is taken by another program. Stop it, or choose another port with LINTEL_PG_PORT.`,
+        );
+      }
+      pg(binDir, "pg_ctl", ["-D", dataDir, "-l", logFile, "-w", "-t", "60", "-o", settings, "start"]);
+    },
+    createDatabase(name) {
+      const exists = pg(binDir, "psql", [
+        "-h", "127.0.0.1", "-p", String(port), "-U", "postgres", "-d", "postgres", "-tAc",
+        `select 1 from pg_database where datname = '${name.replace(/'/g, "''")}'`,
+      ]).trim();
+      if (exists !== "1") pg(binDir, "createdb", ["-h", "127.0.0.1", "-p", String(port), "-U", "postgres", name]);
+    },
+    stop() {
+      if (!isRunning()) return;
+      pg(binDir, "pg_ctl", ["-D", dataDir, "-m", "fast", "-w", "-t", "60", "stop"]);
+    },
+    destroy() {
+      try {
+        cluster.stop();
+      } finally {
+        rmSync(folder, { recursive: true, force: true });
+      }
+    },
+  };
+  return cluster;
+}

@@ -1,0 +1,75 @@
+import path from "node:path";
+
+import { demoPassword, demoPeople } from "../server/demo/people";
+import { parseEnv } from "../server/env";
+import { startServer, type RunningServer } from "../server/server";
+import { buildClient, projectRoot } from "./lib/client-build";
+import { chooseClusterFolder, prepareCluster, type Cluster } from "./lib/postgres";
+
+/**
+ * `npm start`: a private PostgreSQL under .data/ (unless DATABASE_URL is given), migrations,
+ * demo data, the built client, and one Express process serving app and API.
+ */
+async function main() {
+  let cluster: Cluster | null = null;
+  let server: RunningServer | null = null;
+  let stopping = false;
+
+  const stop = async (reason: string) => {
+    if (stopping) return;
+    stopping = true;
+    console.log(`\n${reason}: stopping Lintel…`);
+    try {
+      await server?.close();
+    } finally {
+      if (cluster) {
+        cluster.stop();
+        console.log("PostgreSQL stopped.");
+      }
+    }
+    process.exit(0);
+  };
+  process.on("SIGINT", () => void stop("SIGINT"));
+  process.on("SIGTERM", () => void stop("SIGTERM"));
+
+  try {
+    if (!process.env.DATABASE_URL) {
+      const port = Number(process.env.LINTEL_PG_PORT ?? 54329);
+      const { folder, moved } = chooseClusterFolder(path.join(projectRoot, ".data", "postgres"));
+      if (moved) {
+        console.log(`The postgres user cannot enter ${projectRoot}; the database lives in ${folder} instead.`);
+      }
+      cluster = await prepareCluster({ folder, port });
+      await cluster.start();
+      cluster.createDatabase("lintel");
+      process.env.DATABASE_URL = cluster.urlFor("lintel");
+      process.env.LINTEL_DEMO ??= "1";
+      console.log(`PostgreSQL is running on 127.0.0.1:${port} (data in ${folder}).`);
+    }
+
+    const clientDir = path.join(projectRoot, "dist", "client");
+    console.log("Building the app…");
+    await buildClient(clientDir);
+    process.env.LINTEL_CLIENT_DIR ??= clientDir;
+
+    const env = parseEnv();
+    server = await startServer(env);
+    console.log(`\nLintel is ready: ${server.url}`);
+    if (env.HOST === "0.0.0.0") console.log("Listening on every network interface (HOST=0.0.0.0).");
+    if (env.LINTEL_DEMO === "1") {
+      console.log(`\nDemo sign-ins (password for all: ${demoPassword}):`);
+      for (const person of demoPeople) {
+        const roles = person.grants.map((grant) => `${grant.role}${grant.site ? ` @ ${grant.site}` : " (network-wide)"}`);
+        console.log(`  ${person.email.padEnd(32)} ${[...new Set(roles)].join(", ")}`);
+      }
+    }
+    console.log("\nPress Ctrl-C to stop.");
+  } catch (error) {
+    console.error(`\n${error instanceof Error ? error.message : String(error)}`);
+    await server?.close().catch(() => undefined);
+    cluster?.stop();
+    process.exit(1);
+  }
+}
+
+void main();

@@ -1,0 +1,76 @@
+import { randomUUID } from "node:crypto";
+import { existsSync } from "node:fs";
+import path from "node:path";
+
+import express from "express";
+import helmet from "helmet";
+import { pinoHttp } from "pino-http";
+
+import { apiNotFound, errorHandler } from "./middleware/error-handler";
+import { requireSameOrigin } from "./middleware/same-origin";
+import { loadSession } from "./middleware/session";
+import { mountRoutes, type AppDeps } from "./lib/routes";
+import { apiRoutes } from "./routes";
+
+const requestIdPattern = /^[A-Za-z0-9._-]{8,64}$/;
+
+/** Builds the Express app: middleware, routes, error handler. Never listens (tests use it as is). */
+export function createApp(deps: AppDeps): express.Express {
+  const { env } = deps;
+  const app = express();
+  app.disable("x-powered-by");
+  if (env.LINTEL_TRUST_PROXY) {
+    const value = env.LINTEL_TRUST_PROXY;
+    app.set("trust proxy", /^\d+$/.test(value) ? Number(value) : value === "true" ? true : value);
+  }
+
+  const https = env.publicUrl.protocol === "https:";
+  app.use(
+    helmet({
+      contentSecurityPolicy: {
+        directives: {
+          "img-src": ["'self'", "data:", "blob:"],
+          // Over plain http (a phone on the local network) upgrading would break every asset.
+          "upgrade-insecure-requests": https ? [] : null,
+        },
+      },
+      strictTransportSecurity: https,
+    }),
+  );
+
+  app.use(
+    pinoHttp({
+      logger: deps.logger,
+      genReqId: (req, res) => {
+        const incoming = req.headers["x-request-id"];
+        const id = typeof incoming === "string" && requestIdPattern.test(incoming) ? incoming : randomUUID();
+        res.setHeader("X-Request-Id", id);
+        return id;
+      },
+      autoLogging: { ignore: (req) => req.url === "/api/health" },
+    }),
+  );
+
+  const api = express.Router();
+  api.use(express.json({ limit: "100kb" }));
+  api.use(requireSameOrigin(env.publicUrl));
+  api.use((_req, res, next) => {
+    res.set("Cache-Control", "no-store");
+    next();
+  });
+  api.use(loadSession(deps));
+  mountRoutes(api, apiRoutes, deps);
+  api.use(apiNotFound);
+  app.use("/api", api);
+
+  const clientDir = env.LINTEL_CLIENT_DIR;
+  if (clientDir && existsSync(path.join(clientDir, "index.html"))) {
+    app.use(express.static(clientDir, { index: false, maxAge: "1h" }));
+    app.get("/*splat", (_req, res) => {
+      res.set("Cache-Control", "no-store").sendFile(path.join(clientDir, "index.html"));
+    });
+  }
+
+  app.use(errorHandler);
+  return app;
+}

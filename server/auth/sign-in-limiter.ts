@@ -1,0 +1,54 @@
+import type pg from "pg";
+import { RateLimiterPostgres, type RateLimiterRes } from "rate-limiter-flexible";
+
+import { AppError } from "../lib/app-error";
+
+export interface SignInLimits {
+  perAccount: number;
+  perAddress: number;
+  windowMinutes: number;
+}
+
+export type SignInLimiter = ReturnType<typeof createSignInLimiter>;
+
+/**
+ * Counts failed sign-ins per account and per client address in PostgreSQL, so every app process
+ * behind a load balancer shares the same counters. Past either limit, sign-in answers 429 until
+ * the window ends, even with the right password.
+ */
+export function createSignInLimiter(pool: pg.Pool, limits: SignInLimits) {
+  const duration = limits.windowMinutes * 60;
+  const common = { storeClient: pool, storeType: "pool", tableName: "rate_limits", tableCreated: true, duration, clearExpiredByTimeout: false };
+  const byAccount = new RateLimiterPostgres({ ...common, keyPrefix: "sign-in:account", points: limits.perAccount });
+  const byAddress = new RateLimiterPostgres({ ...common, keyPrefix: "sign-in:address", points: limits.perAddress });
+
+  const blocked = (res: RateLimiterRes | null, points: number) =>
+    res !== null && res.consumedPoints >= points ? Math.ceil(res.msBeforeNext / 1000) : 0;
+
+  const tooMany = (seconds: number) =>
+    new AppError(
+      "rate_limited",
+      429,
+      `Too many failed sign-ins. Try again in ${Math.max(1, Math.ceil(seconds / 60))} minute(s).`,
+      { retryAfterSeconds: seconds },
+    );
+
+  return {
+    async assertAllowed(email: string, address: string): Promise<void> {
+      const [account, client] = await Promise.all([byAccount.get(email), byAddress.get(address)]);
+      const wait = Math.max(blocked(account, limits.perAccount), blocked(client, limits.perAddress));
+      if (wait > 0) throw tooMany(wait);
+    },
+
+    async recordFailure(email: string, address: string): Promise<void> {
+      await Promise.all([
+        byAccount.penalty(email, 1),
+        byAddress.penalty(address, 1),
+      ]);
+    },
+
+    async recordSuccess(email: string): Promise<void> {
+      await byAccount.delete(email);
+    },
+  };
+}

@@ -1,0 +1,17 @@
+import { index, pgTable, timestamp, uuid } from "drizzle-orm/pg-core";
+
+import { users } from "./users";
+
+/** A session id is a random UUID (122 random bits) carried only in the httpOnly cookie. */
+export const sessions = pgTable(
+  "sessions",
+  {
+    id: uuid("id").primaryKey(),
+    userId: uuid("user_id")
+      .notNull()
+      .references(() => users.id, { onDelete: "cascade" }),
+    expiresAt: timestamp("expires_at", { withTimezone: true, mode: "date" }).notNull(),
+    createdAt: timestamp("created_at", { withTimezone: true }).notNull().defaultNow(),
+  },
+  (table) => [index("sessions_user_id_idx").on(table.userId)],
+);

@@ -1,0 +1,27 @@
+import type { Logger } from "pino";
+
+import { createSessionStore } from "./auth/sessions";
+import { createSignInLimiter } from "./auth/sign-in-limiter";
+import type { DatabaseHandle } from "./db/client";
+import type { Env } from "./env";
+import type { AppDeps } from "./lib/routes";
+import { loadGrants } from "./modules/auth/auth.service";
+
+/** Wires the app's collaborators from configuration and a database handle. */
+export function buildDeps(env: Env, database: DatabaseHandle, logger: Logger): AppDeps {
+  return {
+    db: database.db,
+    env,
+    logger,
+    sessions: createSessionStore(database.db, {
+      days: env.LINTEL_SESSION_DAYS,
+      secure: env.publicUrl.protocol === "https:",
+    }),
+    signInLimiter: createSignInLimiter(database.pool, {
+      perAccount: env.LINTEL_LOGIN_LIMIT_ACCOUNT,
+      perAddress: env.LINTEL_LOGIN_LIMIT_ADDRESS,
+      windowMinutes: env.LINTEL_LOGIN_WINDOW_MINUTES,
+    }),
+    loadGrants: (userId) => loadGrants(database, userId),
+  };
+}

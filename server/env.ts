@@ -1,0 +1,40 @@
+import { z } from "zod";
+
+/** The only reader of process.env. Parsed once at start-up; invalid settings stop the process. */
+const positiveInt = (fallback: number) => z.coerce.number().int().positive().default(fallback);
+
+const envSchema = z.object({
+  NODE_ENV: z.enum(["development", "test", "production"]).default("development"),
+  DATABASE_URL: z.url({ message: "DATABASE_URL must be a postgres:// URL" }),
+  HOST: z.string().min(1).default("127.0.0.1"),
+  PORT: z.coerce.number().int().min(0).max(65535).default(3000),
+  /** The address people open; links in e-mails and the same-origin check use it. */
+  LINTEL_PUBLIC_URL: z.url().optional(),
+  LOG_LEVEL: z.enum(["fatal", "error", "warn", "info", "debug", "trace", "silent"]).default("info"),
+  /** Session lifetime; a session used in its second half is extended (sliding renewal). */
+  LINTEL_SESSION_DAYS: positiveInt(14),
+  /** Failed sign-ins allowed per account, and per client address, within the window. */
+  LINTEL_LOGIN_LIMIT_ACCOUNT: positiveInt(10),
+  LINTEL_LOGIN_LIMIT_ADDRESS: positiveInt(50),
+  LINTEL_LOGIN_WINDOW_MINUTES: positiveInt(15),
+  /** Express "trust proxy" value: set it when a load balancer sits in front (e.g. `1`). */
+  LINTEL_TRUST_PROXY: z.string().optional(),
+  /** `1` loads the demo network (people, sites, history) into the database on start. */
+  LINTEL_DEMO: z.enum(["0", "1"]).default("0"),
+  /** Folder holding the built client; empty means API only. */
+  LINTEL_CLIENT_DIR: z.string().optional(),
+});
+
+export type Env = z.infer<typeof envSchema> & { publicUrl: URL };
+
+export function parseEnv(source: NodeJS.ProcessEnv = process.env): Env {
+  const result = envSchema.safeParse(source);
+  if (!result.success) {
+    const lines = result.error.issues.map((issue) => `  ${issue.path.join(".")}: ${issue.message}`);
+    throw new Error(`Lintel cannot start: invalid configuration\n${lines.join("\n")}`);
+  }
+  const env = result.data;
+  const fallbackHost = env.HOST === "0.0.0.0" || env.HOST === "::" ? "127.0.0.1" : env.HOST;
+  const publicUrl = new URL(env.LINTEL_PUBLIC_URL ?? `http://${fallbackHost}:${env.PORT}`);
+  return { ...env, publicUrl };
+}

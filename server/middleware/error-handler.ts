@@ -1,0 +1,59 @@
+import type { ErrorRequestHandler, RequestHandler } from "express";
+
+import type { ApiErrorEnvelope } from "@shared/api-error";
+
+import { AppError } from "../lib/app-error";
+
+interface HttpLikeError {
+  status?: number;
+  statusCode?: number;
+  type?: string;
+}
+
+/** Errors raised by body parsing arrive with a status and a type; give each a clear answer. */
+function fromParserError(err: HttpLikeError): AppError | null {
+  switch (err.type) {
+    case "entity.parse.failed":
+      return new AppError("bad_request", 400, "The request body is not valid JSON.", {
+        fields: { body: "Not valid JSON." },
+      });
+    case "entity.too.large":
+      return new AppError("payload_too_large", 413, "The request body is too large.");
+    case "encoding.unsupported":
+    case "charset.unsupported":
+      return new AppError("unsupported_media_type", 415, "Send the body as UTF-8 JSON.");
+    default: {
+      const status = err.status ?? err.statusCode;
+      if (status && status >= 400 && status < 500) {
+        return new AppError("bad_request", status, "The request could not be read.");
+      }
+      return null;
+    }
+  }
+}
+
+/** A race that slipped past a service's own check still answers 409, not 500. */
+function fromDatabaseError(err: { code?: unknown }): AppError | null {
+  if (err.code === "23505") return new AppError("conflict", 409, "That would duplicate an existing record.");
+  if (err.code === "23503") return new AppError("conflict", 409, "That refers to a record that no longer exists.");
+  return null;
+}
+
+export const apiNotFound: RequestHandler = (req, _res, next) => {
+  next(new AppError("not_found", 404, `There is no API route ${req.method} ${req.originalUrl}.`));
+};
+
+/** The last middleware: every error leaves as the one envelope; no stack traces to clients. */
+export const errorHandler: ErrorRequestHandler = (err, req, res, _next) => {
+  const known =
+    err instanceof AppError ? err : (fromParserError(err as HttpLikeError) ?? fromDatabaseError(err as { code?: unknown }));
+  const error = known ?? new AppError("internal", 500, "Something went wrong on our side. Try again.");
+  if (!known) req.log.error({ err }, "unhandled error");
+  else if (error.status >= 500) req.log.error({ err }, error.message);
+
+  if (error.retryAfterSeconds) res.set("Retry-After", String(error.retryAfterSeconds));
+  const body: ApiErrorEnvelope = {
+    error: { code: error.code, message: error.message, ...(error.fields ? { fields: error.fields } : {}) },
+  };
+  res.status(error.status).json(body);
+};

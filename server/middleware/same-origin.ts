@@ -1,0 +1,29 @@
+import type { RequestHandler } from "express";
+
+import { AppError } from "../lib/app-error";
+
+const safeMethods = new Set(["GET", "HEAD", "OPTIONS"]);
+
+function originOf(value: string | undefined): string | null {
+  if (!value) return null;
+  try {
+    return new URL(value).origin;
+  } catch {
+    return null;
+  }
+}
+
+/**
+ * State-changing requests must come from the app's own pages: the Origin (or, failing that, the
+ * Referer) must be the configured public URL's origin or the origin the request was addressed to.
+ * Together with SameSite=Lax cookies this stops cross-site request forgery.
+ */
+export function requireSameOrigin(publicUrl: URL): RequestHandler {
+  return (req, _res, next) => {
+    if (safeMethods.has(req.method)) return next();
+    const origin = originOf(req.get("origin")) ?? originOf(req.get("referer"));
+    const addressed = `${req.protocol}://${req.get("host") ?? ""}`;
+    if (origin !== null && (origin === publicUrl.origin || origin === addressed)) return next();
+    next(new AppError("bad_origin", 403, "This request did not come from a Lintel page."));
+  };
+}

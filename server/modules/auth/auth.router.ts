@@ -1,0 +1,38 @@
+import { signInBodySchema } from "@shared/schemas/auth";
+
+import { defineRoute } from "../../lib/routes";
+import { signIn } from "./auth.service";
+
+export const authRoutes = [
+  defineRoute({
+    method: "post",
+    path: "/auth/sign-in",
+    summary: "Sign in with e-mail and password",
+    access: { kind: "public" },
+    body: signInBodySchema,
+    async handle({ req, res, deps, body }) {
+      const { me, setCookie } = await signIn(deps, body, req.ip ?? "unknown");
+      res.append("Set-Cookie", setCookie).status(200).json(me);
+    },
+  }),
+  defineRoute({
+    method: "post",
+    path: "/auth/sign-out",
+    summary: "End the current session",
+    access: { kind: "signed-in" },
+    async handle({ res, deps, auth }) {
+      const blank = await deps.sessions.end(auth!.sessionId);
+      res.append("Set-Cookie", blank).status(204).end();
+    },
+  }),
+  defineRoute({
+    method: "get",
+    path: "/auth/me",
+    summary: "Who is signed in, with their roles",
+    access: { kind: "signed-in" },
+    handle({ res, auth }) {
+      const { user, grants } = auth!;
+      res.json({ user: { id: user.id, email: user.email, name: user.name }, roles: grants });
+    },
+  }),
+];

@@ -1,0 +1,21 @@
+import { sql } from "drizzle-orm";
+
+import { AppError } from "../../lib/app-error";
+import { defineRoute } from "../../lib/routes";
+
+export const healthRoutes = [
+  defineRoute({
+    method: "get",
+    path: "/health",
+    summary: "Liveness: 200 once the database answers",
+    access: { kind: "public" },
+    async handle({ res, deps }) {
+      try {
+        await deps.db.execute(sql`select 1`);
+      } catch {
+        throw new AppError("unavailable", 503, "The database is not answering.");
+      }
+      res.set("Cache-Control", "no-store").json({ status: "ok" });
+    },
+  }),
+];

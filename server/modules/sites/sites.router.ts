@@ -1,0 +1,55 @@
+import { createSiteBodySchema, siteParamsSchema, updateSiteBodySchema } from "@shared/schemas/site";
+
+import { defineRoute, type Access } from "../../lib/routes";
+import { createSite, listSitesFor, requireSite, siteIdIfExists, updateSite } from "./sites.service";
+
+const siteOfParam = (permission: "read:site:site" | "update:site:site"): Access => ({
+  kind: "site",
+  permission,
+  siteOf: (params, deps, user) => siteIdIfExists(deps.db, user.networkId, params.siteId!),
+});
+
+export const siteRoutes = [
+  defineRoute({
+    method: "get",
+    path: "/sites",
+    summary: "The sites where the person holds a role",
+    access: { kind: "signed-in" },
+    async handle({ res, deps, auth }) {
+      res.json({ sites: await listSitesFor(deps.db, auth!.user.networkId, auth!.grants) });
+    },
+  }),
+  defineRoute({
+    method: "post",
+    path: "/sites",
+    summary: "Add a site to the network",
+    access: { kind: "network", permission: "create:site:network" },
+    body: createSiteBodySchema,
+    async handle({ res, deps, auth, body, requestId }) {
+      const site = await createSite(deps.db, auth!.user.networkId, body, { userId: auth!.user.id, requestId });
+      res.status(201).json({ site });
+    },
+  }),
+  defineRoute({
+    method: "get",
+    path: "/sites/:siteId",
+    summary: "One site",
+    access: siteOfParam("read:site:site"),
+    params: siteParamsSchema,
+    async handle({ res, deps, auth, params }) {
+      res.json({ site: await requireSite(deps.db, auth!.user.networkId, params.siteId) });
+    },
+  }),
+  defineRoute({
+    method: "patch",
+    path: "/sites/:siteId",
+    summary: "Change a site's name, address, time zone or position",
+    access: siteOfParam("update:site:site"),
+    params: siteParamsSchema,
+    body: updateSiteBodySchema,
+    async handle({ res, deps, auth, params, body, requestId }) {
+      const site = await updateSite(deps.db, auth!.user.networkId, params.siteId, body, { userId: auth!.user.id, requestId });
+      res.json({ site });
+    },
+  }),
+];

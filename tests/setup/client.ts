@@ -1,0 +1,8 @@
+import "@testing-library/dom";
+
+import { cleanup } from "@testing-library/react";
+import { afterEach } from "vitest";
+
+afterEach(() => {
+  cleanup();
+});
