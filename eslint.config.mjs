@@ -7,17 +7,39 @@ import tseslint from "typescript-eslint";
 
 // Import direction (see DEVELOPERS.md): shared ← server, shared ← client; client features never
 // import each other or the app layer; nothing imports scripts except scripts and tests.
-const features = ["auth", "sites", "floor-plans", "walkthroughs", "actions", "committee", "admin", "people", "account"];
+const features = [
+  "auth",
+  "sites",
+  "floor-plans",
+  "walkthroughs",
+  "actions",
+  "committee",
+  "admin",
+  "people",
+  "account",
+];
 
 export default tseslint.config(
-  { ignores: ["dist/**", "node_modules/**", ".data/**", ".test-data/**", "drizzle/**", "coverage/**"] },
+  {
+    ignores: [
+      "dist/**",
+      "node_modules/**",
+      ".data/**",
+      ".test-data/**",
+      "drizzle/**",
+      "coverage/**",
+    ],
+  },
   js.configs.recommended,
   ...tseslint.configs.recommended,
   {
     plugins: { "import-x": importX },
     settings: {
       "import-x/resolver-next": [
-        createTypeScriptImportResolver({ project: ["./tsconfig.json", "./tsconfig.app.json"], noWarnOnMultipleProjects: true }),
+        createTypeScriptImportResolver({
+          project: ["./tsconfig.json", "./tsconfig.app.json"],
+          noWarnOnMultipleProjects: true,
+        }),
       ],
     },
     languageOptions: { globals: { ...globals.node } },
@@ -27,14 +49,46 @@ export default tseslint.config(
         "error",
         {
           zones: [
-            { target: "./shared", from: "./src", message: "shared/ must not depend on the client." },
-            { target: "./shared", from: "./server", message: "shared/ must not depend on the server." },
-            { target: "./src", from: "./server", message: "The client must not import server code." },
-            { target: "./server", from: "./src", message: "The server must not import client code." },
-            { target: "./server", from: "./scripts", message: "The server must not import provisioning scripts." },
-            { target: "./src/features", from: "./src/app", message: "Features must not import the app layer." },
-            { target: "./src/components", from: "./src/features", message: "Shared components must not import features." },
-            { target: "./src/lib", from: "./src/features", message: "lib/ must not import features." },
+            {
+              target: "./shared",
+              from: "./src",
+              message: "shared/ must not depend on the client.",
+            },
+            {
+              target: "./shared",
+              from: "./server",
+              message: "shared/ must not depend on the server.",
+            },
+            {
+              target: "./src",
+              from: "./server",
+              message: "The client must not import server code.",
+            },
+            {
+              target: "./server",
+              from: "./src",
+              message: "The server must not import client code.",
+            },
+            {
+              target: "./server",
+              from: "./scripts",
+              message: "The server must not import provisioning scripts.",
+            },
+            {
+              target: "./src/features",
+              from: "./src/app",
+              message: "Features must not import the app layer.",
+            },
+            {
+              target: "./src/components",
+              from: "./src/features",
+              message: "Shared components must not import features.",
+            },
+            {
+              target: "./src/lib",
+              from: "./src/features",
+              message: "lib/ must not import features.",
+            },
             ...features.map((feature) => ({
               target: `./src/features/${feature}`,
               from: "./src/features",
@@ -44,11 +98,18 @@ export default tseslint.config(
           ],
         },
       ],
-      "@typescript-eslint/no-unused-vars": ["error", { argsIgnorePattern: "^_", varsIgnorePattern: "^_" }],
+      "@typescript-eslint/no-unused-vars": [
+        "error",
+        { argsIgnorePattern: "^_", varsIgnorePattern: "^_" },
+      ],
       "@typescript-eslint/consistent-type-imports": ["error", { fixStyle: "inline-type-imports" }],
       "no-restricted-properties": [
         "error",
-        { object: "process", property: "env", message: "Read configuration in server/env.ts only." },
+        {
+          object: "process",
+          property: "env",
+          message: "Read configuration in server/env.ts only.",
+        },
       ],
     },
   },

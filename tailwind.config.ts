@@ -46,7 +46,7 @@ export default {
         },
       },
       spacing: {
-        "tap": "2.75rem",
+        tap: "2.75rem",
       },
       fontSize: {
         "2xs": ["0.6875rem", { lineHeight: "1rem" }],

@@ -1,6 +1,7 @@
 import path from "node:path";
 
-import { demoPassword, demoPeople } from "../server/demo/people";
+import { demoPassword, demoPeople, demoSites } from "../server/demo/people";
+import { roleLabels } from "../shared/roles";
 import { parseEnv } from "../server/env";
 import { startServer, type RunningServer } from "../server/server";
 import { buildClient, projectRoot } from "./lib/client-build";
@@ -37,7 +38,9 @@ async function main() {
       const port = Number(process.env.LINTEL_PG_PORT ?? 54329);
       const { folder, moved } = chooseClusterFolder(path.join(projectRoot, ".data", "postgres"));
       if (moved) {
-        console.log(`The postgres user cannot enter ${projectRoot}; the database lives in ${folder} instead.`);
+        console.log(
+          `The postgres user cannot enter ${projectRoot}; the database lives in ${folder} instead.`,
+        );
       }
       cluster = await prepareCluster({ folder, port });
       await cluster.start();
@@ -59,8 +62,11 @@ async function main() {
     if (env.LINTEL_DEMO === "1") {
       console.log(`\nDemo sign-ins (password for all: ${demoPassword}):`);
       for (const person of demoPeople) {
-        const roles = person.grants.map((grant) => `${grant.role}${grant.site ? ` @ ${grant.site}` : " (network-wide)"}`);
-        console.log(`  ${person.email.padEnd(32)} ${[...new Set(roles)].join(", ")}`);
+        const role = roleLabels[person.grants[0]!.role].toLowerCase();
+        const where = person.grants.map((grant) =>
+          grant.site ? demoSites[grant.site].name : "network-wide",
+        );
+        console.log(`  ${person.email.padEnd(32)} ${role}: ${where.join(", ")}`);
       }
     }
     console.log("\nPress Ctrl-C to stop.");

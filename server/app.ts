@@ -43,11 +43,20 @@ export function createApp(deps: AppDeps): express.Express {
       logger: deps.logger,
       genReqId: (req, res) => {
         const incoming = req.headers["x-request-id"];
-        const id = typeof incoming === "string" && requestIdPattern.test(incoming) ? incoming : randomUUID();
+        const id =
+          typeof incoming === "string" && requestIdPattern.test(incoming) ? incoming : randomUUID();
         res.setHeader("X-Request-Id", id);
         return id;
       },
       autoLogging: { ignore: (req) => req.url === "/api/health" },
+      serializers: {
+        req: (req: { id: unknown; method: string; url: string }) => ({
+          id: req.id,
+          method: req.method,
+          url: req.url,
+        }),
+        res: (res: { statusCode: number }) => ({ statusCode: res.statusCode }),
+      },
     }),
   );
 
@@ -66,7 +75,7 @@ export function createApp(deps: AppDeps): express.Express {
   const clientDir = env.LINTEL_CLIENT_DIR;
   if (clientDir && existsSync(path.join(clientDir, "index.html"))) {
     app.use(express.static(clientDir, { index: false, maxAge: "1h" }));
-    app.get("/*splat", (_req, res) => {
+    app.get("/{*splat}", (_req, res) => {
       res.set("Cache-Control", "no-store").sendFile(path.join(clientDir, "index.html"));
     });
   }

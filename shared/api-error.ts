@@ -23,7 +23,7 @@ export const apiErrorEnvelopeSchema = z.object({
   error: z.object({
     code: z.string(),
     message: z.string(),
-    /** Field path (dot-separated, e.g. `body.email`) → human message. */
+    /** Field name (dot-separated inside nested input, e.g. `email`, `grants.0.siteId`) → message. */
     fields: z.record(z.string(), z.string()).optional(),
   }),
 });

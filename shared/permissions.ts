@@ -14,7 +14,12 @@ export const permissions = [
 export type Permission = (typeof permissions)[number];
 
 export const rolePermissions: Record<Role, readonly Permission[]> = {
-  administrator: ["read:site:site", "create:site:network", "update:site:site", "read:change-log:site"],
+  administrator: [
+    "read:site:site",
+    "create:site:network",
+    "update:site:site",
+    "read:change-log:site",
+  ],
   auditor: ["read:site:site"],
   facilities_lead: ["read:site:site"],
   committee_member: ["read:site:site", "read:change-log:site"],
@@ -29,7 +34,11 @@ export function scopeOf(permission: Permission): "site" | "network" {
  * belongs to; a network-wide grant covers every site. Network-scoped permissions need a
  * network-wide grant.
  */
-export function can(grants: readonly RoleGrant[], permission: Permission, siteId?: string | null): boolean {
+export function can(
+  grants: readonly RoleGrant[],
+  permission: Permission,
+  siteId?: string | null,
+): boolean {
   const scope = scopeOf(permission);
   return grants.some((grant) => {
     if (!rolePermissions[grant.role].includes(permission)) return false;

@@ -21,7 +21,8 @@ export async function ensurePostgresBinaries(): Promise<string> {
   if (found) return found;
   await aptInstall(["postgresql"], "PostgreSQL (Debian package postgresql)");
   const installed = findBinDir();
-  if (!installed) throw new Error(`PostgreSQL was installed but no initdb was found under ${debianRoot}.`);
+  if (!installed)
+    throw new Error(`PostgreSQL was installed but no initdb was found under ${debianRoot}.`);
   return installed;
 }
 
@@ -89,7 +90,15 @@ export async function prepareCluster(options: ClusterOptions): Promise<Cluster> 
   }
 
   if (!existsSync(path.join(dataDir, "PG_VERSION"))) {
-    pg(binDir, "initdb", ["-D", dataDir, "-U", "postgres", "--auth=trust", "--encoding=UTF8", "--locale=C.UTF-8"]);
+    pg(binDir, "initdb", [
+      "-D",
+      dataDir,
+      "-U",
+      "postgres",
+      "--auth=trust",
+      "--encoding=UTF8",
+      "--locale=C.UTF-8",
+    ]);
   }
   if (isRoot) chmodSync(folder, 0o755);
 
@@ -106,7 +115,9 @@ export async function prepareCluster(options: ClusterOptions): Promise<Cluster> 
     `-p ${port}`,
     "-c listen_addresses=127.0.0.1",
     `-k ${socketDir}`,
-    ...(options.throwaway ? ["-c fsync=off", "-c synchronous_commit=off", "-c full_page_writes=off"] : []),
+    ...(options.throwaway
+      ? ["-c fsync=off", "-c synchronous_commit=off", "-c full_page_writes=off"]
+      : []),
   ].join(" ");
 
   const cluster: Cluster = {
@@ -122,14 +133,34 @@ export async function prepareCluster(options: ClusterOptions): Promise<Cluster> 
           `Port ${port} on 127.0.0.1 is taken by another program. Stop it, or choose another port with LINTEL_PG_PORT.`,
         );
       }
-      pg(binDir, "pg_ctl", ["-D", dataDir, "-l", logFile, "-w", "-t", "60", "-o", settings, "start"]);
+      pg(binDir, "pg_ctl", [
+        "-D",
+        dataDir,
+        "-l",
+        logFile,
+        "-w",
+        "-t",
+        "60",
+        "-o",
+        settings,
+        "start",
+      ]);
     },
     createDatabase(name) {
       const exists = pg(binDir, "psql", [
-        "-h", "127.0.0.1", "-p", String(port), "-U", "postgres", "-d", "postgres", "-tAc",
+        "-h",
+        "127.0.0.1",
+        "-p",
+        String(port),
+        "-U",
+        "postgres",
+        "-d",
+        "postgres",
+        "-tAc",
         `select 1 from pg_database where datname = '${name.replace(/'/g, "''")}'`,
       ]).trim();
-      if (exists !== "1") pg(binDir, "createdb", ["-h", "127.0.0.1", "-p", String(port), "-U", "postgres", name]);
+      if (exists !== "1")
+        pg(binDir, "createdb", ["-h", "127.0.0.1", "-p", String(port), "-U", "postgres", name]);
     },
     stop() {
       if (!isRunning()) return;

@@ -12,7 +12,10 @@ export function hashPassword(password: string): Promise<string> {
 // so the response time does not tell whether an e-mail address has an account.
 let decoyHash: Promise<string> | undefined;
 
-export async function verifyPassword(storedHash: string | null, password: string): Promise<boolean> {
+export async function verifyPassword(
+  storedHash: string | null,
+  password: string,
+): Promise<boolean> {
   if (storedHash === null) {
     decoyHash ??= hashPassword("lintel-decoy-password");
     await verify(await decoyHash, password).catch(() => false);

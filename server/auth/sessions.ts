@@ -66,7 +66,10 @@ export function createSessionStore(db: Database, options: { days: number; secure
     /** Starts a session and returns the Set-Cookie value. */
     async create(userId: string): Promise<{ sessionId: string; setCookie: string }> {
       const session = await lucia.createSession(userId, {}, { sessionId: randomUUID() });
-      return { sessionId: session.id, setCookie: lucia.createSessionCookie(session.id).serialize() };
+      return {
+        sessionId: session.id,
+        setCookie: lucia.createSessionCookie(session.id).serialize(),
+      };
     },
 
     /** Reads the cookie; never throws for a malformed or stale cookie. */

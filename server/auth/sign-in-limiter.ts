@@ -18,9 +18,24 @@ export type SignInLimiter = ReturnType<typeof createSignInLimiter>;
  */
 export function createSignInLimiter(pool: pg.Pool, limits: SignInLimits) {
   const duration = limits.windowMinutes * 60;
-  const common = { storeClient: pool, storeType: "pool", tableName: "rate_limits", tableCreated: true, duration, clearExpiredByTimeout: false };
-  const byAccount = new RateLimiterPostgres({ ...common, keyPrefix: "sign-in:account", points: limits.perAccount });
-  const byAddress = new RateLimiterPostgres({ ...common, keyPrefix: "sign-in:address", points: limits.perAddress });
+  const common = {
+    storeClient: pool,
+    storeType: "pool",
+    tableName: "rate_limits",
+    tableCreated: true,
+    duration,
+    clearExpiredByTimeout: false,
+  };
+  const byAccount = new RateLimiterPostgres({
+    ...common,
+    keyPrefix: "sign-in:account",
+    points: limits.perAccount,
+  });
+  const byAddress = new RateLimiterPostgres({
+    ...common,
+    keyPrefix: "sign-in:address",
+    points: limits.perAddress,
+  });
 
   const blocked = (res: RateLimiterRes | null, points: number) =>
     res !== null && res.consumedPoints >= points ? Math.ceil(res.msBeforeNext / 1000) : 0;
@@ -36,15 +51,15 @@ export function createSignInLimiter(pool: pg.Pool, limits: SignInLimits) {
   return {
     async assertAllowed(email: string, address: string): Promise<void> {
       const [account, client] = await Promise.all([byAccount.get(email), byAddress.get(address)]);
-      const wait = Math.max(blocked(account, limits.perAccount), blocked(client, limits.perAddress));
+      const wait = Math.max(
+        blocked(account, limits.perAccount),
+        blocked(client, limits.perAddress),
+      );
       if (wait > 0) throw tooMany(wait);
     },
 
     async recordFailure(email: string, address: string): Promise<void> {
-      await Promise.all([
-        byAccount.penalty(email, 1),
-        byAddress.penalty(address, 1),
-      ]);
+      await Promise.all([byAccount.penalty(email, 1), byAddress.penalty(address, 1)]);
     },
 
     async recordSuccess(email: string): Promise<void> {

@@ -13,7 +13,11 @@ export interface DemoPerson {
 }
 
 export const demoPeople: DemoPerson[] = [
-  { email: "admin@example.org", name: "Imogen Hale", grants: [{ role: "administrator", site: null }] },
+  {
+    email: "admin@example.org",
+    name: "Imogen Hale",
+    grants: [{ role: "administrator", site: null }],
+  },
   {
     email: "auditor@example.org",
     name: "Rafael Dunmore",
@@ -23,7 +27,11 @@ export const demoPeople: DemoPerson[] = [
       { role: "auditor", site: "wexley" },
     ],
   },
-  { email: "auditor2@example.org", name: "Aisling Brack", grants: [{ role: "auditor", site: "orchard" }] },
+  {
+    email: "auditor2@example.org",
+    name: "Aisling Brack",
+    grants: [{ role: "auditor", site: "orchard" }],
+  },
   {
     email: "facilities.general@example.org",
     name: "Tobias Fenwright",
@@ -39,13 +47,24 @@ export const demoPeople: DemoPerson[] = [
     name: "Desmond Ure",
     grants: [{ role: "facilities_lead", site: "wexley" }],
   },
-  { email: "committee@example.org", name: "Helena Stroud", grants: [{ role: "committee_member", site: null }] },
-  { email: "committee2@example.org", name: "Kwame Ashby", grants: [{ role: "committee_member", site: null }] },
+  {
+    email: "committee@example.org",
+    name: "Helena Stroud",
+    grants: [{ role: "committee_member", site: null }],
+  },
+  {
+    email: "committee2@example.org",
+    name: "Kwame Ashby",
+    grants: [{ role: "committee_member", site: null }],
+  },
 ];
 
 export const demoNetworkName = "Tamsin Bay Health";
 
-export const demoSites: Record<DemoSiteKey, { name: string; address: string; timeZone: string; latitude: number; longitude: number }> = {
+export const demoSites: Record<
+  DemoSiteKey,
+  { name: string; address: string; timeZone: string; latitude: number; longitude: number }
+> = {
   general: {
     name: "Tamsin Bay General Hospital",
     address: "1 Harbour Rise, Tamsin Bay",

@@ -15,7 +15,11 @@ export interface DemoStep {
  * Runs each demo step that this database has not seen, in order, each in its own transaction with
  * its record, so a later release adds its demo data to an existing database exactly once.
  */
-export async function runDemoSteps(db: Database, logger: Logger, steps: readonly DemoStep[]): Promise<string[]> {
+export async function runDemoSteps(
+  db: Database,
+  logger: Logger,
+  steps: readonly DemoStep[],
+): Promise<string[]> {
   const applied: string[] = [];
   for (const step of steps) {
     const ran = await db.transaction(async (tx) => {

@@ -10,18 +10,38 @@ const networkSitesPeople: DemoStep = {
   id: "2026-12-02-network-sites-people",
   description: "Tamsin Bay Health: three sites and eight people",
   async run(tx) {
-    const [network] = await tx.insert(networks).values({ name: demoNetworkName }).returning({ id: networks.id });
+    const [network] = await tx
+      .insert(networks)
+      .values({ name: demoNetworkName })
+      .returning({ id: networks.id });
     const siteIds = {} as Record<DemoSiteKey, string>;
-    for (const [key, site] of Object.entries(demoSites) as [DemoSiteKey, (typeof demoSites)[DemoSiteKey]][]) {
-      const [row] = await tx.insert(sites).values({ networkId: network!.id, ...site }).returning({ id: sites.id });
+    for (const [key, site] of Object.entries(demoSites) as [
+      DemoSiteKey,
+      (typeof demoSites)[DemoSiteKey],
+    ][]) {
+      const [row] = await tx
+        .insert(sites)
+        .values({ networkId: network!.id, ...site })
+        .returning({ id: sites.id });
       siteIds[key] = row!.id;
-      await recordChange(tx, system, { action: "site.created", entity: "site", entityId: row!.id, siteId: row!.id, after: site });
+      await recordChange(tx, system, {
+        action: "site.created",
+        entity: "site",
+        entityId: row!.id,
+        siteId: row!.id,
+        after: site,
+      });
     }
     for (const person of demoPeople) {
       const passwordHash = await hashPassword(demoPassword);
       const [user] = await tx
         .insert(users)
-        .values({ networkId: network!.id, email: person.email, displayName: person.name, passwordHash })
+        .values({
+          networkId: network!.id,
+          email: person.email,
+          displayName: person.name,
+          passwordHash,
+        })
         .returning({ id: users.id });
       await recordChange(tx, system, {
         action: "user.created",

@@ -27,5 +27,9 @@ export class AppError extends Error {
 
 export const notFound = (what = "That") => new AppError("not_found", 404, `${what} was not found.`);
 export const forbidden = () =>
-  new AppError("forbidden", 403, "Your role does not allow this. Ask an administrator if you need it.");
+  new AppError(
+    "forbidden",
+    403,
+    "Your role does not allow this. Ask an administrator if you need it.",
+  );
 export const unauthenticated = () => new AppError("unauthenticated", 401, "Sign in to continue.");

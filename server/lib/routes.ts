@@ -39,7 +39,11 @@ export type Access =
   | {
       kind: "site";
       permission: Permission;
-      siteOf: (params: Record<string, string>, deps: AppDeps, user: SessionUser) => Promise<string | null>;
+      siteOf: (
+        params: Record<string, string>,
+        deps: AppDeps,
+        user: SessionUser,
+      ) => Promise<string | null>;
     };
 
 export interface RouteContext<P, Q, B> {
@@ -85,7 +89,9 @@ export function defineRoute<
   handle: (ctx: RouteContext<z.output<P>, z.output<Q>, z.output<B>>) => Promise<unknown> | unknown;
 }): RouteDefinition {
   if (route.access.kind === "network" && scopeOf(route.access.permission) !== "network") {
-    throw new Error(`${route.method} ${route.path}: ${route.access.permission} is not network-scoped`);
+    throw new Error(
+      `${route.method} ${route.path}: ${route.access.permission} is not network-scoped`,
+    );
   }
   return {
     method: route.method,
@@ -98,7 +104,11 @@ export function defineRoute<
 }
 
 /** Mounts every route with the same sequence: who → params → scope → permission → query/body. */
-export function mountRoutes(router: Router, routes: readonly RouteDefinition[], deps: AppDeps): void {
+export function mountRoutes(
+  router: Router,
+  routes: readonly RouteDefinition[],
+  deps: AppDeps,
+): void {
   for (const route of routes) {
     const handler: RequestHandler = async (req, res) => {
       const auth = (res.locals.auth as SignedIn | null | undefined) ?? null;

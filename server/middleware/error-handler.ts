@@ -34,8 +34,10 @@ function fromParserError(err: HttpLikeError): AppError | null {
 
 /** A race that slipped past a service's own check still answers 409, not 500. */
 function fromDatabaseError(err: { code?: unknown }): AppError | null {
-  if (err.code === "23505") return new AppError("conflict", 409, "That would duplicate an existing record.");
-  if (err.code === "23503") return new AppError("conflict", 409, "That refers to a record that no longer exists.");
+  if (err.code === "23505")
+    return new AppError("conflict", 409, "That would duplicate an existing record.");
+  if (err.code === "23503")
+    return new AppError("conflict", 409, "That refers to a record that no longer exists.");
   return null;
 }
 
@@ -46,14 +48,21 @@ export const apiNotFound: RequestHandler = (req, _res, next) => {
 /** The last middleware: every error leaves as the one envelope; no stack traces to clients. */
 export const errorHandler: ErrorRequestHandler = (err, req, res, _next) => {
   const known =
-    err instanceof AppError ? err : (fromParserError(err as HttpLikeError) ?? fromDatabaseError(err as { code?: unknown }));
-  const error = known ?? new AppError("internal", 500, "Something went wrong on our side. Try again.");
+    err instanceof AppError
+      ? err
+      : (fromParserError(err as HttpLikeError) ?? fromDatabaseError(err as { code?: unknown }));
+  const error =
+    known ?? new AppError("internal", 500, "Something went wrong on our side. Try again.");
   if (!known) req.log.error({ err }, "unhandled error");
   else if (error.status >= 500) req.log.error({ err }, error.message);
 
   if (error.retryAfterSeconds) res.set("Retry-After", String(error.retryAfterSeconds));
   const body: ApiErrorEnvelope = {
-    error: { code: error.code, message: error.message, ...(error.fields ? { fields: error.fields } : {}) },
+    error: {
+      code: error.code,
+      message: error.message,
+      ...(error.fields ? { fields: error.fields } : {}),
+    },
   };
   res.status(error.status).json(body);
 };

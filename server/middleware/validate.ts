@@ -8,18 +8,24 @@ function fieldKey(part: string, path: readonly PropertyKey[]): string {
 }
 
 /** Parses one part of a request (params, query, body); a failure is a 400 naming every field. */
-export function parseInput<S extends z.ZodType>(schema: S, value: unknown, part: string): z.output<S> {
+export function parseInput<S extends z.ZodType>(
+  schema: S,
+  value: unknown,
+  part: string,
+): z.output<S> {
   const result = schema.safeParse(value);
   if (result.success) return result.data;
 
   const fields: Record<string, string> = {};
   for (const issue of result.error.issues) {
     if (issue.code === "unrecognized_keys") {
-      for (const key of issue.keys) fields[fieldKey(part, [...issue.path, key])] ??= "Unknown field.";
+      for (const key of issue.keys)
+        fields[fieldKey(part, [...issue.path, key])] ??= "Unknown field.";
       continue;
     }
     const key = fieldKey(part, issue.path);
-    fields[key] ??= value === undefined && part === "body" ? "A JSON body is required." : issue.message;
+    fields[key] ??=
+      value === undefined && part === "body" ? "A JSON body is required." : issue.message;
   }
   const names = Object.keys(fields).join(", ");
   throw new AppError("validation_failed", 400, `Check these fields: ${names}.`, { fields });

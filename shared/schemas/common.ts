@@ -23,16 +23,21 @@ export const emailSchema = text()
   .max(254, { message: "At most 254 characters." })
   .pipe(z.email({ message: "Enter an e-mail address such as name@example.org." }));
 
-const knownTimeZones = new Set<string>([...Intl.supportedValuesOf("timeZone"), "UTC"]);
+/** Area/Location names (and UTC); the runtime's time-zone database decides whether one exists. */
+const ianaShape = /^(?:UTC|[A-Za-z]+(?:\/[A-Za-z0-9_+-]+)+)$/;
+
+export function isKnownTimeZone(value: string): boolean {
+  if (!ianaShape.test(value)) return false;
+  try {
+    new Intl.DateTimeFormat("en-GB", { timeZone: value });
+    return true;
+  } catch {
+    return false;
+  }
+}
 
 /** An IANA time zone name such as `Europe/Dublin`; abbreviations and offsets are refused. */
 export const timeZoneSchema = text()
   .trim()
   .max(64, { message: "At most 64 characters." })
-  .refine((value) => knownTimeZones.has(value), {
-    message: "Use an IANA time zone name such as Europe/Dublin.",
-  });
-
-export function isKnownTimeZone(value: string): boolean {
-  return knownTimeZones.has(value);
-}
+  .refine(isKnownTimeZone, { message: "Use an IANA time zone name such as Europe/Dublin." });

@@ -20,12 +20,19 @@ export function buildSite(overrides: Partial<CreateSiteBody> = {}): CreateSiteBo
   };
 }
 
-export async function insertNetwork(db: Database, name = `Network ${unique()}`): Promise<{ id: string }> {
+export async function insertNetwork(
+  db: Database,
+  name = `Network ${unique()}`,
+): Promise<{ id: string }> {
   const [row] = await db.insert(networks).values({ name }).returning({ id: networks.id });
   return row!;
 }
 
-export async function insertSite(db: Database, networkId: string, overrides: Partial<CreateSiteBody> = {}) {
+export async function insertSite(
+  db: Database,
+  networkId: string,
+  overrides: Partial<CreateSiteBody> = {},
+) {
   const [row] = await db
     .insert(sites)
     .values({ networkId, ...buildSite(overrides) })

@@ -41,7 +41,10 @@ export function randomAddress(): string {
  * supertest against the app, sending what the app's own pages send: the Origin header, the
  * session cookie when given, and a client address.
  */
-export function api(app: Express = testApp().app, options: { cookie?: string; origin?: string | null } = {}) {
+export function api(
+  app: Express = testApp().app,
+  options: { cookie?: string; origin?: string | null } = {},
+) {
   const address = randomAddress();
   const agent = supertest(app);
   const decorate = (test: supertest.Test) => {
@@ -56,6 +59,7 @@ export function api(app: Express = testApp().app, options: { cookie?: string; or
     patch: (url: string) => decorate(agent.patch(url)),
     put: (url: string) => decorate(agent.put(url)),
     delete: (url: string) => decorate(agent.delete(url)),
-    request: (method: "get" | "post" | "put" | "patch" | "delete", url: string) => decorate(agent[method](url)),
+    request: (method: "get" | "post" | "put" | "patch" | "delete", url: string) =>
+      decorate(agent[method](url)),
   };
 }

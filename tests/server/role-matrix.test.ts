@@ -33,7 +33,14 @@ const callerGrants: Record<Caller, { role: Role; site: "A" | "B" | null }[]> = {
   "facilities lead @B": [{ role: "facilities_lead", site: "B" }],
 };
 const everyone = Object.keys(callerGrants) as Caller[];
-const atA: Caller[] = ["administrator (network)", "administrator @A", "auditor @A", "facilities lead @A", "committee member (network)", "committee member @A"];
+const atA: Caller[] = [
+  "administrator (network)",
+  "administrator @A",
+  "auditor @A",
+  "facilities lead @A",
+  "committee member (network)",
+  "committee member @A",
+];
 
 interface World {
   siteA: string;
@@ -59,7 +66,12 @@ const samples: Record<string, Sample> = {
   "POST /auth/sign-out": { url: () => "/api/auth/sign-out", ok: 204, allowed: everyone },
   "GET /auth/me": { url: () => "/api/auth/me", ok: 200, allowed: everyone },
   "GET /sites": { url: () => "/api/sites", ok: 200, allowed: everyone },
-  "POST /sites": { url: () => "/api/sites", body: () => buildSite(), ok: 201, allowed: ["administrator (network)"] },
+  "POST /sites": {
+    url: () => "/api/sites",
+    body: () => buildSite(),
+    ok: 201,
+    allowed: ["administrator (network)"],
+  },
   "GET /sites/:siteId": { url: (w) => `/api/sites/${w.siteA}`, ok: 200, allowed: atA },
   "PATCH /sites/:siteId": {
     url: (w) => `/api/sites/${w.siteA}`,
@@ -69,7 +81,8 @@ const samples: Record<string, Sample> = {
   },
 };
 
-const routeKey = (route: (typeof apiRoutes)[number]) => `${route.method.toUpperCase()} ${route.path}`;
+const routeKey = (route: (typeof apiRoutes)[number]) =>
+  `${route.method.toUpperCase()} ${route.path}`;
 
 describe("role matrix: every registered route, as every role, another site's member and signed out", () => {
   const world = {} as World;
@@ -115,7 +128,11 @@ describe("role matrix: every registered route, as every role, another site's mem
       for (const caller of everyone) {
         const allowed = sample.allowed.includes(caller);
         const hasRoleAtA = atA.includes(caller);
-        const expected = allowed ? sample.ok : route.access.kind === "site" && !hasRoleAtA ? 404 : 403;
+        const expected = allowed
+          ? sample.ok
+          : route.access.kind === "site" && !hasRoleAtA
+            ? 404
+            : 403;
         it(`when called by ${caller}, then ${expected}`, async () => {
           const response = await call(await sessionCookieFor(userIds[caller]));
           expect(response.status, JSON.stringify(response.body)).toBe(expected);

@@ -11,6 +11,8 @@ beforeEach(() => {
 afterEach(() => {
   vi.mocked(console.error).mockRestore();
   if (errors.length > 0) {
-    throw new Error(`console.error was called during the test:\n${errors.map((a) => a.map(String).join(" ")).join("\n")}`);
+    throw new Error(
+      `console.error was called during the test:\n${errors.map((a) => a.map(String).join(" ")).join("\n")}`,
+    );
   }
 });

@@ -1,4 +1,12 @@
-import { doublePrecision, pgTable, text, timestamp, unique, uuid, varchar } from "drizzle-orm/pg-core";
+import {
+  doublePrecision,
+  pgTable,
+  text,
+  timestamp,
+  unique,
+  uuid,
+  varchar,
+} from "drizzle-orm/pg-core";
 
 import { networks } from "./networks";
 

@@ -13,7 +13,10 @@ export interface SignInCandidate {
   deactivatedAt: Date | null;
 }
 
-export async function findUserForSignIn(db: DbOrTx, email: string): Promise<SignInCandidate | null> {
+export async function findUserForSignIn(
+  db: DbOrTx,
+  email: string,
+): Promise<SignInCandidate | null> {
   const [row] = await db
     .select({
       id: users.id,

@@ -6,7 +6,11 @@ import type { AppDeps } from "../../lib/routes";
 import { findUserForSignIn, listGrants } from "./auth.repository";
 
 const invalidCredentials = () =>
-  new AppError("invalid_credentials", 401, "That e-mail and password do not match an active account.");
+  new AppError(
+    "invalid_credentials",
+    401,
+    "That e-mail and password do not match an active account.",
+  );
 
 /** Checks credentials under the sign-in limits; answers the same for unknown e-mail and wrong password. */
 export async function signIn(

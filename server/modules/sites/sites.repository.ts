@@ -14,7 +14,11 @@ const siteColumns = {
   longitude: sites.longitude,
 };
 
-export async function listSites(db: DbOrTx, networkId: string, onlyIds: string[] | null): Promise<Site[]> {
+export async function listSites(
+  db: DbOrTx,
+  networkId: string,
+  onlyIds: string[] | null,
+): Promise<Site[]> {
   if (onlyIds !== null && onlyIds.length === 0) return [];
   const scope = onlyIds === null ? undefined : inArray(sites.id, onlyIds);
   return db
@@ -24,7 +28,12 @@ export async function listSites(db: DbOrTx, networkId: string, onlyIds: string[]
     .orderBy(asc(sites.name));
 }
 
-export async function findSite(db: DbOrTx, networkId: string, siteId: string, options: { forUpdate?: boolean } = {}): Promise<Site | null> {
+export async function findSite(
+  db: DbOrTx,
+  networkId: string,
+  siteId: string,
+  options: { forUpdate?: boolean } = {},
+): Promise<Site | null> {
   const query = db
     .select(siteColumns)
     .from(sites)
@@ -34,7 +43,11 @@ export async function findSite(db: DbOrTx, networkId: string, siteId: string, op
   return row ?? null;
 }
 
-export async function findSiteByName(db: DbOrTx, networkId: string, name: string): Promise<{ id: string } | null> {
+export async function findSiteByName(
+  db: DbOrTx,
+  networkId: string,
+  name: string,
+): Promise<{ id: string } | null> {
   const [row] = await db
     .select({ id: sites.id })
     .from(sites)
@@ -43,12 +56,23 @@ export async function findSiteByName(db: DbOrTx, networkId: string, name: string
   return row ?? null;
 }
 
-export async function insertSite(db: DbOrTx, networkId: string, values: Omit<Site, "id">): Promise<Site> {
-  const [row] = await db.insert(sites).values({ networkId, ...values }).returning(siteColumns);
+export async function insertSite(
+  db: DbOrTx,
+  networkId: string,
+  values: Omit<Site, "id">,
+): Promise<Site> {
+  const [row] = await db
+    .insert(sites)
+    .values({ networkId, ...values })
+    .returning(siteColumns);
   return row!;
 }
 
-export async function updateSite(db: DbOrTx, siteId: string, values: Partial<Omit<Site, "id">>): Promise<Site> {
+export async function updateSite(
+  db: DbOrTx,
+  siteId: string,
+  values: Partial<Omit<Site, "id">>,
+): Promise<Site> {
   const [row] = await db
     .update(sites)
     .set({ ...values, updatedAt: new Date() })

@@ -26,7 +26,10 @@ export const siteRoutes = [
     access: { kind: "network", permission: "create:site:network" },
     body: createSiteBodySchema,
     async handle({ res, deps, auth, body, requestId }) {
-      const site = await createSite(deps.db, auth!.user.networkId, body, { userId: auth!.user.id, requestId });
+      const site = await createSite(deps.db, auth!.user.networkId, body, {
+        userId: auth!.user.id,
+        requestId,
+      });
       res.status(201).json({ site });
     },
   }),
@@ -48,7 +51,10 @@ export const siteRoutes = [
     params: siteParamsSchema,
     body: updateSiteBodySchema,
     async handle({ res, deps, auth, params, body, requestId }) {
-      const site = await updateSite(deps.db, auth!.user.networkId, params.siteId, body, { userId: auth!.user.id, requestId });
+      const site = await updateSite(deps.db, auth!.user.networkId, params.siteId, body, {
+        userId: auth!.user.id,
+        requestId,
+      });
       res.json({ site });
     },
   }),

@@ -12,13 +12,21 @@ const nameTaken = () =>
   });
 
 /** The sites where the person holds any role; a network-wide grant covers them all. */
-export function listSitesFor(db: Database, networkId: string, grants: readonly RoleGrant[]): Promise<Site[]> {
+export function listSitesFor(
+  db: Database,
+  networkId: string,
+  grants: readonly RoleGrant[],
+): Promise<Site[]> {
   const networkWide = grants.some((grant) => grant.siteId === null);
   const ids = [...new Set(grants.flatMap((grant) => (grant.siteId ? [grant.siteId] : [])))];
   return repo.listSites(db, networkId, networkWide ? null : ids);
 }
 
-export async function siteIdIfExists(db: Database, networkId: string, siteId: string): Promise<string | null> {
+export async function siteIdIfExists(
+  db: Database,
+  networkId: string,
+  siteId: string,
+): Promise<string | null> {
   return (await repo.findSite(db, networkId, siteId))?.id ?? null;
 }
 
@@ -28,16 +36,33 @@ export async function requireSite(db: Database, networkId: string, siteId: strin
   return site;
 }
 
-export function createSite(db: Database, networkId: string, input: CreateSiteBody, actor: Actor): Promise<Site> {
+export function createSite(
+  db: Database,
+  networkId: string,
+  input: CreateSiteBody,
+  actor: Actor,
+): Promise<Site> {
   return db.transaction(async (tx) => {
     if (await repo.findSiteByName(tx, networkId, input.name)) throw nameTaken();
     const site = await repo.insertSite(tx, networkId, input);
-    await recordChange(tx, actor, { action: "site.created", entity: "site", entityId: site.id, siteId: site.id, after: site });
+    await recordChange(tx, actor, {
+      action: "site.created",
+      entity: "site",
+      entityId: site.id,
+      siteId: site.id,
+      after: site,
+    });
     return site;
   });
 }
 
-export function updateSite(db: Database, networkId: string, siteId: string, input: UpdateSiteBody, actor: Actor): Promise<Site> {
+export function updateSite(
+  db: Database,
+  networkId: string,
+  siteId: string,
+  input: UpdateSiteBody,
+  actor: Actor,
+): Promise<Site> {
   return db.transaction(async (tx) => {
     const before = await repo.findSite(tx, networkId, siteId, { forUpdate: true });
     if (!before) throw notFound("That site");

@@ -1,0 +1,28 @@
+import { createBrowserRouter, RouterProvider } from "react-router-dom";
+
+import { createQueryClient } from "@/lib/query-client";
+
+import { AppProvider } from "./provider";
+import { type AppRouter, createRoutes, sendToSignIn } from "./router";
+
+function createAppState() {
+  // The router is created next; the callback runs only later, once a request fails.
+  const queryClient = createQueryClient({
+    onUnauthenticated: () => sendToSignIn(router, queryClient),
+  });
+  const router: AppRouter = createBrowserRouter(createRoutes(queryClient));
+  return { queryClient, router };
+}
+
+// One per page load: made on first render, not at import, and kept outside React so a strict-mode
+// double render cannot leave a second router listening to the history.
+let appState: ReturnType<typeof createAppState> | undefined;
+
+export function App() {
+  const { queryClient, router } = (appState ??= createAppState());
+  return (
+    <AppProvider queryClient={queryClient}>
+      <RouterProvider router={router} />
+    </AppProvider>
+  );
+}

@@ -1,0 +1,51 @@
+import type { MeResponse } from "@shared/schemas/auth";
+import type { QueryClient } from "@tanstack/react-query";
+import { type LoaderFunctionArgs, Outlet, redirect, useOutletContext } from "react-router-dom";
+
+import { AppShell } from "@/components/layouts/app-shell";
+import { PageSpinner } from "@/components/ui/spinner";
+import { paths } from "@/config/paths";
+import { useMe } from "@/features/auth/api/get-me";
+import { AuthorizationProvider } from "@/lib/authorization";
+
+import { navigationItems } from "../navigation-items";
+import { isSignedIn } from "../session";
+
+function pathOf(url: { pathname: string; search: string }): string {
+  return `${url.pathname}${url.search}`;
+}
+
+export function protectedLoader(queryClient: QueryClient) {
+  return async ({ request }: LoaderFunctionArgs) => {
+    if (!(await isSignedIn(queryClient))) {
+      throw redirect(paths.signIn.getHref(pathOf(new URL(request.url))));
+    }
+    return null;
+  };
+}
+
+/** Everything behind sign-in: the app shell, with the signed-in person handed to each page. */
+export function ProtectedLayout() {
+  const me = useMe();
+
+  // Whoever forgets the person (signing out, a request finding the session gone) also navigates
+  // to the sign-in page; until that lands there is nothing to show.
+  if (!me.data) return <PageSpinner />;
+
+  return (
+    <AuthorizationProvider grants={me.data.roles}>
+      <AppShell
+        navigationItems={navigationItems}
+        homeHref={paths.home.getHref()}
+        personName={me.data.user.name}
+      >
+        <Outlet context={me.data satisfies MeResponse} />
+      </AppShell>
+    </AuthorizationProvider>
+  );
+}
+
+/** The signed-in person, for pages inside the protected layout. */
+export function useSignedInPerson(): MeResponse {
+  return useOutletContext<MeResponse>();
+}

@@ -1,0 +1,40 @@
+import type { QueryClient } from "@tanstack/react-query";
+import { type LoaderFunctionArgs, redirect, useNavigate, useSearchParams } from "react-router-dom";
+
+import { StandaloneLayout } from "@/components/layouts/standalone-layout";
+import { Card } from "@/components/ui/card";
+import { safeNextPath } from "@/config/paths";
+import { SignInForm } from "@/features/auth/components/sign-in-form";
+
+import { isSignedIn } from "../session";
+
+export function signInLoader(queryClient: QueryClient) {
+  return async ({ request }: LoaderFunctionArgs) => {
+    if (await isSignedIn(queryClient)) {
+      throw redirect(safeNextPath(new URL(request.url).searchParams.get("next")));
+    }
+    return null;
+  };
+}
+
+export function SignInRoute() {
+  const navigate = useNavigate();
+  const [searchParams] = useSearchParams();
+  const next = safeNextPath(searchParams.get("next"));
+
+  return (
+    <StandaloneLayout>
+      <title>Sign in · Lintel</title>
+      <Card className="p-6 md:p-8">
+        <h1 className="text-2xl font-bold tracking-tight">Sign in to Lintel</h1>
+        <p className="mt-2 mb-6 text-ink-muted">
+          Readiness checks for isolation rooms, anterooms, donning zones and doffing areas.
+        </p>
+        <SignInForm onSuccess={() => void navigate(next, { replace: true })} />
+      </Card>
+      <p className="mt-6 text-center text-sm text-ink-muted">
+        No account yet? Your infection prevention programme lead can add you.
+      </p>
+    </StandaloneLayout>
+  );
+}

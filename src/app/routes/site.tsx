@@ -1,0 +1,124 @@
+import { roleLabels } from "@shared/roles";
+import { siteParamsSchema } from "@shared/schemas/site";
+import type { QueryClient } from "@tanstack/react-query";
+import { type LoaderFunctionArgs, useParams } from "react-router-dom";
+
+import { Alert } from "@/components/ui/alert";
+import { Button } from "@/components/ui/button";
+import { Card } from "@/components/ui/card";
+import { CautionNote } from "@/components/ui/caution-note";
+import { EmptyState } from "@/components/ui/empty-state";
+import { Spinner } from "@/components/ui/spinner";
+import { TextLink } from "@/components/ui/text-link";
+import { paths } from "@/config/paths";
+import { siteQueryOptions, useSite } from "@/features/sites/api/get-site";
+import { SiteDetails } from "@/features/sites/components/site-details";
+import { isApiError } from "@/lib/api-client";
+
+import { isSignedIn } from "../session";
+import { useSignedInPerson } from "./protected-layout";
+
+export function siteLoader(queryClient: QueryClient) {
+  return async ({ params }: LoaderFunctionArgs) => {
+    const parsed = siteParamsSchema.safeParse(params);
+    if (parsed.success && (await isSignedIn(queryClient))) {
+      void queryClient.prefetchQuery(siteQueryOptions(parsed.data.siteId));
+    }
+    return null;
+  };
+}
+
+const upcoming = [
+  {
+    title: "Floor plans",
+    text: "Each floor with its isolation rooms, anterooms, donning zones and doffing areas, and the fixtures an audit looks for pinned where they stand.",
+  },
+  {
+    title: "Walkthroughs",
+    text: "The readiness checklist on your phone, space by space, with readings and photos of anything that needs attention.",
+  },
+  {
+    title: "Corrective actions",
+    text: "Every gap becomes an action with an owner and a due time, followed until an auditor verifies the fix.",
+  },
+];
+
+function SiteNotFound() {
+  return (
+    <>
+      <title>Site not found · Lintel</title>
+      <EmptyState
+        headingLevel={1}
+        title="This site is not available"
+        description="It may not exist, or you do not hold a role there."
+        action={<TextLink to={paths.home.getHref()}>Back to my sites</TextLink>}
+      />
+    </>
+  );
+}
+
+function SiteOverview({ siteId }: { siteId: string }) {
+  const me = useSignedInPerson();
+  const site = useSite(siteId);
+
+  if (site.isPending) return <Spinner label="Loading site…" className="py-8" />;
+  if (site.isError) {
+    if (isApiError(site.error) && site.error.status === 404) return <SiteNotFound />;
+    return (
+      <>
+        <h1 className="mb-4 text-2xl font-bold tracking-tight">Site</h1>
+        <Alert role="alert" tone="error" title="We could not load this site">
+          <p>{site.error.message}</p>
+          <Button variant="secondary" className="mt-3" onClick={() => void site.refetch()}>
+            Try again
+          </Button>
+        </Alert>
+      </>
+    );
+  }
+
+  const rolesHere = me.roles
+    .filter((grant) => grant.siteId === null || grant.siteId === siteId)
+    .map((grant) => roleLabels[grant.role]);
+
+  return (
+    <>
+      <title>{`${site.data.name} · Lintel`}</title>
+      <p className="text-sm">
+        <TextLink to={paths.home.getHref()}>My sites</TextLink>
+      </p>
+      <h1 className="mt-2 text-2xl font-bold tracking-tight md:text-3xl">{site.data.name}</h1>
+      {rolesHere.length > 0 ? (
+        <p className="mt-1 text-ink-muted">Your role here: {[...new Set(rolesHere)].join(", ")}</p>
+      ) : null}
+
+      <div className="mt-6 flex flex-col gap-6">
+        <SiteDetails site={site.data} />
+
+        <Card className="bg-brand-50">
+          <h2 className="text-lg font-semibold">Coming to this site</h2>
+          <p className="mt-1 text-ink-muted">
+            Floor plans, walkthroughs and corrective actions will gather here, so everything about
+            this site&apos;s readiness lives in one place.
+          </p>
+          <ul className="mt-4 grid gap-4 md:grid-cols-3">
+            {upcoming.map((item) => (
+              <li key={item.title} className="rounded-lg bg-surface p-4">
+                <h3 className="font-semibold text-brand-800">{item.title}</h3>
+                <p className="mt-1 text-sm text-ink-muted">{item.text}</p>
+              </li>
+            ))}
+          </ul>
+        </Card>
+
+        <CautionNote />
+      </div>
+    </>
+  );
+}
+
+export function SiteRoute() {
+  const parsed = siteParamsSchema.safeParse(useParams());
+  if (!parsed.success) return <SiteNotFound />;
+  return <SiteOverview key={parsed.data.siteId} siteId={parsed.data.siteId} />;
+}

@@ -1,0 +1,80 @@
+import { cn } from "@/lib/cn";
+
+export interface IconProps {
+  className?: string;
+}
+
+/** A building with a doorway: the sites a person works at. */
+export function SitesIcon({ className }: IconProps) {
+  return (
+    <svg
+      aria-hidden="true"
+      viewBox="0 0 24 24"
+      fill="none"
+      stroke="currentColor"
+      strokeWidth="1.8"
+      strokeLinecap="round"
+      strokeLinejoin="round"
+      className={cn("size-6", className)}
+    >
+      <path d="M4 21V5.5A1.5 1.5 0 0 1 5.5 4h9A1.5 1.5 0 0 1 16 5.5V21" />
+      <path d="M16 10h2.5A1.5 1.5 0 0 1 20 11.5V21" />
+      <path d="M2.5 21h19" />
+      <path d="M8.5 21v-4h3v4" />
+      <path d="M7.5 8h1M11.5 8h1M7.5 12h1M11.5 12h1" />
+    </svg>
+  );
+}
+
+/** A head and shoulders: the signed-in person's own page. */
+export function AccountIcon({ className }: IconProps) {
+  return (
+    <svg
+      aria-hidden="true"
+      viewBox="0 0 24 24"
+      fill="none"
+      stroke="currentColor"
+      strokeWidth="1.8"
+      strokeLinecap="round"
+      strokeLinejoin="round"
+      className={cn("size-6", className)}
+    >
+      <circle cx="12" cy="8.5" r="3.75" />
+      <path d="M4.5 20.5c.9-3.6 3.9-5.75 7.5-5.75s6.6 2.15 7.5 5.75" />
+    </svg>
+  );
+}
+
+export function ClockIcon({ className }: IconProps) {
+  return (
+    <svg
+      aria-hidden="true"
+      viewBox="0 0 20 20"
+      fill="none"
+      stroke="currentColor"
+      strokeWidth="1.6"
+      strokeLinecap="round"
+      className={cn("size-4", className)}
+    >
+      <circle cx="10" cy="10" r="7.25" />
+      <path d="M10 6v4.25l2.75 1.75" />
+    </svg>
+  );
+}
+
+export function PinIcon({ className }: IconProps) {
+  return (
+    <svg
+      aria-hidden="true"
+      viewBox="0 0 20 20"
+      fill="none"
+      stroke="currentColor"
+      strokeWidth="1.6"
+      strokeLinejoin="round"
+      className={cn("size-4", className)}
+    >
+      <path d="M10 18s-5.5-5.2-5.5-9.25a5.5 5.5 0 0 1 11 0C15.5 12.8 10 18 10 18Z" />
+      <circle cx="10" cy="8.75" r="2" />
+    </svg>
+  );
+}

@@ -1,0 +1,42 @@
+/** Route paths and the builders that make links to them; nothing else spells a URL. */
+export const paths = {
+  home: {
+    path: "/",
+    getHref: () => "/",
+  },
+  signIn: {
+    path: "/sign-in",
+    getHref: (next?: string | null) => {
+      const safe = next ? safeNextPath(next) : null;
+      return safe && safe !== "/" ? `/sign-in?next=${encodeURIComponent(safe)}` : "/sign-in";
+    },
+  },
+  site: {
+    path: "/sites/:siteId",
+    getHref: (siteId: string) => `/sites/${encodeURIComponent(siteId)}`,
+  },
+  account: {
+    path: "/account",
+    getHref: () => "/account",
+  },
+} as const;
+
+const probeOrigin = "https://lintel.invalid";
+
+/**
+ * Where to go after signing in: only a path inside this app, never another origin
+ * (`//host`, `/\host`, `https:` …) and never back to the sign-in page. Anything else → home.
+ */
+export function safeNextPath(next: string | null | undefined): string {
+  if (!next || !next.startsWith("/") || next.startsWith("//") || next.includes("\\")) {
+    return paths.home.path;
+  }
+  let url: URL;
+  try {
+    url = new URL(next, probeOrigin);
+  } catch {
+    return paths.home.path;
+  }
+  if (url.origin !== probeOrigin || url.pathname === paths.signIn.path) return paths.home.path;
+  return `${url.pathname}${url.search}${url.hash}`;
+}

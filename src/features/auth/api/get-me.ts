@@ -1,0 +1,31 @@
+import { type MeResponse, meResponseSchema } from "@shared/schemas/auth";
+import { queryOptions, useQuery } from "@tanstack/react-query";
+
+import { apiRequest, isApiError } from "@/lib/api-client";
+
+/** The key every sign-in, sign-out and session check reads or writes. */
+export const meQueryKey = ["sessions", "me"] as const;
+
+/** The signed-in person and their roles, or null when nobody is signed in. */
+export async function getMe({ signal }: { signal?: AbortSignal } = {}): Promise<MeResponse | null> {
+  try {
+    return await apiRequest("/api/auth/me", { schema: meResponseSchema, signal });
+  } catch (error) {
+    if (isApiError(error) && error.status === 401) return null;
+    throw error;
+  }
+}
+
+export function meQueryOptions() {
+  return queryOptions({
+    queryKey: meQueryKey,
+    queryFn: ({ signal }) => getMe({ signal }),
+    // Who is signed in changes only by signing in or out (both write this cache) or by the
+    // session ending, which any other request notices; so it is never refetched on its own.
+    staleTime: Infinity,
+  });
+}
+
+export function useMe() {
+  return useQuery(meQueryOptions());
+}

@@ -1,0 +1,32 @@
+import { type MeResponse, meResponseSchema, type SignInBody } from "@shared/schemas/auth";
+import {
+  mutationOptions,
+  type QueryClient,
+  useMutation,
+  useQueryClient,
+} from "@tanstack/react-query";
+
+import { apiRequest } from "@/lib/api-client";
+
+import { meQueryKey } from "./get-me";
+
+export function signIn(body: SignInBody): Promise<MeResponse> {
+  return apiRequest("/api/auth/sign-in", { method: "POST", body, schema: meResponseSchema });
+}
+
+export function signInMutationOptions(queryClient: QueryClient) {
+  return mutationOptions({
+    mutationKey: ["sessions", "sign-in"],
+    mutationFn: signIn,
+    onSuccess: (me) => {
+      // A new person may be holding the phone: keep nothing the previous session loaded.
+      queryClient.removeQueries({ predicate: (query) => query.queryKey[0] !== meQueryKey[0] });
+      queryClient.setQueryData(meQueryKey, me);
+    },
+  });
+}
+
+export function useSignIn() {
+  const queryClient = useQueryClient();
+  return useMutation(signInMutationOptions(queryClient));
+}

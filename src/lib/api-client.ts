@@ -1,0 +1,120 @@
+import { type ApiErrorCode, apiErrorEnvelopeSchema } from "@shared/api-error";
+import type { z } from "zod";
+
+/** Codes the client adds for failures that never reached the server or could not be read. */
+export type ClientErrorCode = "network_unavailable" | "unexpected_response";
+
+export interface ApiErrorInit {
+  status: number;
+  code: ApiErrorCode | ClientErrorCode | (string & {});
+  message: string;
+  fields?: Record<string, string>;
+}
+
+/** Every failed API call surfaces as this one type, parsed from the error envelope. */
+export class ApiError extends Error {
+  override readonly name = "ApiError";
+  readonly status: number;
+  readonly code: ApiErrorInit["code"];
+  readonly fields: Readonly<Record<string, string>>;
+
+  constructor({ status, code, message, fields }: ApiErrorInit) {
+    super(message);
+    this.status = status;
+    this.code = code;
+    this.fields = fields ?? {};
+  }
+
+  /** The server's message for a body field; it may name the field plainly or as `body.<name>`. */
+  fieldError(name: string): string | undefined {
+    return this.fields[name] ?? this.fields[`body.${name}`];
+  }
+}
+
+export function isApiError(error: unknown): error is ApiError {
+  return error instanceof ApiError;
+}
+
+type Method = "GET" | "POST" | "PUT" | "PATCH" | "DELETE";
+
+export interface ApiRequestOptions<TSchema extends z.ZodType | undefined> {
+  method?: Method;
+  body?: unknown;
+  /** Validates the reply against the shared contract; without it the reply is ignored. */
+  schema?: TSchema;
+  signal?: AbortSignal;
+}
+
+type Reply<TSchema> = TSchema extends z.ZodType ? z.output<TSchema> : undefined;
+
+const fallbackMessages: Record<number, string> = {
+  401: "Please sign in to continue.",
+  403: "You do not have access to this.",
+  404: "We could not find that.",
+  429: "Too many attempts. Please wait a moment and try again.",
+};
+
+async function readJson(response: Response): Promise<unknown> {
+  const text = await response.text();
+  if (text.length === 0) return undefined;
+  try {
+    return JSON.parse(text) as unknown;
+  } catch {
+    return undefined;
+  }
+}
+
+function errorFromReply(response: Response, body: unknown): ApiError {
+  const envelope = apiErrorEnvelopeSchema.safeParse(body);
+  if (envelope.success) {
+    return new ApiError({ status: response.status, ...envelope.data.error });
+  }
+  return new ApiError({
+    status: response.status,
+    code: response.status >= 500 ? "internal" : "unexpected_response",
+    message:
+      fallbackMessages[response.status] ??
+      "Lintel could not reach its server properly. Please try again.",
+  });
+}
+
+/** The one way the client talks to the API: same-origin, session cookie, envelope-aware. */
+export async function apiRequest<TSchema extends z.ZodType | undefined = undefined>(
+  path: string,
+  { method = "GET", body, schema, signal }: ApiRequestOptions<TSchema> = {},
+): Promise<Reply<TSchema>> {
+  const headers: Record<string, string> = { Accept: "application/json" };
+  if (body !== undefined) headers["Content-Type"] = "application/json";
+
+  let response: Response;
+  try {
+    response = await fetch(path, {
+      method,
+      headers,
+      body: body === undefined ? undefined : JSON.stringify(body),
+      credentials: "same-origin",
+      signal,
+    });
+  } catch (error) {
+    if (signal?.aborted) throw error;
+    throw new ApiError({
+      status: 0,
+      code: "network_unavailable",
+      message: "No connection to Lintel. Check your network and try again.",
+    });
+  }
+
+  const payload = await readJson(response);
+  if (!response.ok) throw errorFromReply(response, payload);
+  if (schema === undefined) return undefined as Reply<TSchema>;
+
+  const parsed = schema.safeParse(payload);
+  if (!parsed.success) {
+    throw new ApiError({
+      status: response.status,
+      code: "unexpected_response",
+      message: "Lintel received a reply it could not read. Please reload the page.",
+    });
+  }
+  return parsed.data as Reply<TSchema>;
+}

@@ -1,0 +1,45 @@
+import { mkdtempSync, rmSync } from "node:fs";
+import os from "node:os";
+import path from "node:path";
+
+import { ensureChromium } from "../../scripts/lib/chromium";
+import { buildClient } from "../../scripts/lib/client-build";
+import { freePort } from "../../scripts/lib/process";
+import { parseEnv } from "../../server/env";
+import { startServer } from "../../server/server";
+import { startTestCluster } from "./test-cluster";
+
+/**
+ * For the browser project: chromium, a throwaway database with the demo network, the client built
+ * into a temp folder (never the `npm start` build), and the real server on a free port.
+ */
+export default async function setup() {
+  const [chromium, { cluster, url }] = await Promise.all([
+    ensureChromium(),
+    startTestCluster("browser"),
+  ]);
+  const clientDir = mkdtempSync(path.join(os.tmpdir(), "lintel-client-"));
+  await buildClient(clientDir);
+  const port = await freePort();
+  const server = await startServer(
+    parseEnv({
+      NODE_ENV: "test",
+      DATABASE_URL: url,
+      HOST: "127.0.0.1",
+      PORT: String(port),
+      LOG_LEVEL: "warn",
+      LINTEL_DEMO: "1",
+      LINTEL_CLIENT_DIR: clientDir,
+    }),
+  );
+  process.env.LINTEL_E2E_URL = server.url;
+  process.env.LINTEL_E2E_CHROMIUM = chromium;
+  // Not DATABASE_URL: the API project sets that one for its own cluster in this same process.
+  process.env.LINTEL_E2E_DATABASE_URL = url;
+
+  return async () => {
+    await server.close();
+    cluster.destroy();
+    rmSync(clientDir, { recursive: true, force: true });
+  };
+}
