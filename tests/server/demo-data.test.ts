@@ -60,6 +60,26 @@ describe("demo data", () => {
     expect(ran).toBe(1);
   });
 
+  it("when each demo person signs in with the demo password, then they get the roles the README lists", async () => {
+    const { db, logger } = testApp().deps;
+    await runDemoSteps(db, logger, demoStepList);
+    for (const person of demoPeople) {
+      const response = await api()
+        .post("/api/auth/sign-in")
+        .send({ email: person.email, password: demoPassword });
+      expect(response.status, person.email).toBe(200);
+      expect(response.body.roles.map((grant: { role: string }) => grant.role).sort()).toEqual(
+        person.grants.map((grant) => grant.role).sort(),
+      );
+      const networkWide = response.body.roles.filter(
+        (grant: { siteId: string | null }) => grant.siteId === null,
+      );
+      expect(networkWide.length, person.email).toBe(
+        person.grants.filter((grant) => grant.site === null).length,
+      );
+    }
+  });
+
   it("when a demo person signs in with the demo password, then they get their roles", async () => {
     const { db, logger } = testApp().deps;
     await runDemoSteps(db, logger, demoStepList);
