@@ -5,6 +5,7 @@ import { roleLabels } from "../shared/roles";
 import { parseEnv } from "../server/env";
 import { startServer, type RunningServer } from "../server/server";
 import { buildClient, projectRoot } from "./lib/client-build";
+import { startMailCatcher, type MailCatcher } from "./lib/mail-catcher";
 import { chooseClusterFolder, prepareCluster, type Cluster } from "./lib/postgres";
 
 /**
@@ -14,6 +15,7 @@ import { chooseClusterFolder, prepareCluster, type Cluster } from "./lib/postgre
 async function main() {
   let cluster: Cluster | null = null;
   let server: RunningServer | null = null;
+  let mailCatcher: MailCatcher | null = null;
   let stopping = false;
 
   const stop = async (reason: string) => {
@@ -22,6 +24,7 @@ async function main() {
     console.log(`\n${reason}: stopping Lintel…`);
     try {
       await server?.close();
+      await mailCatcher?.stop();
     } finally {
       if (cluster) {
         cluster.stop();
@@ -50,6 +53,16 @@ async function main() {
       console.log(`PostgreSQL is running on 127.0.0.1:${port} (data in ${folder}).`);
     }
 
+    if (!process.env.SMTP_HOST) {
+      // No real SMTP server configured: catch every e-mail locally so nothing leaves the machine.
+      const dir = path.join(projectRoot, ".data", "mail");
+      mailCatcher = await startMailCatcher({ dir });
+      process.env.SMTP_HOST = "127.0.0.1";
+      process.env.SMTP_PORT = String(mailCatcher.port);
+      process.env.LINTEL_DEV_MAILBOX_DIR ??= dir;
+      console.log(`Local mail catcher on 127.0.0.1:${mailCatcher.port} (messages in ${dir}).`);
+    }
+
     const clientDir = path.join(projectRoot, "dist", "client");
     console.log("Building the app…");
     await buildClient(clientDir);
@@ -73,6 +86,7 @@ async function main() {
   } catch (error) {
     console.error(`\n${error instanceof Error ? error.message : String(error)}`);
     await server?.close().catch(() => undefined);
+    await mailCatcher?.stop();
     cluster?.stop();
     process.exit(1);
   }

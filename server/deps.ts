@@ -1,14 +1,19 @@
 import type { Logger } from "pino";
 
 import { createSessionStore } from "./auth/sessions";
-import { createSignInLimiter } from "./auth/sign-in-limiter";
+import { createResetLimiter, createSignInLimiter } from "./auth/sign-in-limiter";
 import type { DatabaseHandle } from "./db/client";
 import type { Env } from "./env";
 import type { AppDeps } from "./lib/routes";
 import { loadGrants } from "./modules/auth/auth.service";
 
 /** Wires the app's collaborators from configuration and a database handle. */
-export function buildDeps(env: Env, database: DatabaseHandle, logger: Logger): AppDeps {
+export function buildDeps(
+  env: Env,
+  database: DatabaseHandle,
+  logger: Logger,
+  notifyOutbox: () => void = () => undefined,
+): AppDeps {
   return {
     db: database.db,
     env,
@@ -22,6 +27,12 @@ export function buildDeps(env: Env, database: DatabaseHandle, logger: Logger): A
       perAddress: env.LINTEL_LOGIN_LIMIT_ADDRESS,
       windowMinutes: env.LINTEL_LOGIN_WINDOW_MINUTES,
     }),
+    resetLimiter: createResetLimiter(database.pool, {
+      perAccount: 5,
+      perAddress: 30,
+      windowMinutes: 60,
+    }),
     loadGrants: (userId) => loadGrants(database, userId),
+    notifyOutbox,
   };
 }

@@ -21,6 +21,26 @@ const envSchema = z.object({
   LINTEL_TRUST_PROXY: z.string().optional(),
   /** `1` loads the demo network (people, sites, history) into the database on start. */
   LINTEL_DEMO: z.enum(["0", "1"]).default("0"),
+  /** SMTP server for every e-mail Lintel sends. */
+  SMTP_HOST: z.string().min(1).default("127.0.0.1"),
+  SMTP_PORT: z.coerce.number().int().min(1).max(65535).default(2525),
+  /** `true` for implicit TLS (usually port 465); otherwise STARTTLS is used when offered. */
+  SMTP_SECURE: z.enum(["true", "false"]).default("false"),
+  SMTP_USER: z.string().optional(),
+  SMTP_PASSWORD: z.string().optional(),
+  LINTEL_MAIL_FROM: z.string().min(3).default("Lintel <lintel@example.org>"),
+  /** How often the outbox worker looks for due e-mail, and the first retry delay (doubling). */
+  LINTEL_OUTBOX_POLL_MS: positiveInt(1000),
+  LINTEL_OUTBOX_RETRY_MS: positiveInt(5000),
+  LINTEL_OUTBOX_MAX_ATTEMPTS: positiveInt(12),
+  /** A send not finished within this time is treated as interrupted (process died). */
+  LINTEL_OUTBOX_LEASE_MS: positiveInt(120_000),
+  /** `0` keeps this process from sending e-mail (another process does it). */
+  LINTEL_OUTBOX_WORKER: z.enum(["0", "1"]).default("1"),
+  LINTEL_INVITATION_DAYS: positiveInt(7),
+  LINTEL_PASSWORD_RESET_MINUTES: positiveInt(60),
+  /** Folder where the local mail catcher keeps what it received (demo and development only). */
+  LINTEL_DEV_MAILBOX_DIR: z.string().optional(),
   /** Folder holding the built client; empty means API only. */
   LINTEL_CLIENT_DIR: z.string().optional(),
 });

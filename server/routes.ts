@@ -1,6 +1,16 @@
+import { accountRoutes } from "./modules/accounts/accounts.router";
 import { authRoutes } from "./modules/auth/auth.router";
+import { devMailboxRoutes } from "./modules/dev-mailbox/dev-mailbox.router";
 import { healthRoutes } from "./modules/health/health.router";
+import { peopleRoutes } from "./modules/people/people.router";
 import { siteRoutes } from "./modules/sites/sites.router";
 
 /** Every API route with its declared access: the server mounts these and the role matrix tests them. */
-export const apiRoutes = [...healthRoutes, ...authRoutes, ...siteRoutes];
+export const apiRoutes = [
+  ...healthRoutes,
+  ...devMailboxRoutes,
+  ...authRoutes,
+  ...accountRoutes,
+  ...siteRoutes,
+  ...peopleRoutes,
+];

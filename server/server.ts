@@ -8,6 +8,8 @@ import { demoStepList } from "./demo/steps";
 import { buildDeps } from "./deps";
 import type { Env } from "./env";
 import { createLogger } from "./lib/logger";
+import { createMailer } from "./lib/mailer";
+import { createOutboxWorker } from "./outbox/outbox-worker";
 
 export interface RunningServer {
   url: string;
@@ -21,7 +23,23 @@ export async function startServer(env: Env): Promise<RunningServer> {
   const database = connectDatabase(env.DATABASE_URL);
   if (env.LINTEL_DEMO === "1") await runDemoSteps(database.db, logger, demoStepList);
 
-  const app = createApp(buildDeps(env, database, logger));
+  const mailer = createMailer(env);
+  const worker =
+    env.LINTEL_OUTBOX_WORKER === "1"
+      ? createOutboxWorker({
+          db: database.db,
+          mailer,
+          logger,
+          pollMs: env.LINTEL_OUTBOX_POLL_MS,
+          retryMs: env.LINTEL_OUTBOX_RETRY_MS,
+          maxAttempts: env.LINTEL_OUTBOX_MAX_ATTEMPTS,
+          leaseMs: env.LINTEL_OUTBOX_LEASE_MS,
+          messageIdDomain: env.publicUrl.hostname,
+        })
+      : null;
+  worker?.start();
+
+  const app = createApp(buildDeps(env, database, logger, () => worker?.nudge()));
   const server = createServer(app);
   await new Promise<void>((resolve, reject) => {
     server.once("error", reject);
@@ -39,6 +57,8 @@ export async function startServer(env: Env): Promise<RunningServer> {
         server.close(() => resolve());
         server.closeIdleConnections();
       });
+      await worker?.stop();
+      mailer.close();
       await database.close();
     },
   };

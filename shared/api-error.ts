@@ -10,6 +10,7 @@ export const apiErrorCodes = [
   "bad_origin",
   "not_found",
   "conflict",
+  "link_invalid",
   "payload_too_large",
   "unsupported_media_type",
   "rate_limited",

@@ -10,6 +10,8 @@ export const permissions = [
   "create:site:network",
   "update:site:site",
   "read:change-log:site",
+  "manage:people:site",
+  "read:dev-mailbox:network",
 ] as const;
 export type Permission = (typeof permissions)[number];
 
@@ -19,6 +21,8 @@ export const rolePermissions: Record<Role, readonly Permission[]> = {
     "create:site:network",
     "update:site:site",
     "read:change-log:site",
+    "manage:people:site",
+    "read:dev-mailbox:network",
   ],
   auditor: ["read:site:site"],
   facilities_lead: ["read:site:site"],
@@ -46,6 +50,26 @@ export function can(
     if (scope === "network") return false;
     return siteId != null && grant.siteId === siteId;
   });
+}
+
+/** Whether the person holds the permission at one site at least (or network-wide). */
+export function canSomewhere(grants: readonly RoleGrant[], permission: Permission): boolean {
+  return grants.some((grant) => rolePermissions[grant.role].includes(permission));
+}
+
+/**
+ * Whether a person with `grants` may give (or take away) `target`: nobody grants above their own.
+ * A network-wide administrator may grant any role anywhere; an administrator of a site may grant
+ * any role at that site only; network-wide grants need a network-wide administrator.
+ */
+export function canGrant(grants: readonly RoleGrant[], target: RoleGrant): boolean {
+  if (target.siteId === null) {
+    return grants.some(
+      (grant) =>
+        grant.siteId === null && rolePermissions[grant.role].includes("manage:people:site"),
+    );
+  }
+  return can(grants, "manage:people:site", target.siteId);
 }
 
 /** Whether the grants give the person any role at the site (what "their site" means). */

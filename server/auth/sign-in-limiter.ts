@@ -1,5 +1,5 @@
 import type pg from "pg";
-import { RateLimiterPostgres, type RateLimiterRes } from "rate-limiter-flexible";
+import { RateLimiterPostgres, RateLimiterRes } from "rate-limiter-flexible";
 
 import { AppError } from "../lib/app-error";
 
@@ -64,6 +64,47 @@ export function createSignInLimiter(pool: pg.Pool, limits: SignInLimits) {
 
     async recordSuccess(email: string): Promise<void> {
       await byAccount.delete(email);
+    },
+  };
+}
+
+export type ResetLimiter = ReturnType<typeof createResetLimiter>;
+
+/**
+ * Password-reset e-mails per address and per client, so the form cannot be used to flood a
+ * mailbox. Past the limit the answer stays the same; no e-mail is queued.
+ */
+export function createResetLimiter(
+  pool: pg.Pool,
+  limits: { perAccount: number; perAddress: number; windowMinutes: number },
+) {
+  const common = {
+    storeClient: pool,
+    storeType: "pool",
+    tableName: "rate_limits",
+    tableCreated: true,
+    duration: limits.windowMinutes * 60,
+    clearExpiredByTimeout: false,
+  };
+  const byAccount = new RateLimiterPostgres({
+    ...common,
+    keyPrefix: "reset:account",
+    points: limits.perAccount,
+  });
+  const byAddress = new RateLimiterPostgres({
+    ...common,
+    keyPrefix: "reset:address",
+    points: limits.perAddress,
+  });
+  return {
+    async allow(email: string, address: string): Promise<boolean> {
+      try {
+        await Promise.all([byAccount.consume(email), byAddress.consume(address)]);
+        return true;
+      } catch (error) {
+        if (error instanceof RateLimiterRes) return false;
+        throw error;
+      }
     },
   };
 }

@@ -2,10 +2,10 @@ import type { Request, RequestHandler, Response, Router } from "express";
 import type { Logger } from "pino";
 import type { z } from "zod";
 
-import { can, hasAnyRoleAt, scopeOf, type Permission } from "@shared/permissions";
+import { can, canSomewhere, hasAnyRoleAt, scopeOf, type Permission } from "@shared/permissions";
 import type { RoleGrant } from "@shared/roles";
 
-import type { SignInLimiter } from "../auth/sign-in-limiter";
+import type { ResetLimiter, SignInLimiter } from "../auth/sign-in-limiter";
 import type { SessionStore, SessionUser } from "../auth/sessions";
 import type { Database } from "../db/client";
 import type { Env } from "../env";
@@ -18,8 +18,11 @@ export interface AppDeps {
   logger: Logger;
   sessions: SessionStore;
   signInLimiter: SignInLimiter;
+  resetLimiter: ResetLimiter;
   /** Loads a person's role grants; one query per request. */
   loadGrants: (userId: string) => Promise<RoleGrant[]>;
+  /** Tells the e-mail worker that new mail is waiting (after the transaction commits). */
+  notifyOutbox: () => void;
 }
 
 export interface SignedIn {
@@ -36,6 +39,8 @@ export type Access =
   | { kind: "public" }
   | { kind: "signed-in" }
   | { kind: "network"; permission: Permission }
+  /** The permission at one site at least; the service narrows to those sites. */
+  | { kind: "any-site"; permission: Permission }
   | {
       kind: "site";
       permission: Permission;
@@ -118,6 +123,8 @@ export function mountRoutes(
       let siteId: string | null = null;
       if (route.access.kind === "network") {
         if (!can(auth!.grants, route.access.permission)) throw forbidden();
+      } else if (route.access.kind === "any-site") {
+        if (!canSomewhere(auth!.grants, route.access.permission)) throw forbidden();
       } else if (route.access.kind === "site") {
         siteId = await route.access.siteOf(params as Record<string, string>, deps, auth!.user);
         // What is not theirs to see does not exist for them.

@@ -1,10 +1,24 @@
-import { beforeAll, describe, expect, it } from "vitest";
+import { mkdtempSync } from "node:fs";
+import os from "node:os";
+import path from "node:path";
+
+import { eq } from "drizzle-orm";
+import { afterAll, beforeAll, describe, expect, it } from "vitest";
 
 import type { Role } from "@shared/roles";
 
+import { hashPassword } from "../../server/auth/password";
+import { users } from "../../server/db/schema/index";
 import { apiRoutes } from "../../server/routes";
-import { buildSite, insertNetwork, insertSite, insertUser } from "../factories/records";
-import { api, testApp } from "../helpers/app";
+import {
+  buildSite,
+  insertGrant,
+  insertNetwork,
+  insertSite,
+  insertUser,
+} from "../factories/records";
+import { api, createTestApp, testApp, type TestApp } from "../helpers/app";
+import { issueTestLink } from "../helpers/links";
 import { sessionCookieFor, signInAs } from "../helpers/auth";
 
 // The designed access for every route, stated here independently of the server's own tables.
@@ -43,41 +57,226 @@ const atA: Caller[] = [
 ];
 
 interface World {
+  networkId: string;
   siteA: string;
   signInEmail: string;
+  /** A hash of "matrix-password-1", so password changes need no hashing per call. */
+  knownHash: string;
+}
+
+interface Call {
+  url: string;
+  body?: object;
 }
 
 interface Sample {
-  url: (world: World) => string;
-  body?: (world: World) => object;
+  /** Makes what one call needs (fresh rows, a fresh link) and returns the request. */
+  prepare: (world: World, caller: { userId: string | null }) => Promise<Call> | Call;
   ok: number;
-  /** Callers who get `ok`; other signed-in callers get 403, or 404 on a site they hold no role at. */
+  /** Callers who get `ok`. */
   allowed: Caller[];
+  /** Signed-in callers who get 404 (the resource is not theirs to see); the rest get 403. */
+  hidden?: Caller[];
+}
+
+const admins: Caller[] = ["administrator (network)", "administrator @A"];
+const notAtA: Caller[] = everyone.filter((caller) => !atA.includes(caller));
+
+/** A person holding a role at site A, optionally invited-only or deactivated. */
+async function personAtA(world: World, state: "active" | "invited" | "deactivated" = "active") {
+  const { db } = testApp().deps;
+  const person = await insertUser(db, world.networkId, {
+    password: undefined,
+    deactivatedAt: state === "deactivated" ? new Date() : null,
+  });
+  if (state !== "invited")
+    await db.update(users).set({ passwordHash: world.knownHash }).where(eq(users.id, person.id));
+  const grant = await insertGrant(db, person.id, "auditor", world.siteA);
+  return { person, grant };
 }
 
 const samples: Record<string, Sample> = {
-  "GET /health": { url: () => "/api/health", ok: 200, allowed: everyone },
+  "GET /health": { prepare: () => ({ url: "/api/health" }), ok: 200, allowed: everyone },
+  "GET /app-config": { prepare: () => ({ url: "/api/app-config" }), ok: 200, allowed: everyone },
+  "GET /dev/mailbox": {
+    prepare: () => ({ url: "/api/dev/mailbox" }),
+    ok: 200,
+    allowed: ["administrator (network)"],
+  },
   "POST /auth/sign-in": {
-    url: () => "/api/auth/sign-in",
-    body: (world) => ({ email: world.signInEmail, password: "matrix-password-1" }),
+    prepare: (world) => ({
+      url: "/api/auth/sign-in",
+      body: { email: world.signInEmail, password: "matrix-password-1" },
+    }),
     ok: 200,
     allowed: everyone,
   },
-  "POST /auth/sign-out": { url: () => "/api/auth/sign-out", ok: 204, allowed: everyone },
-  "GET /auth/me": { url: () => "/api/auth/me", ok: 200, allowed: everyone },
-  "GET /sites": { url: () => "/api/sites", ok: 200, allowed: everyone },
+  "POST /auth/sign-out": {
+    prepare: () => ({ url: "/api/auth/sign-out" }),
+    ok: 204,
+    allowed: everyone,
+  },
+  "GET /auth/me": { prepare: () => ({ url: "/api/auth/me" }), ok: 200, allowed: everyone },
+  "PATCH /auth/me": {
+    prepare: () => ({ url: "/api/auth/me", body: { name: "Renamed In Matrix" } }),
+    ok: 200,
+    allowed: everyone,
+  },
+  "POST /auth/me/password": {
+    async prepare(world, caller) {
+      if (caller.userId) {
+        await testApp()
+          .deps.db.update(users)
+          .set({ passwordHash: world.knownHash })
+          .where(eq(users.id, caller.userId));
+      }
+      return {
+        url: "/api/auth/me/password",
+        body: {
+          currentPassword: "matrix-password-1",
+          newPassword: "a new long passphrase for the matrix",
+        },
+      };
+    },
+    ok: 204,
+    allowed: everyone,
+  },
+  "GET /invitations/:token": {
+    async prepare(world) {
+      const { person } = await personAtA(world, "invited");
+      return { url: `/api/invitations/${await issueTestLink(person.id, "invitation")}` };
+    },
+    ok: 200,
+    allowed: everyone,
+  },
+  "POST /invitations/:token/accept": {
+    async prepare(world) {
+      const { person } = await personAtA(world, "invited");
+      return {
+        url: `/api/invitations/${await issueTestLink(person.id, "invitation")}/accept`,
+        body: { password: "joining the matrix today" },
+      };
+    },
+    ok: 200,
+    allowed: everyone,
+  },
+  "POST /auth/password-reset": {
+    prepare: () => ({
+      url: "/api/auth/password-reset",
+      body: { email: "somebody-or-nobody@example.org" },
+    }),
+    ok: 202,
+    allowed: everyone,
+  },
+  "GET /auth/password-reset/:token": {
+    async prepare(world) {
+      const { person } = await personAtA(world);
+      return {
+        url: `/api/auth/password-reset/${await issueTestLink(person.id, "password_reset")}`,
+      };
+    },
+    ok: 200,
+    allowed: everyone,
+  },
+  "POST /auth/password-reset/:token": {
+    async prepare(world) {
+      const { person } = await personAtA(world);
+      return {
+        url: `/api/auth/password-reset/${await issueTestLink(person.id, "password_reset")}`,
+        body: { password: "a fresh passphrase after reset" },
+      };
+    },
+    ok: 200,
+    allowed: everyone,
+  },
+  "GET /sites": { prepare: () => ({ url: "/api/sites" }), ok: 200, allowed: everyone },
   "POST /sites": {
-    url: () => "/api/sites",
-    body: () => buildSite(),
+    prepare: () => ({ url: "/api/sites", body: buildSite() }),
     ok: 201,
     allowed: ["administrator (network)"],
   },
-  "GET /sites/:siteId": { url: (w) => `/api/sites/${w.siteA}`, ok: 200, allowed: atA },
-  "PATCH /sites/:siteId": {
-    url: (w) => `/api/sites/${w.siteA}`,
-    body: () => ({ address: `${Math.random()} Matrix Road` }),
+  "GET /sites/:siteId": {
+    prepare: (w) => ({ url: `/api/sites/${w.siteA}` }),
     ok: 200,
-    allowed: ["administrator (network)", "administrator @A"],
+    allowed: atA,
+    hidden: notAtA,
+  },
+  "PATCH /sites/:siteId": {
+    prepare: (w) => ({
+      url: `/api/sites/${w.siteA}`,
+      body: { address: `${Math.random()} Matrix Road` },
+    }),
+    ok: 200,
+    allowed: admins,
+    hidden: notAtA,
+  },
+  "GET /people": {
+    prepare: () => ({ url: "/api/people" }),
+    ok: 200,
+    allowed: [...admins, "administrator @B"],
+  },
+  "POST /people/invitations": {
+    prepare: (w) => ({
+      url: "/api/people/invitations",
+      body: {
+        email: `invitee-${crypto.randomUUID()}@example.org`,
+        name: "Matrix Invitee",
+        grants: [{ role: "auditor", siteId: w.siteA }],
+      },
+    }),
+    ok: 201,
+    allowed: admins,
+  },
+  "GET /people/:userId": {
+    prepare: async (w) => ({ url: `/api/people/${(await personAtA(w)).person.id}` }),
+    ok: 200,
+    allowed: admins,
+    hidden: ["administrator @B"],
+  },
+  "POST /people/:userId/grants": {
+    prepare: async (w) => ({
+      url: `/api/people/${(await personAtA(w)).person.id}/grants`,
+      body: { role: "facilities_lead", siteId: w.siteA },
+    }),
+    ok: 201,
+    allowed: admins,
+    hidden: ["administrator @B"],
+  },
+  "DELETE /people/:userId/grants/:grantId": {
+    async prepare(w) {
+      const { person, grant } = await personAtA(w);
+      return { url: `/api/people/${person.id}/grants/${grant.id}` };
+    },
+    ok: 200,
+    allowed: admins,
+    hidden: ["administrator @B"],
+  },
+  "POST /people/:userId/deactivate": {
+    prepare: async (w) => ({
+      url: `/api/people/${(await personAtA(w)).person.id}/deactivate`,
+      body: { reason: "left" },
+    }),
+    ok: 200,
+    allowed: admins,
+    hidden: ["administrator @B"],
+  },
+  "POST /people/:userId/reactivate": {
+    prepare: async (w) => ({
+      url: `/api/people/${(await personAtA(w, "deactivated")).person.id}/reactivate`,
+      body: {},
+    }),
+    ok: 200,
+    allowed: admins,
+    hidden: ["administrator @B"],
+  },
+  "POST /people/:userId/invitation": {
+    prepare: async (w) => ({
+      url: `/api/people/${(await personAtA(w, "invited")).person.id}/invitation`,
+      body: {},
+    }),
+    ok: 200,
+    allowed: admins,
+    hidden: ["administrator @B"],
   },
 };
 
@@ -88,10 +287,17 @@ describe("role matrix: every registered route, as every role, another site's mem
   const world = {} as World;
   const userIds = {} as Record<Caller, string>;
   let siteBId = "";
+  let matrixApp: TestApp;
 
   beforeAll(async () => {
+    matrixApp = createTestApp({
+      LINTEL_DEMO: "1",
+      LINTEL_DEV_MAILBOX_DIR: mkdtempSync(path.join(os.tmpdir(), "lintel-mailbox-")),
+    });
     const { db } = testApp().deps;
     const network = await insertNetwork(db);
+    world.networkId = network.id;
+    world.knownHash = await hashPassword("matrix-password-1");
     world.siteA = (await insertSite(db, network.id)).id;
     siteBId = (await insertSite(db, network.id)).id;
     const signInUser = await insertUser(db, network.id, { password: "matrix-password-1" });
@@ -104,6 +310,7 @@ describe("role matrix: every registered route, as every role, another site's mem
       userIds[caller] = (await signInAs(network.id, grants)).user.id;
     }
   });
+  afterAll(() => matrixApp.database.close());
 
   it("when a route is registered, then the matrix has a designed answer for it", () => {
     const registered = apiRoutes.map(routeKey).sort();
@@ -115,26 +322,29 @@ describe("role matrix: every registered route, as every role, another site's mem
     describe(key, () => {
       const sample = samples[key];
       if (!sample) return;
-      const call = (cookie?: string) => {
-        const request = api(undefined, { cookie }).request(route.method, sample.url(world));
-        return sample.body ? request.send(sample.body(world)) : request;
+      const call = async (caller: Caller | null) => {
+        const userId = caller ? userIds[caller] : null;
+        const { url, body } = await sample.prepare(world, { userId });
+        const cookie = userId ? await sessionCookieFor(userId) : undefined;
+        const request = api(matrixApp.app, { cookie }).request(route.method, url);
+        return body ? request.send(body) : request;
       };
 
       it(`when signed out, then ${route.access.kind === "public" ? sample.ok : 401}`, async () => {
-        const response = await call();
-        expect(response.status).toBe(route.access.kind === "public" ? sample.ok : 401);
+        const response = await call(null);
+        expect(response.status, JSON.stringify(response.body)).toBe(
+          route.access.kind === "public" ? sample.ok : 401,
+        );
       });
 
       for (const caller of everyone) {
-        const allowed = sample.allowed.includes(caller);
-        const hasRoleAtA = atA.includes(caller);
-        const expected = allowed
+        const expected = sample.allowed.includes(caller)
           ? sample.ok
-          : route.access.kind === "site" && !hasRoleAtA
+          : sample.hidden?.includes(caller)
             ? 404
             : 403;
         it(`when called by ${caller}, then ${expected}`, async () => {
-          const response = await call(await sessionCookieFor(userIds[caller]));
+          const response = await call(caller);
           expect(response.status, JSON.stringify(response.body)).toBe(expected);
           if (expected >= 400) expect(response.body.error.code).toBeTypeOf("string");
         });

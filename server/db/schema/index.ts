@@ -5,3 +5,5 @@ export * from "./sessions";
 export * from "./sites";
 export * from "./system";
 export * from "./users";
+export * from "./outbox";
+export * from "./user-tokens";

@@ -1,0 +1,184 @@
+import { and, asc, eq, inArray, isNull, sql } from "drizzle-orm";
+
+import type { Role } from "@shared/roles";
+import type { Person } from "@shared/schemas/people";
+
+import type { DbOrTx } from "../../db/client";
+import { roleGrants, sites, userTokens, users } from "../../db/schema/index";
+
+interface PersonRow {
+  id: string;
+  email: string;
+  name: string;
+  hasPassword: boolean;
+  deactivatedAt: Date | null;
+  createdAt: Date;
+}
+
+const personColumns = {
+  id: users.id,
+  email: users.email,
+  name: users.displayName,
+  hasPassword: sql<boolean>`${users.passwordHash} is not null`,
+  deactivatedAt: users.deactivatedAt,
+  createdAt: users.createdAt,
+};
+
+/** People of the network; with `siteIds`, only those holding a role at one of those sites. */
+export async function listPeople(
+  db: DbOrTx,
+  networkId: string,
+  siteIds: string[] | null,
+  userId?: string,
+): Promise<Person[]> {
+  if (siteIds !== null && siteIds.length === 0) return [];
+  const inScope =
+    siteIds === null
+      ? undefined
+      : inArray(
+          users.id,
+          db
+            .select({ id: roleGrants.userId })
+            .from(roleGrants)
+            .where(inArray(roleGrants.siteId, siteIds)),
+        );
+  const rows: PersonRow[] = await db
+    .select(personColumns)
+    .from(users)
+    .where(and(eq(users.networkId, networkId), inScope, userId ? eq(users.id, userId) : undefined))
+    .orderBy(asc(users.displayName));
+  return withGrantsAndInvitations(db, rows);
+}
+
+async function withGrantsAndInvitations(db: DbOrTx, rows: PersonRow[]): Promise<Person[]> {
+  if (rows.length === 0) return [];
+  const ids = rows.map((row) => row.id);
+  const grants = await db
+    .select({
+      id: roleGrants.id,
+      userId: roleGrants.userId,
+      role: roleGrants.role,
+      siteId: roleGrants.siteId,
+      siteName: sites.name,
+    })
+    .from(roleGrants)
+    .leftJoin(sites, eq(sites.id, roleGrants.siteId))
+    .where(inArray(roleGrants.userId, ids))
+    .orderBy(asc(roleGrants.role), asc(sites.name));
+  const invitations = await db
+    .select({ userId: userTokens.userId, expiresAt: sql<Date>`max(${userTokens.expiresAt})` })
+    .from(userTokens)
+    .where(
+      and(
+        inArray(userTokens.userId, ids),
+        eq(userTokens.purpose, "invitation"),
+        isNull(userTokens.usedAt),
+        isNull(userTokens.revokedAt),
+      ),
+    )
+    .groupBy(userTokens.userId);
+  const expiry = new Map(invitations.map((row) => [row.userId, new Date(row.expiresAt)]));
+
+  return rows.map((row) => {
+    const invitationExpiresAt = expiry.get(row.id);
+    return {
+      id: row.id,
+      email: row.email,
+      name: row.name,
+      status: row.deactivatedAt ? "deactivated" : row.hasPassword ? "active" : "invited",
+      grants: grants
+        .filter((grant) => grant.userId === row.id)
+        .map((grant) => ({
+          id: grant.id,
+          role: grant.role,
+          siteId: grant.siteId,
+          siteName: grant.siteName,
+        })),
+      createdAt: row.createdAt.toISOString(),
+      deactivatedAt: row.deactivatedAt?.toISOString() ?? null,
+      invitationExpiresAt:
+        !row.hasPassword && invitationExpiresAt ? invitationExpiresAt.toISOString() : null,
+    };
+  });
+}
+
+export async function findUserByEmail(
+  db: DbOrTx,
+  email: string,
+): Promise<(PersonRow & { networkId: string }) | null> {
+  const [row] = await db
+    .select({ ...personColumns, networkId: users.networkId })
+    .from(users)
+    .where(eq(sql`lower(${users.email})`, email.toLowerCase()))
+    .limit(1)
+    .for("update");
+  return row ?? null;
+}
+
+export async function insertUser(
+  db: DbOrTx,
+  values: { networkId: string; email: string; name: string },
+): Promise<string> {
+  const [row] = await db
+    .insert(users)
+    .values({ networkId: values.networkId, email: values.email, displayName: values.name })
+    .returning({ id: users.id });
+  return row!.id;
+}
+
+export async function renameUser(db: DbOrTx, userId: string, name: string): Promise<void> {
+  await db
+    .update(users)
+    .set({ displayName: name, updatedAt: new Date() })
+    .where(eq(users.id, userId));
+}
+
+/** Adds the grant unless the person already holds it; returns whether it was new. */
+export async function addGrant(
+  db: DbOrTx,
+  values: { userId: string; role: Role; siteId: string | null; grantedBy: string },
+): Promise<boolean> {
+  const rows = await db
+    .insert(roleGrants)
+    .values(values)
+    .onConflictDoNothing()
+    .returning({ id: roleGrants.id });
+  return rows.length > 0;
+}
+
+export async function findGrant(db: DbOrTx, userId: string, grantId: string) {
+  const [row] = await db
+    .select({ id: roleGrants.id, role: roleGrants.role, siteId: roleGrants.siteId })
+    .from(roleGrants)
+    .where(and(eq(roleGrants.id, grantId), eq(roleGrants.userId, userId)));
+  return row ?? null;
+}
+
+export async function deleteGrant(db: DbOrTx, grantId: string): Promise<void> {
+  await db.delete(roleGrants).where(eq(roleGrants.id, grantId));
+}
+
+export async function setDeactivated(db: DbOrTx, userId: string, at: Date | null): Promise<void> {
+  await db
+    .update(users)
+    .set({ deactivatedAt: at, updatedAt: new Date() })
+    .where(eq(users.id, userId));
+}
+
+export async function sitesOfNetwork(db: DbOrTx, networkId: string, onlyIds: string[] | null) {
+  if (onlyIds !== null && onlyIds.length === 0) return [];
+  return db
+    .select({ id: sites.id, name: sites.name })
+    .from(sites)
+    .where(
+      and(
+        eq(sites.networkId, networkId),
+        onlyIds === null ? undefined : inArray(sites.id, onlyIds),
+      ),
+    )
+    .orderBy(asc(sites.name));
+}
+
+export async function lockUser(db: DbOrTx, userId: string): Promise<void> {
+  await db.select({ id: users.id }).from(users).where(eq(users.id, userId)).for("update");
+}

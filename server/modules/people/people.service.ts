@@ -1,0 +1,328 @@
+import { canGrant } from "@shared/permissions";
+import { roleLabels, type RoleGrant } from "@shared/roles";
+import type { GrantInput, InviteBody, PeopleListResponse, Person } from "@shared/schemas/people";
+
+import type { DbOrTx } from "../../db/client";
+import { AppError, forbidden, notFound } from "../../lib/app-error";
+import { recordChange, type Actor } from "../../lib/change-log";
+import type { AppDeps, SignedIn } from "../../lib/routes";
+import { enqueueMail } from "../../outbox/outbox.repository";
+import { invitationMail } from "../accounts/accounts.emails";
+import { issueLink, revokeOpenLinks } from "../accounts/accounts.service";
+import * as repo from "./people.repository";
+
+/** The sites where the caller manages people; null means every site (network-wide administrator). */
+function managedScope(grants: readonly RoleGrant[]): string[] | null {
+  if (canGrant(grants, { role: "administrator", siteId: null })) return null;
+  return [
+    ...new Set(
+      grants.filter((g) => g.role === "administrator" && g.siteId !== null).map((g) => g.siteId!),
+    ),
+  ];
+}
+
+export async function listPeople(deps: AppDeps, auth: SignedIn): Promise<PeopleListResponse> {
+  const scope = managedScope(auth.grants);
+  const [people, manageableSites] = await Promise.all([
+    repo.listPeople(deps.db, auth.user.networkId, scope),
+    repo.sitesOfNetwork(deps.db, auth.user.networkId, scope),
+  ]);
+  return { people, manageableSites, canGrantNetworkWide: scope === null };
+}
+
+/** The person when the caller manages them; 404 otherwise (not theirs to see). */
+export async function requirePerson(
+  deps: AppDeps,
+  auth: SignedIn,
+  userId: string,
+): Promise<Person> {
+  const [person] = await repo.listPeople(
+    deps.db,
+    auth.user.networkId,
+    managedScope(auth.grants),
+    userId,
+  );
+  if (!person) throw notFound("That person");
+  return person;
+}
+
+async function personAfterChange(deps: AppDeps, auth: SignedIn, userId: string): Promise<Person> {
+  // After a role is taken away the person may fall outside the caller's sites; show the result anyway.
+  const [person] = await repo.listPeople(deps.db, auth.user.networkId, null, userId);
+  return person!;
+}
+
+/** Every grant must name a site of the network and be within what the caller may give. */
+async function assertGrantable(
+  deps: AppDeps,
+  auth: SignedIn,
+  grants: GrantInput[],
+  field: (index: number) => string,
+) {
+  const known = new Set(
+    (await repo.sitesOfNetwork(deps.db, auth.user.networkId, null)).map((site) => site.id),
+  );
+  grants.forEach((grant, index) => {
+    if (grant.siteId !== null && !known.has(grant.siteId)) {
+      throw new AppError("validation_failed", 400, "That site does not exist.", {
+        fields: { [field(index)]: "That site does not exist." },
+      });
+    }
+    if (!canGrant(auth.grants, grant)) {
+      const message = "You cannot give this role here: it is beyond the sites you administer.";
+      throw new AppError("forbidden", 403, message, { fields: { [field(index)]: message } });
+    }
+  });
+}
+
+function describeGrants(grants: GrantInput[], siteNames: Map<string, string>): string[] {
+  return grants.map(
+    (grant) =>
+      `${roleLabels[grant.role]}, ${grant.siteId ? siteNames.get(grant.siteId) : "all sites"}`,
+  );
+}
+
+async function queueInvitation(
+  tx: DbOrTx,
+  deps: AppDeps,
+  auth: SignedIn,
+  person: { id: string; email: string; name: string },
+  grants: GrantInput[],
+) {
+  const { link, expiresAt } = await issueLink(tx, deps, {
+    userId: person.id,
+    purpose: "invitation",
+    createdBy: auth.user.id,
+  });
+  const siteNames = new Map(
+    (await repo.sitesOfNetwork(tx, auth.user.networkId, null)).map((site) => [site.id, site.name]),
+  );
+  await enqueueMail(
+    tx,
+    invitationMail({
+      to: person.email,
+      name: person.name,
+      inviterName: auth.user.name,
+      roles: describeGrants(grants, siteNames),
+      link,
+      expiresAt,
+    }),
+  );
+}
+
+export async function invite(
+  deps: AppDeps,
+  auth: SignedIn,
+  body: InviteBody,
+  actor: Actor,
+): Promise<Person> {
+  await assertGrantable(deps, auth, body.grants, (index) => `grants.${index}.siteId`);
+  const userId = await deps.db.transaction(async (tx) => {
+    const existing = await repo.findUserByEmail(tx, body.email);
+    if (
+      existing &&
+      (existing.networkId !== auth.user.networkId || existing.hasPassword || existing.deactivatedAt)
+    ) {
+      const message = existing.deactivatedAt
+        ? "This address belongs to a deactivated account. Reactivate it from the person's page."
+        : "This address already has a Lintel account. Find the person in the list to give them a role.";
+      throw new AppError("conflict", 409, message, { fields: { email: message } });
+    }
+    const id =
+      existing?.id ??
+      (await repo.insertUser(tx, {
+        networkId: auth.user.networkId,
+        email: body.email,
+        name: body.name,
+      }));
+    if (existing) await repo.renameUser(tx, id, body.name);
+    for (const grant of body.grants) {
+      if (
+        await repo.addGrant(tx, {
+          userId: id,
+          role: grant.role,
+          siteId: grant.siteId,
+          grantedBy: auth.user.id,
+        })
+      ) {
+        await recordChange(tx, actor, {
+          action: "role.granted",
+          entity: "user",
+          entityId: id,
+          siteId: grant.siteId,
+          after: grant,
+        });
+      }
+    }
+    await queueInvitation(tx, deps, auth, { id, email: body.email, name: body.name }, body.grants);
+    await recordChange(tx, actor, {
+      action: existing ? "user.reinvited" : "user.invited",
+      entity: "user",
+      entityId: id,
+      siteId: null,
+      after: { email: body.email, name: body.name, grants: body.grants },
+    });
+    return id;
+  });
+  deps.notifyOutbox();
+  return requirePerson(deps, auth, userId);
+}
+
+/** Sends a new invitation link; the previous one stops working. */
+export async function resendInvitation(
+  deps: AppDeps,
+  auth: SignedIn,
+  userId: string,
+  actor: Actor,
+): Promise<Person> {
+  const person = await requirePerson(deps, auth, userId);
+  if (person.status !== "invited") {
+    throw new AppError(
+      "conflict",
+      409,
+      person.status === "active"
+        ? "This person has already joined."
+        : "This account is deactivated.",
+    );
+  }
+  await deps.db.transaction(async (tx) => {
+    await queueInvitation(tx, deps, auth, person, person.grants);
+    await recordChange(tx, actor, {
+      action: "user.reinvited",
+      entity: "user",
+      entityId: userId,
+      siteId: null,
+    });
+  });
+  deps.notifyOutbox();
+  return requirePerson(deps, auth, userId);
+}
+
+export async function giveRole(
+  deps: AppDeps,
+  auth: SignedIn,
+  userId: string,
+  grant: GrantInput,
+  actor: Actor,
+): Promise<Person> {
+  const person = await requirePerson(deps, auth, userId);
+  if (person.status === "deactivated")
+    throw new AppError("conflict", 409, "Reactivate this person before giving them a role.");
+  await assertGrantable(deps, auth, [grant], () => "siteId");
+  await deps.db.transaction(async (tx) => {
+    const added = await repo.addGrant(tx, {
+      userId,
+      role: grant.role,
+      siteId: grant.siteId,
+      grantedBy: auth.user.id,
+    });
+    if (!added)
+      throw new AppError("conflict", 409, "This person already holds that role there.", {
+        fields: { role: "Already held." },
+      });
+    await recordChange(tx, actor, {
+      action: "role.granted",
+      entity: "user",
+      entityId: userId,
+      siteId: grant.siteId,
+      after: grant,
+    });
+  });
+  return requirePerson(deps, auth, userId);
+}
+
+export async function takeRole(
+  deps: AppDeps,
+  auth: SignedIn,
+  userId: string,
+  grantId: string,
+  actor: Actor,
+): Promise<Person> {
+  await requirePerson(deps, auth, userId);
+  const grant = await repo.findGrant(deps.db, userId, grantId);
+  if (!grant) throw notFound("That role");
+  if (!canGrant(auth.grants, grant)) throw forbidden();
+  if (userId === auth.user.id && grant.role === "administrator") {
+    throw new AppError(
+      "bad_request",
+      400,
+      "You cannot remove your own administrator role. Ask another administrator.",
+    );
+  }
+  await deps.db.transaction(async (tx) => {
+    await repo.deleteGrant(tx, grantId);
+    await recordChange(tx, actor, {
+      action: "role.revoked",
+      entity: "user",
+      entityId: userId,
+      siteId: grant.siteId,
+      before: grant,
+    });
+  });
+  return personAfterChange(deps, auth, userId);
+}
+
+/** The caller must manage every role the person holds: a site administrator cannot switch off someone wider. */
+async function requireWhollyManaged(
+  deps: AppDeps,
+  auth: SignedIn,
+  userId: string,
+): Promise<Person> {
+  if (userId === auth.user.id)
+    throw new AppError("bad_request", 400, "You cannot deactivate or reactivate yourself.");
+  const person = await requirePerson(deps, auth, userId);
+  if (!person.grants.every((grant) => canGrant(auth.grants, grant))) {
+    throw new AppError(
+      "forbidden",
+      403,
+      "This person also holds roles you do not administer. Ask a network administrator.",
+    );
+  }
+  return person;
+}
+
+export async function deactivate(
+  deps: AppDeps,
+  auth: SignedIn,
+  userId: string,
+  reason: string | undefined,
+  actor: Actor,
+): Promise<Person> {
+  const person = await requireWhollyManaged(deps, auth, userId);
+  if (person.status === "deactivated") return person;
+  await deps.db.transaction(async (tx) => {
+    await repo.lockUser(tx, userId);
+    await repo.setDeactivated(tx, userId, new Date());
+    await revokeOpenLinks(tx, userId, "invitation");
+    await revokeOpenLinks(tx, userId, "password_reset");
+    await recordChange(tx, actor, {
+      action: "user.deactivated",
+      entity: "user",
+      entityId: userId,
+      siteId: null,
+      reason: reason || null,
+    });
+  });
+  await deps.sessions.endAllFor(userId);
+  return requirePerson(deps, auth, userId);
+}
+
+export async function reactivate(
+  deps: AppDeps,
+  auth: SignedIn,
+  userId: string,
+  actor: Actor,
+): Promise<Person> {
+  const person = await requireWhollyManaged(deps, auth, userId);
+  if (person.status !== "deactivated") return person;
+  await deps.db.transaction(async (tx) => {
+    await repo.setDeactivated(tx, userId, null);
+    await recordChange(tx, actor, {
+      action: "user.reactivated",
+      entity: "user",
+      entityId: userId,
+      siteId: null,
+    });
+  });
+  return requirePerson(deps, auth, userId);
+}
