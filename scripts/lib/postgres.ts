@@ -59,7 +59,8 @@ export interface Cluster {
   urlFor: (database: string) => string;
   isRunning: () => boolean;
   start: () => Promise<void>;
-  createDatabase: (name: string) => void;
+  /** Creates the database unless it exists, optionally as a copy of `template`. */
+  createDatabase: (name: string, template?: string) => void;
   stop: () => void;
   /** Stops and deletes the folder (throwaway clusters only). */
   destroy: () => void;
@@ -146,7 +147,7 @@ export async function prepareCluster(options: ClusterOptions): Promise<Cluster> 
         "start",
       ]);
     },
-    createDatabase(name) {
+    createDatabase(name, template) {
       const exists = pg(binDir, "psql", [
         "-h",
         "127.0.0.1",
@@ -159,8 +160,19 @@ export async function prepareCluster(options: ClusterOptions): Promise<Cluster> 
         "-tAc",
         `select 1 from pg_database where datname = '${name.replace(/'/g, "''")}'`,
       ]).trim();
-      if (exists !== "1")
-        pg(binDir, "createdb", ["-h", "127.0.0.1", "-p", String(port), "-U", "postgres", name]);
+      if (exists !== "1") {
+        const from = template ? ["-T", template] : [];
+        pg(binDir, "createdb", [
+          "-h",
+          "127.0.0.1",
+          "-p",
+          String(port),
+          "-U",
+          "postgres",
+          ...from,
+          name,
+        ]);
+      }
     },
     stop() {
       if (!isRunning()) return;

@@ -19,10 +19,13 @@ export interface TestApp {
 let shared: TestApp | undefined;
 
 /** Builds an app on the test database; with overrides, a separate one (close it after). */
-export function createTestApp(overrides?: Record<string, string>): TestApp {
+export function createTestApp(
+  overrides?: Record<string, string>,
+  notifyOutbox?: () => void,
+): TestApp {
   const env = testEnv(overrides);
   const database = connectDatabase(env.DATABASE_URL, { max: 4 });
-  const deps = buildDeps(env, database, createLogger(env.LOG_LEVEL));
+  const deps = buildDeps(env, database, createLogger(env.LOG_LEVEL), notifyOutbox);
   return { app: createApp(deps), deps, database };
 }
 

@@ -1,0 +1,76 @@
+import {
+  startMailCatcher,
+  type CaughtMail,
+  type MailCatcher,
+} from "../../scripts/lib/mail-catcher";
+import { createMailer } from "../../server/lib/mailer";
+import { createOutboxWorker, type OutboxWorker } from "../../server/outbox/outbox-worker";
+import { createTestApp, type TestApp } from "./app";
+import { createIsolatedDatabase } from "./isolated-database";
+
+export interface MailTestApp extends TestApp {
+  catcher: MailCatcher;
+  worker: OutboxWorker;
+  /** Makes another worker on the same outbox (for two-worker tests); stop it after. */
+  extraWorker: () => OutboxWorker;
+  close: () => Promise<void>;
+}
+
+/**
+ * An app on a database of its own whose e-mail goes through a real outbox worker to a real local
+ * SMTP server, so what the catcher receives is exactly what this app sent.
+ */
+export async function createMailTestApp(
+  overrides: Record<string, string> = {},
+): Promise<MailTestApp> {
+  const catcher = await startMailCatcher();
+  const databaseUrl = await createIsolatedDatabase();
+  let worker: OutboxWorker | undefined;
+  const app = createTestApp(
+    {
+      DATABASE_URL: databaseUrl,
+      SMTP_PORT: String(catcher.port),
+      LINTEL_OUTBOX_POLL_MS: "40",
+      LINTEL_OUTBOX_RETRY_MS: "40",
+      ...overrides,
+    },
+    () => worker?.nudge(),
+  );
+  const { env, db, logger } = app.deps;
+  const mailer = createMailer(env);
+  const makeWorker = () =>
+    createOutboxWorker({
+      db,
+      mailer,
+      logger,
+      pollMs: env.LINTEL_OUTBOX_POLL_MS,
+      retryMs: env.LINTEL_OUTBOX_RETRY_MS,
+      maxAttempts: env.LINTEL_OUTBOX_MAX_ATTEMPTS,
+      leaseMs: env.LINTEL_OUTBOX_LEASE_MS,
+      messageIdDomain: "lintel.test",
+    });
+  worker = makeWorker();
+  worker.start();
+  return {
+    ...app,
+    catcher,
+    worker,
+    extraWorker: makeWorker,
+    async close() {
+      await worker!.stop();
+      mailer.close();
+      await catcher.stop();
+      await app.database.close();
+    },
+  };
+}
+
+/** The first link into the app found in a received e-mail's text. */
+export function linkIn(mail: CaughtMail): URL {
+  const match = /https?:\/\/\S+/.exec(mail.text);
+  if (!match) throw new Error(`no link in the e-mail "${mail.subject}"`);
+  return new URL(match[0]);
+}
+
+export const mailTo = (catcher: MailCatcher, address: string) =>
+  catcher.messages.filter((mail) => mail.to.includes(address));
