@@ -3,6 +3,7 @@ import os from "node:os";
 import path from "node:path";
 
 import { ensureChromium } from "../../scripts/lib/chromium";
+import { startMailCatcher } from "../../scripts/lib/mail-catcher";
 import { buildClient } from "../../scripts/lib/client-build";
 import { freePort } from "../../scripts/lib/process";
 import { parseEnv } from "../../server/env";
@@ -19,6 +20,8 @@ export default async function setup() {
     startTestCluster("browser"),
   ]);
   const clientDir = mkdtempSync(path.join(os.tmpdir(), "lintel-client-"));
+  const mailboxDir = mkdtempSync(path.join(os.tmpdir(), "lintel-mailbox-"));
+  const catcher = await startMailCatcher({ dir: mailboxDir });
   await buildClient(clientDir);
   const port = await freePort();
   const server = await startServer(
@@ -30,16 +33,22 @@ export default async function setup() {
       LOG_LEVEL: "warn",
       LINTEL_DEMO: "1",
       LINTEL_CLIENT_DIR: clientDir,
+      SMTP_PORT: String(catcher.port),
+      LINTEL_DEV_MAILBOX_DIR: mailboxDir,
+      LINTEL_OUTBOX_POLL_MS: "100",
     }),
   );
   process.env.LINTEL_E2E_URL = server.url;
   process.env.LINTEL_E2E_CHROMIUM = chromium;
+  process.env.LINTEL_E2E_MAILBOX_DIR = mailboxDir;
   // Not DATABASE_URL: the API project sets that one for its own cluster in this same process.
   process.env.LINTEL_E2E_DATABASE_URL = url;
 
   return async () => {
     await server.close();
+    await catcher.stop();
     cluster.destroy();
     rmSync(clientDir, { recursive: true, force: true });
+    rmSync(mailboxDir, { recursive: true, force: true });
   };
 }
