@@ -1,6 +1,11 @@
+import type { RoleGrant } from "@shared/roles";
+import { useMemo } from "react";
+
 import type { NavigationItem } from "@/components/layouts/navigation";
-import { AccountIcon, SitesIcon } from "@/components/ui/icons";
+import { AccountIcon, MailIcon, PeopleIcon, SitesIcon } from "@/components/ui/icons";
 import { paths } from "@/config/paths";
+import { useAppConfig } from "@/features/admin/api/get-app-config";
+import { canAnywhere } from "@/lib/authorization";
 
 /** The main entries; give one a `permission` to hide it from roles that cannot use it. */
 export const navigationItems: readonly NavigationItem[] = [
@@ -11,5 +16,31 @@ export const navigationItems: readonly NavigationItem[] = [
     end: true,
     alsoActiveOn: [paths.site.path],
   },
+  {
+    label: "People",
+    to: paths.people.getHref(),
+    icon: <PeopleIcon />,
+    permission: "manage:people:site",
+  },
+  {
+    label: "Mailbox",
+    to: paths.mailbox.getHref(),
+    icon: <MailIcon />,
+    permission: "read:dev-mailbox:network",
+  },
   { label: "Account", to: paths.account.getHref(), icon: <AccountIcon /> },
 ];
+
+/**
+ * The entries for this person. The mailbox exists only while demo data is on, so the
+ * installation is asked about it, and only when the person could read it at all.
+ */
+export function useNavigationItems(grants: readonly RoleGrant[]): readonly NavigationItem[] {
+  const mayReadMailbox = canAnywhere(grants, "read:dev-mailbox:network");
+  const appConfig = useAppConfig({ enabled: mayReadMailbox });
+  const demoMailbox = mayReadMailbox && appConfig.data?.demoMailbox === true;
+  return useMemo(
+    () => navigationItems.filter((item) => demoMailbox || item.to !== paths.mailbox.getHref()),
+    [demoMailbox],
+  );
+}

@@ -28,6 +28,28 @@ export function createRoutes(queryClient: QueryClient): RouteObject[] {
           },
         },
         {
+          path: paths.welcome.path,
+          lazy: async () => {
+            const { WelcomeRoute, welcomeLoader } = await import("./routes/welcome");
+            return { Component: WelcomeRoute, loader: welcomeLoader(queryClient) };
+          },
+        },
+        {
+          path: paths.forgotPassword.path,
+          lazy: async () => {
+            const { ForgotPasswordRoute } = await import("./routes/forgot-password");
+            return { Component: ForgotPasswordRoute };
+          },
+        },
+        {
+          path: paths.resetPassword.path,
+          lazy: async () => {
+            const { ResetPasswordRoute, resetPasswordLoader } =
+              await import("./routes/reset-password");
+            return { Component: ResetPasswordRoute, loader: resetPasswordLoader(queryClient) };
+          },
+        },
+        {
           loader: protectedLoader(queryClient),
           element: <ProtectedLayout />,
           children: [
@@ -53,6 +75,39 @@ export function createRoutes(queryClient: QueryClient): RouteObject[] {
               lazy: async () => {
                 const { AccountRoute, accountLoader } = await import("./routes/account");
                 return { Component: AccountRoute, loader: accountLoader(queryClient) };
+              },
+            },
+            {
+              path: paths.people.path,
+              errorElement: <RouteError />,
+              lazy: async () => {
+                const { PeopleRoute, peopleLoader } = await import("./routes/people");
+                return { Component: PeopleRoute, loader: peopleLoader(queryClient) };
+              },
+            },
+            {
+              path: paths.invitePerson.path,
+              errorElement: <RouteError />,
+              lazy: async () => {
+                const { InvitePersonRoute, invitePersonLoader } =
+                  await import("./routes/invite-person");
+                return { Component: InvitePersonRoute, loader: invitePersonLoader(queryClient) };
+              },
+            },
+            {
+              path: paths.person.path,
+              errorElement: <RouteError />,
+              lazy: async () => {
+                const { PersonRoute, personLoader } = await import("./routes/person");
+                return { Component: PersonRoute, loader: personLoader(queryClient) };
+              },
+            },
+            {
+              path: paths.mailbox.path,
+              errorElement: <RouteError />,
+              lazy: async () => {
+                const { MailboxRoute, mailboxLoader } = await import("./routes/mailbox");
+                return { Component: MailboxRoute, loader: mailboxLoader(queryClient) };
               },
             },
           ],

@@ -1,6 +1,8 @@
+import type { Permission } from "@shared/permissions";
 import type { QueryClient } from "@tanstack/react-query";
 
 import { meQueryOptions } from "@/features/auth/api/get-me";
+import { canAnywhere } from "@/lib/authorization";
 
 /**
  * Whether someone is signed in, from the cache when known. Route loaders call it before
@@ -13,4 +15,16 @@ export async function isSignedIn(queryClient: QueryClient): Promise<boolean> {
 /** Forget the signed-in person; the caller then sends them to the sign-in page. */
 export function forgetSignedInPerson(queryClient: QueryClient): void {
   queryClient.setQueryData(meQueryOptions().queryKey, null);
+}
+
+/**
+ * Whether the signed-in person may use a page that needs this permission somewhere. Loaders ask
+ * before prefetching, so a page the person cannot use sends no request the server would refuse.
+ */
+export async function signedInPersonMay(
+  queryClient: QueryClient,
+  permission: Permission,
+): Promise<boolean> {
+  const me = await queryClient.ensureQueryData(meQueryOptions());
+  return me !== null && canAnywhere(me.roles, permission);
 }

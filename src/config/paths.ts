@@ -19,6 +19,34 @@ export const paths = {
     path: "/account",
     getHref: () => "/account",
   },
+  people: {
+    path: "/admin/people",
+    getHref: () => "/admin/people",
+  },
+  invitePerson: {
+    path: "/admin/people/invite",
+    getHref: () => "/admin/people/invite",
+  },
+  person: {
+    path: "/admin/people/:userId",
+    getHref: (userId: string) => `/admin/people/${encodeURIComponent(userId)}`,
+  },
+  mailbox: {
+    path: "/admin/mail",
+    getHref: () => "/admin/mail",
+  },
+  welcome: {
+    path: "/welcome/:token",
+    getHref: (token: string) => `/welcome/${encodeURIComponent(token)}`,
+  },
+  forgotPassword: {
+    path: "/forgot-password",
+    getHref: () => "/forgot-password",
+  },
+  resetPassword: {
+    path: "/reset-password/:token",
+    getHref: (token: string) => `/reset-password/${encodeURIComponent(token)}`,
+  },
 } as const;
 
 const probeOrigin = "https://lintel.invalid";

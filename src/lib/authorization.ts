@@ -1,4 +1,10 @@
-import { can as grantsAllow, type Permission } from "@shared/permissions";
+import {
+  can as grantsAllow,
+  canGrant as grantsMayGive,
+  canSomewhere,
+  type Permission,
+  scopeOf,
+} from "@shared/permissions";
 import type { RoleGrant } from "@shared/roles";
 import { createContext, createElement, type ReactNode, useContext, useMemo } from "react";
 
@@ -12,14 +18,23 @@ export interface Authorization {
   can: (permission: Permission, siteId?: string | null) => boolean;
   /** Whether the person may do this at one site at least: used for navigation entries. */
   canAnywhere: (permission: Permission) => boolean;
+  /** Whether the person may give or take away this role there. */
+  canGrant: (target: RoleGrant) => boolean;
+}
+
+/** Site permissions count when held at any site; network permissions need a network-wide role. */
+export function canAnywhere(grants: readonly RoleGrant[], permission: Permission): boolean {
+  return scopeOf(permission) === "network"
+    ? grantsAllow(grants, permission)
+    : canSomewhere(grants, permission);
 }
 
 export function createAuthorization(grants: readonly RoleGrant[]): Authorization {
   return {
     grants,
     can: (permission, siteId) => grantsAllow(grants, permission, siteId),
-    canAnywhere: (permission) =>
-      grants.some((grant) => grantsAllow([grant], permission, grant.siteId)),
+    canAnywhere: (permission) => canAnywhere(grants, permission),
+    canGrant: (target) => grantsMayGive(grants, target),
   };
 }
 

@@ -14,3 +14,10 @@ export function formatTimeZone(timeZone: string): string {
 export function formatCoordinate(value: number, positive: string, negative: string): string {
   return `${Math.abs(value).toFixed(4)}° ${value >= 0 ? positive : negative}`;
 }
+
+/** A moment in the reader's own time zone, e.g. "3 Dec 2026, 14:05". */
+export function formatDateTime(iso: string): string {
+  const at = new Date(iso);
+  if (Number.isNaN(at.getTime())) return iso;
+  return new Intl.DateTimeFormat(undefined, { dateStyle: "medium", timeStyle: "short" }).format(at);
+}

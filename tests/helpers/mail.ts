@@ -25,7 +25,8 @@ export async function createMailTestApp(
 ): Promise<MailTestApp> {
   const catcher = await startMailCatcher();
   const databaseUrl = await createIsolatedDatabase();
-  let worker: OutboxWorker | undefined;
+  // The app is built before its worker; the nudge reaches the worker once it exists.
+  const current: { worker?: OutboxWorker } = {};
   const app = createTestApp(
     {
       DATABASE_URL: databaseUrl,
@@ -34,7 +35,7 @@ export async function createMailTestApp(
       LINTEL_OUTBOX_RETRY_MS: "40",
       ...overrides,
     },
-    () => worker?.nudge(),
+    () => current.worker?.nudge(),
   );
   const { env, db, logger } = app.deps;
   const mailer = createMailer(env);
@@ -49,7 +50,8 @@ export async function createMailTestApp(
       leaseMs: env.LINTEL_OUTBOX_LEASE_MS,
       messageIdDomain: "lintel.test",
     });
-  worker = makeWorker();
+  const worker = makeWorker();
+  current.worker = worker;
   worker.start();
   return {
     ...app,
@@ -57,7 +59,7 @@ export async function createMailTestApp(
     worker,
     extraWorker: makeWorker,
     async close() {
-      await worker!.stop();
+      await worker.stop();
       mailer.close();
       await catcher.stop();
       await app.database.close();

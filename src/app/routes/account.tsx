@@ -10,6 +10,8 @@ import { CautionNote } from "@/components/ui/caution-note";
 import { Spinner, SpinnerGlyph } from "@/components/ui/spinner";
 import { paths } from "@/config/paths";
 import { useSignOut } from "@/features/auth/api/sign-out";
+import { ChangePasswordForm } from "@/features/auth/components/change-password-form";
+import { ProfileForm } from "@/features/auth/components/profile-form";
 import { sitesQueryOptions, useSites } from "@/features/sites/api/get-sites";
 
 import { isSignedIn } from "../session";
@@ -95,17 +97,24 @@ export function AccountRoute() {
       <div className="mt-6 flex flex-col gap-6">
         <Card>
           <h2 className="text-lg font-semibold">Your details</h2>
-          <dl className="mt-3 grid gap-x-6 gap-y-3 sm:grid-cols-[max-content_1fr]">
-            <dt className="text-sm font-semibold text-ink-muted sm:text-base">Name</dt>
-            <dd className="-mt-2 sm:mt-0">{me.user.name}</dd>
+          <dl className="mt-3 mb-5 grid gap-x-6 gap-y-3 sm:grid-cols-[max-content_1fr]">
             <dt className="text-sm font-semibold text-ink-muted sm:text-base">E-mail</dt>
             <dd className="-mt-2 break-all sm:mt-0">{me.user.email}</dd>
           </dl>
+          <ProfileForm name={me.user.name} />
         </Card>
 
         <Card>
           <h2 className="mb-3 text-lg font-semibold">Your roles</h2>
           <RolesList grants={me.roles} />
+        </Card>
+
+        <Card>
+          <h2 className="text-lg font-semibold">Password</h2>
+          <p className="mt-1 mb-4 text-ink-muted">
+            Changing your password signs you out on every other phone or computer.
+          </p>
+          <ChangePasswordForm email={me.user.email} />
         </Card>
 
         <Card>

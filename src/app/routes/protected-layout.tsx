@@ -8,7 +8,7 @@ import { paths } from "@/config/paths";
 import { useMe } from "@/features/auth/api/get-me";
 import { AuthorizationProvider } from "@/lib/authorization";
 
-import { navigationItems } from "../navigation-items";
+import { useNavigationItems } from "../navigation-items";
 import { isSignedIn } from "../session";
 
 function pathOf(url: { pathname: string; search: string }): string {
@@ -24,6 +24,21 @@ export function protectedLoader(queryClient: QueryClient) {
   };
 }
 
+function SignedInFrame({ me }: { me: MeResponse }) {
+  const navigationItems = useNavigationItems(me.roles);
+  return (
+    <AuthorizationProvider grants={me.roles}>
+      <AppShell
+        navigationItems={navigationItems}
+        homeHref={paths.home.getHref()}
+        personName={me.user.name}
+      >
+        <Outlet context={me} />
+      </AppShell>
+    </AuthorizationProvider>
+  );
+}
+
 /** Everything behind sign-in: the app shell, with the signed-in person handed to each page. */
 export function ProtectedLayout() {
   const me = useMe();
@@ -32,17 +47,7 @@ export function ProtectedLayout() {
   // to the sign-in page; until that lands there is nothing to show.
   if (!me.data) return <PageSpinner />;
 
-  return (
-    <AuthorizationProvider grants={me.data.roles}>
-      <AppShell
-        navigationItems={navigationItems}
-        homeHref={paths.home.getHref()}
-        personName={me.data.user.name}
-      >
-        <Outlet context={me.data satisfies MeResponse} />
-      </AppShell>
-    </AuthorizationProvider>
-  );
+  return <SignedInFrame me={me.data} />;
 }
 
 /** The signed-in person, for pages inside the protected layout. */

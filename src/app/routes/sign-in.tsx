@@ -3,7 +3,8 @@ import { type LoaderFunctionArgs, redirect, useNavigate, useSearchParams } from 
 
 import { StandaloneLayout } from "@/components/layouts/standalone-layout";
 import { Card } from "@/components/ui/card";
-import { safeNextPath } from "@/config/paths";
+import { TextLink } from "@/components/ui/text-link";
+import { paths, safeNextPath } from "@/config/paths";
 import { SignInForm } from "@/features/auth/components/sign-in-form";
 
 import { isSignedIn } from "../session";
@@ -31,6 +32,9 @@ export function SignInRoute() {
           Readiness checks for isolation rooms, anterooms, donning zones and doffing areas.
         </p>
         <SignInForm onSuccess={() => void navigate(next, { replace: true })} />
+        <p className="mt-5 text-center">
+          <TextLink to={paths.forgotPassword.getHref()}>Forgot your password?</TextLink>
+        </p>
       </Card>
       <p className="mt-6 text-center text-sm text-ink-muted">
         No account yet? Your infection prevention programme lead can add you.

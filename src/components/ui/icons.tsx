@@ -78,3 +78,43 @@ export function PinIcon({ className }: IconProps) {
     </svg>
   );
 }
+
+/** Two heads: the people an administrator looks after. */
+export function PeopleIcon({ className }: IconProps) {
+  return (
+    <svg
+      aria-hidden="true"
+      viewBox="0 0 24 24"
+      fill="none"
+      stroke="currentColor"
+      strokeWidth="1.8"
+      strokeLinecap="round"
+      strokeLinejoin="round"
+      className={cn("size-6", className)}
+    >
+      <circle cx="9" cy="8.5" r="3.25" />
+      <path d="M2.75 19.5c.8-3.1 3.3-5 6.25-5s5.45 1.9 6.25 5" />
+      <path d="M15.5 5.6a3.25 3.25 0 0 1 0 5.8" />
+      <path d="M17.25 14.75c2 .55 3.45 2.2 4 4.75" />
+    </svg>
+  );
+}
+
+/** An envelope: the mail Lintel has sent. */
+export function MailIcon({ className }: IconProps) {
+  return (
+    <svg
+      aria-hidden="true"
+      viewBox="0 0 24 24"
+      fill="none"
+      stroke="currentColor"
+      strokeWidth="1.8"
+      strokeLinecap="round"
+      strokeLinejoin="round"
+      className={cn("size-6", className)}
+    >
+      <rect x="3" y="5.5" width="18" height="13" rx="2" />
+      <path d="m3.75 7 8.25 6 8.25-6" />
+    </svg>
+  );
+}

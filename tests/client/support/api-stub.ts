@@ -1,4 +1,5 @@
 import type { MeResponse } from "@shared/schemas/auth";
+import type { Person } from "@shared/schemas/people";
 import type { Site } from "@shared/schemas/site";
 import { vi } from "vitest";
 
@@ -78,3 +79,39 @@ export const auditor: MeResponse = {
     { role: "facilities_lead", siteId: orchardHill.id },
   ],
 };
+
+export const administrator: MeResponse = {
+  user: {
+    id: "3e9c5d2f-6a7b-4c8d-9e0f-1a2b3c4d5e6f",
+    email: "morgan.adebayo@example.org",
+    name: "Morgan Adebayo",
+  },
+  roles: [{ role: "administrator", siteId: null }],
+};
+
+/** A person as the people endpoints return them; override what the test is about. */
+export function buildPerson(overrides: Partial<Person> = {}): Person {
+  return {
+    id: "4fad6e30-7b8c-4d9e-8f01-2b3c4d5e6f70",
+    email: "priya.nair@example.org",
+    name: "Priya Nair",
+    status: "active",
+    grants: [
+      {
+        id: "5a0b7f41-8c9d-4e0f-9a12-3c4d5e6f7081",
+        role: "auditor",
+        siteId: tamsinGeneral.id,
+        siteName: tamsinGeneral.name,
+      },
+    ],
+    createdAt: "2026-01-12T09:30:00.000Z",
+    deactivatedAt: null,
+    invitationExpiresAt: null,
+    ...overrides,
+  };
+}
+
+export const manageableSites = [
+  { id: tamsinGeneral.id, name: tamsinGeneral.name },
+  { id: orchardHill.id, name: orchardHill.name },
+];

@@ -1,5 +1,5 @@
 import { type MeResponse, meResponseSchema } from "@shared/schemas/auth";
-import { queryOptions, useQuery } from "@tanstack/react-query";
+import { type QueryClient, queryOptions, useQuery } from "@tanstack/react-query";
 
 import { apiRequest, isApiError } from "@/lib/api-client";
 
@@ -28,4 +28,22 @@ export function meQueryOptions() {
 
 export function useMe() {
   return useQuery(meQueryOptions());
+}
+
+/**
+ * Someone has just signed in on this device (with a password, an invitation or a reset link). A
+ * new person may be holding the phone: keep nothing the previous session loaded, except what the
+ * page on screen still shows (`keep`, a key prefix), which would otherwise be fetched again.
+ */
+export function rememberSignedInPerson(
+  queryClient: QueryClient,
+  me: MeResponse,
+  keep?: readonly unknown[],
+): void {
+  queryClient.removeQueries({
+    predicate: (query) =>
+      query.queryKey[0] !== meQueryKey[0] &&
+      !(keep && keep.every((part, index) => query.queryKey[index] === part)),
+  });
+  queryClient.setQueryData(meQueryKey, me);
 }

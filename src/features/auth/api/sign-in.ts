@@ -8,7 +8,7 @@ import {
 
 import { apiRequest } from "@/lib/api-client";
 
-import { meQueryKey } from "./get-me";
+import { rememberSignedInPerson } from "./get-me";
 
 export function signIn(body: SignInBody): Promise<MeResponse> {
   return apiRequest("/api/auth/sign-in", { method: "POST", body, schema: meResponseSchema });
@@ -18,11 +18,7 @@ export function signInMutationOptions(queryClient: QueryClient) {
   return mutationOptions({
     mutationKey: ["sessions", "sign-in"],
     mutationFn: signIn,
-    onSuccess: (me) => {
-      // A new person may be holding the phone: keep nothing the previous session loaded.
-      queryClient.removeQueries({ predicate: (query) => query.queryKey[0] !== meQueryKey[0] });
-      queryClient.setQueryData(meQueryKey, me);
-    },
+    onSuccess: (me) => rememberSignedInPerson(queryClient, me),
   });
 }
 

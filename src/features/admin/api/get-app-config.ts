@@ -1,0 +1,23 @@
+import { type AppConfig, appConfigSchema } from "@shared/schemas/people";
+import { queryOptions, useQuery } from "@tanstack/react-query";
+
+import { apiRequest } from "@/lib/api-client";
+
+export const appConfigQueryKey = ["app-configs", "current"] as const;
+
+/** How this installation runs (whether the demo mail catcher is on); fixed while it runs. */
+export function getAppConfig({ signal }: { signal?: AbortSignal } = {}): Promise<AppConfig> {
+  return apiRequest("/api/app-config", { schema: appConfigSchema, signal });
+}
+
+export function appConfigQueryOptions() {
+  return queryOptions({
+    queryKey: appConfigQueryKey,
+    queryFn: ({ signal }) => getAppConfig({ signal }),
+    staleTime: Infinity,
+  });
+}
+
+export function useAppConfig({ enabled = true }: { enabled?: boolean } = {}) {
+  return useQuery({ ...appConfigQueryOptions(), enabled });
+}

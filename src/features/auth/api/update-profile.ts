@@ -1,0 +1,29 @@
+import { type MeResponse, meResponseSchema } from "@shared/schemas/auth";
+import type { UpdateProfileBody } from "@shared/schemas/people";
+import {
+  mutationOptions,
+  type QueryClient,
+  useMutation,
+  useQueryClient,
+} from "@tanstack/react-query";
+
+import { apiRequest } from "@/lib/api-client";
+
+import { meQueryKey } from "./get-me";
+
+export function updateProfile(body: UpdateProfileBody): Promise<MeResponse> {
+  return apiRequest("/api/auth/me", { method: "PATCH", body, schema: meResponseSchema });
+}
+
+export function updateProfileMutationOptions(queryClient: QueryClient) {
+  return mutationOptions({
+    mutationKey: ["sessions", "me", "update"],
+    mutationFn: updateProfile,
+    onSuccess: (me) => queryClient.setQueryData(meQueryKey, me),
+  });
+}
+
+export function useUpdateProfile() {
+  const queryClient = useQueryClient();
+  return useMutation(updateProfileMutationOptions(queryClient));
+}
