@@ -6,6 +6,7 @@ import { parseEnv } from "../server/env";
 import { startServer, type RunningServer } from "../server/server";
 import { buildClient, projectRoot } from "./lib/client-build";
 import { startMailCatcher, type MailCatcher } from "./lib/mail-catcher";
+import { startS3Fake, type S3Fake } from "./lib/s3-fake";
 import { chooseClusterFolder, prepareCluster, type Cluster } from "./lib/postgres";
 
 /**
@@ -16,6 +17,7 @@ async function main() {
   let cluster: Cluster | null = null;
   let server: RunningServer | null = null;
   let mailCatcher: MailCatcher | null = null;
+  let s3: S3Fake | null = null;
   let stopping = false;
 
   const stop = async (reason: string) => {
@@ -25,6 +27,7 @@ async function main() {
     try {
       await server?.close();
       await mailCatcher?.stop();
+      await s3?.stop();
     } finally {
       if (cluster) {
         cluster.stop();
@@ -63,6 +66,14 @@ async function main() {
       console.log(`Local mail catcher on 127.0.0.1:${mailCatcher.port} (messages in ${dir}).`);
     }
 
+    if (!process.env.S3_ENDPOINT && !process.env.S3_BUCKET) {
+      // No object store configured: a local S3-compatible store keeps images under .data/s3.
+      const dir = path.join(projectRoot, ".data", "s3");
+      s3 = await startS3Fake({ dir, port: Number(process.env.LINTEL_S3_PORT ?? 54330) });
+      process.env.S3_ENDPOINT = s3.endpoint;
+      console.log(`Local S3-compatible store on ${s3.endpoint} (objects in ${dir}).`);
+    }
+
     const clientDir = path.join(projectRoot, "dist", "client");
     console.log("Building the app…");
     await buildClient(clientDir);
@@ -87,6 +98,7 @@ async function main() {
     console.error(`\n${error instanceof Error ? error.message : String(error)}`);
     await server?.close().catch(() => undefined);
     await mailCatcher?.stop();
+    await s3?.stop();
     cluster?.stop();
     process.exit(1);
   }

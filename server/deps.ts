@@ -5,6 +5,7 @@ import { createResetLimiter, createSignInLimiter } from "./auth/sign-in-limiter"
 import type { DatabaseHandle } from "./db/client";
 import type { Env } from "./env";
 import type { AppDeps } from "./lib/routes";
+import type { Storage } from "./lib/storage";
 import { loadGrants } from "./modules/auth/auth.service";
 
 /** Wires the app's collaborators from configuration and a database handle. */
@@ -12,6 +13,7 @@ export function buildDeps(
   env: Env,
   database: DatabaseHandle,
   logger: Logger,
+  storage: Storage,
   notifyOutbox: () => void = () => undefined,
 ): AppDeps {
   return {
@@ -32,6 +34,7 @@ export function buildDeps(
       perAddress: 30,
       windowMinutes: 60,
     }),
+    storage,
     loadGrants: (userId) => loadGrants(database, userId),
     notifyOutbox,
   };

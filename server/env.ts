@@ -41,6 +41,15 @@ const envSchema = z.object({
   LINTEL_PASSWORD_RESET_MINUTES: positiveInt(60),
   /** Folder where the local mail catcher keeps what it received (demo and development only). */
   LINTEL_DEV_MAILBOX_DIR: z.string().optional(),
+  /** Object storage for images: any S3-compatible store. Without an endpoint, AWS S3 itself.
+   *  The default keys are the ones the local store accepts. */
+  S3_ENDPOINT: z.url().optional(),
+  S3_REGION: z.string().min(1).default("us-east-1"),
+  S3_BUCKET: z.string().min(3).default("lintel"),
+  S3_ACCESS_KEY_ID: z.string().default("S3RVER"),
+  S3_SECRET_ACCESS_KEY: z.string().default("S3RVER"),
+  /** Path-style addressing (bucket in the path), which most S3-compatible stores need. */
+  S3_FORCE_PATH_STYLE: z.enum(["true", "false"]).default("true"),
   /** Folder holding the built client; empty means API only. */
   LINTEL_CLIENT_DIR: z.string().optional(),
 });

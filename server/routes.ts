@@ -1,5 +1,7 @@
 import { accountRoutes } from "./modules/accounts/accounts.router";
 import { authRoutes } from "./modules/auth/auth.router";
+import { floorRoutes } from "./modules/floors/floors.router";
+import { imageRoutes } from "./modules/images/images.router";
 import { devMailboxRoutes } from "./modules/dev-mailbox/dev-mailbox.router";
 import { healthRoutes } from "./modules/health/health.router";
 import { peopleRoutes } from "./modules/people/people.router";
@@ -13,4 +15,6 @@ export const apiRoutes = [
   ...accountRoutes,
   ...siteRoutes,
   ...peopleRoutes,
+  ...floorRoutes,
+  ...imageRoutes,
 ];

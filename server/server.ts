@@ -9,6 +9,8 @@ import { buildDeps } from "./deps";
 import type { Env } from "./env";
 import { createLogger } from "./lib/logger";
 import { createMailer } from "./lib/mailer";
+import { reconcileStorage } from "./lib/images";
+import { createStorage } from "./lib/storage";
 import { createOutboxWorker } from "./outbox/outbox-worker";
 
 export interface RunningServer {
@@ -21,7 +23,17 @@ export async function startServer(env: Env): Promise<RunningServer> {
   const logger = createLogger(env.LOG_LEVEL);
   await migrateDatabase(env.DATABASE_URL);
   const database = connectDatabase(env.DATABASE_URL);
-  if (env.LINTEL_DEMO === "1") await runDemoSteps(database.db, logger, demoStepList);
+  const storage = createStorage(env);
+  await storage.ensureBucket();
+  // Objects whose upload never completed are removed now and every ten minutes.
+  const reconcile = () =>
+    reconcileStorage({ db: database.db, storage }).catch((err: unknown) =>
+      logger.warn({ err }, "storage reconcile failed"),
+    );
+  await reconcile();
+  const reconcileTimer = setInterval(() => void reconcile(), 10 * 60 * 1000);
+  reconcileTimer.unref();
+  if (env.LINTEL_DEMO === "1") await runDemoSteps(database.db, logger, demoStepList, { storage });
 
   const mailer = createMailer(env);
   const worker =
@@ -39,7 +51,7 @@ export async function startServer(env: Env): Promise<RunningServer> {
       : null;
   worker?.start();
 
-  const app = createApp(buildDeps(env, database, logger, () => worker?.nudge()));
+  const app = createApp(buildDeps(env, database, logger, storage, () => worker?.nudge()));
   const server = createServer(app);
   await new Promise<void>((resolve, reject) => {
     server.once("error", reject);
@@ -57,8 +69,10 @@ export async function startServer(env: Env): Promise<RunningServer> {
         server.close(() => resolve());
         server.closeIdleConnections();
       });
+      clearInterval(reconcileTimer);
       await worker?.stop();
       mailer.close();
+      storage.close();
       await database.close();
     },
   };

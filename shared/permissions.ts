@@ -12,6 +12,7 @@ export const permissions = [
   "read:change-log:site",
   "manage:people:site",
   "read:dev-mailbox:network",
+  "upload:image:site",
 ] as const;
 export type Permission = (typeof permissions)[number];
 
@@ -23,9 +24,10 @@ export const rolePermissions: Record<Role, readonly Permission[]> = {
     "read:change-log:site",
     "manage:people:site",
     "read:dev-mailbox:network",
+    "upload:image:site",
   ],
-  auditor: ["read:site:site"],
-  facilities_lead: ["read:site:site"],
+  auditor: ["read:site:site", "upload:image:site"],
+  facilities_lead: ["read:site:site", "upload:image:site"],
   committee_member: ["read:site:site", "read:change-log:site"],
 };
 

@@ -2,13 +2,18 @@ import { eq, sql } from "drizzle-orm";
 import type { Logger } from "pino";
 
 import type { Database, Tx } from "../db/client";
+import type { Storage } from "../lib/storage";
 import { demoSteps } from "../db/schema/index";
+
+export interface DemoContext {
+  storage: Storage;
+}
 
 export interface DemoStep {
   /** Never renamed once released: the id is what marks the step as done in a database. */
   id: string;
   description: string;
-  run: (tx: Tx) => Promise<void>;
+  run: (tx: Tx, context: DemoContext) => Promise<void>;
 }
 
 /**
@@ -19,6 +24,7 @@ export async function runDemoSteps(
   db: Database,
   logger: Logger,
   steps: readonly DemoStep[],
+  context: DemoContext,
 ): Promise<string[]> {
   const applied: string[] = [];
   for (const step of steps) {
@@ -27,7 +33,7 @@ export async function runDemoSteps(
       await tx.execute(sql`select pg_advisory_xact_lock(hashtext('lintel-demo-steps'))`);
       const [done] = await tx.select().from(demoSteps).where(eq(demoSteps.id, step.id));
       if (done) return false;
-      await step.run(tx);
+      await step.run(tx, context);
       await tx.insert(demoSteps).values({ id: step.id });
       return true;
     });

@@ -1,6 +1,11 @@
+import { eq } from "drizzle-orm";
+
+import type { ConstructionClass } from "@shared/zones";
+
 import { hashPassword } from "../auth/password";
 import { networks, roleGrants, sites, users } from "../db/schema/index";
 import { recordChange } from "../lib/change-log";
+import { createDemoFloor, type DemoFloorPlan } from "./floor-plans";
 import { demoNetworkName, demoPassword, demoPeople, demoSites, type DemoSiteKey } from "./people";
 import type { DemoStep } from "./run-demo-steps";
 
@@ -65,5 +70,86 @@ const networkSitesPeople: DemoStep = {
   },
 };
 
+const suitesAt = (
+  count: number,
+  constructionClass: ConstructionClass,
+  first: number,
+): DemoFloorPlan["suites"] =>
+  Array.from({ length: count }, (_, index) => ({
+    number: String(first + index),
+    top: index % 2 === 0,
+    x: 50 + Math.floor(index / 2) * 300,
+    constructionClass,
+  }));
+
+const demoFloors: Record<DemoSiteKey, DemoFloorPlan[]> = {
+  general: [
+    {
+      building: "Main block",
+      level: 1,
+      name: "Ward 1 — Respiratory",
+      suites: suitesAt(3, "new_or_renovated", 101),
+    },
+    {
+      building: "Main block",
+      level: 2,
+      name: "Ward 2 — Medical",
+      suites: suitesAt(3, "existing", 201),
+    },
+    {
+      building: "Main block",
+      level: 3,
+      name: "Ward 3 — Surgical",
+      suites: suitesAt(2, "existing", 301),
+    },
+    {
+      building: "Main block",
+      level: 4,
+      name: "Ward 4 — High dependency",
+      suites: suitesAt(2, "new_or_renovated", 401),
+    },
+  ],
+  orchard: [
+    {
+      building: "East wing",
+      level: 0,
+      name: "Ground floor — Acute assessment",
+      suites: suitesAt(2, "existing", 11),
+    },
+    {
+      building: "East wing",
+      level: 1,
+      name: "First floor — Inpatients",
+      suites: suitesAt(2, "existing", 21),
+    },
+  ],
+  wexley: [
+    {
+      building: "Rehab unit",
+      level: 0,
+      name: "Ground floor",
+      suites: suitesAt(2, "new_or_renovated", 1),
+      corridorBay: true,
+    },
+  ],
+};
+
+const floorPlans: DemoStep = {
+  id: "2026-12-02-floor-plans-spaces-fixtures",
+  description: "floor plans with isolation suites and fixtures for the three sites",
+  async run(tx, context) {
+    const siteRows = await tx
+      .select({ id: sites.id, name: sites.name })
+      .from(sites)
+      .innerJoin(networks, eq(networks.id, sites.networkId))
+      .where(eq(networks.name, demoNetworkName));
+    for (const [key, plans] of Object.entries(demoFloors) as [DemoSiteKey, DemoFloorPlan[]][]) {
+      const site = siteRows.find((row) => row.name === demoSites[key].name);
+      if (!site) continue;
+      for (const plan of plans) await createDemoFloor(tx, context.storage, site.id, plan);
+    }
+  },
+};
+
 /** In release order; append new steps, never reorder or rename released ones. */
-export const demoStepList: DemoStep[] = [networkSitesPeople];
+export const demoStepList: DemoStep[] = [networkSitesPeople, floorPlans];

@@ -9,6 +9,7 @@ import type { ResetLimiter, SignInLimiter } from "../auth/sign-in-limiter";
 import type { SessionStore, SessionUser } from "../auth/sessions";
 import type { Database } from "../db/client";
 import type { Env } from "../env";
+import type { Storage } from "./storage";
 import { parseInput } from "../middleware/validate";
 import { forbidden, notFound, unauthenticated } from "./app-error";
 
@@ -19,6 +20,7 @@ export interface AppDeps {
   sessions: SessionStore;
   signInLimiter: SignInLimiter;
   resetLimiter: ResetLimiter;
+  storage: Storage;
   /** Loads a person's role grants; one query per request. */
   loadGrants: (userId: string) => Promise<RoleGrant[]>;
   /** Tells the e-mail worker that new mail is waiting (after the transaction commits). */

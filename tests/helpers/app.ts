@@ -7,6 +7,7 @@ import { createApp } from "../../server/app";
 import { connectDatabase, type DatabaseHandle } from "../../server/db/client";
 import { buildDeps } from "../../server/deps";
 import { createLogger } from "../../server/lib/logger";
+import { createStorage } from "../../server/lib/storage";
 import type { AppDeps } from "../../server/lib/routes";
 import { testEnv, testOrigin } from "./test-env";
 
@@ -25,7 +26,13 @@ export function createTestApp(
 ): TestApp {
   const env = testEnv(overrides);
   const database = connectDatabase(env.DATABASE_URL, { max: 4 });
-  const deps = buildDeps(env, database, createLogger(env.LOG_LEVEL), notifyOutbox);
+  const deps = buildDeps(
+    env,
+    database,
+    createLogger(env.LOG_LEVEL),
+    createStorage(env),
+    notifyOutbox,
+  );
   return { app: createApp(deps), deps, database };
 }
 

@@ -14,6 +14,8 @@ export function testEnv(overrides: Record<string, string> = {}): Env {
     // Each test speaks from its own client address (X-Forwarded-For), as behind a load balancer.
     LINTEL_TRUST_PROXY: "true",
     LINTEL_LOGIN_LIMIT_ADDRESS: "1000",
+    S3_ENDPOINT: process.env.S3_ENDPOINT ?? "",
+    S3_BUCKET: "lintel-test",
     ...overrides,
   });
 }

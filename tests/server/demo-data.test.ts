@@ -9,12 +9,12 @@ import { api, testApp } from "../helpers/app";
 
 describe("demo data", () => {
   it("when the steps run twice (even at once), then each runs once and is recorded", async () => {
-    const { db, logger } = testApp().deps;
+    const { db, logger, storage } = testApp().deps;
     const [first, second] = await Promise.all([
-      runDemoSteps(db, logger, demoStepList),
-      runDemoSteps(db, logger, demoStepList),
+      runDemoSteps(db, logger, demoStepList, { storage }),
+      runDemoSteps(db, logger, demoStepList, { storage }),
     ]);
-    const third = await runDemoSteps(db, logger, demoStepList);
+    const third = await runDemoSteps(db, logger, demoStepList, { storage });
 
     expect([...first, ...second].sort()).toEqual(demoStepList.map((step) => step.id).sort());
     expect(third).toEqual([]);
@@ -47,22 +47,24 @@ describe("demo data", () => {
   });
 
   it("when a later release adds a step, then only the new step runs on an existing database", async () => {
-    const { db, logger } = testApp().deps;
-    await runDemoSteps(db, logger, demoStepList);
+    const { db, logger, storage } = testApp().deps;
+    await runDemoSteps(db, logger, demoStepList, { storage });
     let ran = 0;
     const later: DemoStep = {
       id: `test-later-step-${crypto.randomUUID()}`,
       description: "a later step",
       run: async () => void (ran += 1),
     };
-    expect(await runDemoSteps(db, logger, [...demoStepList, later])).toEqual([later.id]);
-    expect(await runDemoSteps(db, logger, [...demoStepList, later])).toEqual([]);
+    expect(await runDemoSteps(db, logger, [...demoStepList, later], { storage })).toEqual([
+      later.id,
+    ]);
+    expect(await runDemoSteps(db, logger, [...demoStepList, later], { storage })).toEqual([]);
     expect(ran).toBe(1);
   });
 
   it("when each demo person signs in with the demo password, then they get the roles the README lists", async () => {
-    const { db, logger } = testApp().deps;
-    await runDemoSteps(db, logger, demoStepList);
+    const { db, logger, storage } = testApp().deps;
+    await runDemoSteps(db, logger, demoStepList, { storage });
     for (const person of demoPeople) {
       const response = await api()
         .post("/api/auth/sign-in")
@@ -81,8 +83,8 @@ describe("demo data", () => {
   });
 
   it("when a demo person signs in with the demo password, then they get their roles", async () => {
-    const { db, logger } = testApp().deps;
-    await runDemoSteps(db, logger, demoStepList);
+    const { db, logger, storage } = testApp().deps;
+    await runDemoSteps(db, logger, demoStepList, { storage });
     const response = await api()
       .post("/api/auth/sign-in")
       .send({ email: "auditor2@example.org", password: demoPassword });

@@ -4,6 +4,7 @@ import path from "node:path";
 
 import { ensureChromium } from "../../scripts/lib/chromium";
 import { startMailCatcher } from "../../scripts/lib/mail-catcher";
+import { startS3Fake } from "../../scripts/lib/s3-fake";
 import { buildClient } from "../../scripts/lib/client-build";
 import { freePort } from "../../scripts/lib/process";
 import { parseEnv } from "../../server/env";
@@ -22,6 +23,8 @@ export default async function setup() {
   const clientDir = mkdtempSync(path.join(os.tmpdir(), "lintel-client-"));
   const mailboxDir = mkdtempSync(path.join(os.tmpdir(), "lintel-mailbox-"));
   const catcher = await startMailCatcher({ dir: mailboxDir });
+  const s3Dir = mkdtempSync(path.join(os.tmpdir(), "lintel-s3-"));
+  const s3 = await startS3Fake({ dir: s3Dir });
   await buildClient(clientDir);
   const port = await freePort();
   const server = await startServer(
@@ -36,6 +39,7 @@ export default async function setup() {
       SMTP_PORT: String(catcher.port),
       LINTEL_DEV_MAILBOX_DIR: mailboxDir,
       LINTEL_OUTBOX_POLL_MS: "100",
+      S3_ENDPOINT: s3.endpoint,
     }),
   );
   process.env.LINTEL_E2E_URL = server.url;
@@ -47,6 +51,8 @@ export default async function setup() {
   return async () => {
     await server.close();
     await catcher.stop();
+    await s3.stop();
+    rmSync(s3Dir, { recursive: true, force: true });
     cluster.destroy();
     rmSync(clientDir, { recursive: true, force: true });
     rmSync(mailboxDir, { recursive: true, force: true });

@@ -7,3 +7,5 @@ export * from "./system";
 export * from "./users";
 export * from "./outbox";
 export * from "./user-tokens";
+export * from "./floors";
+export * from "./images";

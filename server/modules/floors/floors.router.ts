@@ -1,0 +1,226 @@
+import {
+  fixtureBodySchema,
+  fixtureParamsSchema,
+  floorBodySchema,
+  floorParamsSchema,
+  scaleBodySchema,
+  siteFloorsParamsSchema,
+  spaceBodySchema,
+  spaceParamsSchema,
+  suiteBodySchema,
+  updateFixtureBodySchema,
+  updateFloorBodySchema,
+  updateSpaceBodySchema,
+} from "@shared/schemas/floors";
+
+import type { Permission } from "@shared/permissions";
+
+import { readUpload } from "../../lib/images";
+import { defineRoute, type Access, type AppDeps } from "../../lib/routes";
+import { siteIdIfExists } from "../sites/sites.service";
+import * as floors from "./floors.service";
+
+type Resolve = (db: AppDeps["db"], id: string) => Promise<string | null>;
+
+/** Site-scoped access where the site is found through the resource named by `param`. */
+function through(param: string, resolve: Resolve, permission: Permission): Access {
+  return {
+    kind: "site",
+    permission,
+    async siteOf(params, deps, user) {
+      const siteId = await resolve(deps.db, params[param]!);
+      return siteId ? siteIdIfExists(deps.db, user.networkId, siteId) : null;
+    },
+  };
+}
+
+const site = (permission: Permission) => through("siteId", async (_db, id) => id, permission);
+const floor = (permission: Permission) => through("floorId", floors.siteOfFloor, permission);
+const space = (permission: Permission) => through("spaceId", floors.siteOfSpace, permission);
+const fixture = (permission: Permission) => through("fixtureId", floors.siteOfFixture, permission);
+
+const actorOf = (ctx: { auth: { user: { id: string } } | null; requestId: string }) => ({
+  userId: ctx.auth!.user.id,
+  requestId: ctx.requestId,
+});
+
+export const floorRoutes = [
+  defineRoute({
+    method: "get",
+    path: "/sites/:siteId/floors",
+    summary: "The floors of a site",
+    access: site("read:site:site"),
+    params: siteFloorsParamsSchema,
+    async handle({ res, deps, params }) {
+      res.json({ floors: await floors.listFloors(deps.db, params.siteId) });
+    },
+  }),
+  defineRoute({
+    method: "post",
+    path: "/sites/:siteId/floors",
+    summary: "Add a floor to a site",
+    access: site("update:site:site"),
+    params: siteFloorsParamsSchema,
+    body: floorBodySchema,
+    async handle(ctx) {
+      const created = await floors.createFloor(
+        ctx.deps.db,
+        ctx.params.siteId,
+        ctx.body,
+        actorOf(ctx),
+      );
+      ctx.res.status(201).json({ floor: created });
+    },
+  }),
+  defineRoute({
+    method: "get",
+    path: "/floors/:floorId",
+    summary: "A floor with its suites, spaces and fixtures",
+    access: floor("read:site:site"),
+    params: floorParamsSchema,
+    async handle({ res, deps, params }) {
+      res.json(await floors.floorDetail(deps.db, params.floorId));
+    },
+  }),
+  defineRoute({
+    method: "patch",
+    path: "/floors/:floorId",
+    summary: "Rename or renumber a floor",
+    access: floor("update:site:site"),
+    params: floorParamsSchema,
+    body: updateFloorBodySchema,
+    async handle(ctx) {
+      ctx.res.json({
+        floor: await floors.updateFloor(ctx.deps.db, ctx.params.floorId, ctx.body, actorOf(ctx)),
+      });
+    },
+  }),
+  defineRoute({
+    method: "put",
+    path: "/floors/:floorId/plan",
+    summary: "Upload or replace the floor plan image (multipart field `plan`)",
+    access: floor("update:site:site"),
+    params: floorParamsSchema,
+    async handle(ctx) {
+      const buffer = await readUpload(ctx.req, ctx.res, "plan");
+      ctx.res.json({
+        floor: await floors.uploadPlan(ctx.deps, ctx.params.floorId, buffer, actorOf(ctx)),
+      });
+    },
+  }),
+  defineRoute({
+    method: "put",
+    path: "/floors/:floorId/scale",
+    summary: "Set the floor's scale from two points and their real distance",
+    access: floor("update:site:site"),
+    params: floorParamsSchema,
+    body: scaleBodySchema,
+    async handle(ctx) {
+      ctx.res.json({
+        floor: await floors.setScale(ctx.deps.db, ctx.params.floorId, ctx.body, actorOf(ctx)),
+      });
+    },
+  }),
+  defineRoute({
+    method: "post",
+    path: "/floors/:floorId/suites",
+    summary: "Group spaces that belong together (room, anteroom, donning, doffing)",
+    access: floor("update:site:site"),
+    params: floorParamsSchema,
+    body: suiteBodySchema,
+    async handle(ctx) {
+      ctx.res.status(201).json({
+        suite: await floors.createSuite(
+          ctx.deps.db,
+          ctx.params.floorId,
+          ctx.body.name,
+          actorOf(ctx),
+        ),
+      });
+    },
+  }),
+  defineRoute({
+    method: "post",
+    path: "/floors/:floorId/spaces",
+    summary: "Draw a space on the floor plan",
+    access: floor("update:site:site"),
+    params: floorParamsSchema,
+    body: spaceBodySchema,
+    async handle(ctx) {
+      ctx.res.status(201).json({
+        space: await floors.createSpace(ctx.deps.db, ctx.params.floorId, ctx.body, actorOf(ctx)),
+      });
+    },
+  }),
+  defineRoute({
+    method: "patch",
+    path: "/spaces/:spaceId",
+    summary: "Change a space",
+    access: space("update:site:site"),
+    params: spaceParamsSchema,
+    body: updateSpaceBodySchema,
+    async handle(ctx) {
+      ctx.res.json({
+        space: await floors.updateSpace(ctx.deps.db, ctx.params.spaceId, ctx.body, actorOf(ctx)),
+      });
+    },
+  }),
+  defineRoute({
+    method: "delete",
+    path: "/spaces/:spaceId",
+    summary: "Remove a space and its fixtures",
+    access: space("update:site:site"),
+    params: spaceParamsSchema,
+    async handle(ctx) {
+      await floors.deleteSpace(ctx.deps.db, ctx.params.spaceId, actorOf(ctx));
+      ctx.res.status(204).end();
+    },
+  }),
+  defineRoute({
+    method: "post",
+    path: "/spaces/:spaceId/fixtures",
+    summary: "Place a fixture inside a space",
+    access: space("update:site:site"),
+    params: spaceParamsSchema,
+    body: fixtureBodySchema,
+    async handle(ctx) {
+      ctx.res.status(201).json({
+        fixture: await floors.createFixture(
+          ctx.deps.db,
+          ctx.params.spaceId,
+          ctx.body,
+          actorOf(ctx),
+        ),
+      });
+    },
+  }),
+  defineRoute({
+    method: "patch",
+    path: "/fixtures/:fixtureId",
+    summary: "Move or relabel a fixture",
+    access: fixture("update:site:site"),
+    params: fixtureParamsSchema,
+    body: updateFixtureBodySchema,
+    async handle(ctx) {
+      ctx.res.json({
+        fixture: await floors.updateFixture(
+          ctx.deps.db,
+          ctx.params.fixtureId,
+          ctx.body,
+          actorOf(ctx),
+        ),
+      });
+    },
+  }),
+  defineRoute({
+    method: "delete",
+    path: "/fixtures/:fixtureId",
+    summary: "Remove a fixture",
+    access: fixture("update:site:site"),
+    params: fixtureParamsSchema,
+    async handle(ctx) {
+      await floors.deleteFixture(ctx.deps.db, ctx.params.fixtureId, actorOf(ctx));
+      ctx.res.status(204).end();
+    },
+  }),
+];

@@ -1,0 +1,65 @@
+import { pipeline } from "node:stream/promises";
+
+import { imageParamsSchema, imageQuerySchema } from "@shared/schemas/floors";
+import { siteParamsSchema } from "@shared/schemas/site";
+
+import { notFound } from "../../lib/app-error";
+import { readUpload, storeImage } from "../../lib/images";
+import { findImageForServing } from "../../lib/images.repository";
+import { defineRoute } from "../../lib/routes";
+import { siteIdIfExists } from "../sites/sites.service";
+
+export const imageRoutes = [
+  defineRoute({
+    method: "post",
+    path: "/sites/:siteId/images",
+    summary: "Upload a photo for a site (JPEG, PNG or WebP; metadata removed)",
+    access: {
+      kind: "site",
+      permission: "upload:image:site",
+      siteOf: (params, deps, user) => siteIdIfExists(deps.db, user.networkId, params.siteId!),
+    },
+    params: siteParamsSchema,
+    async handle({ req, res, deps, auth, params }) {
+      const buffer = await readUpload(req, res, "photo");
+      const image = await storeImage(deps, {
+        siteId: params.siteId,
+        uploadedBy: auth!.user.id,
+        buffer,
+        field: "photo",
+      });
+      res.status(image.duplicate ? 200 : 201).json({ image });
+    },
+  }),
+  defineRoute({
+    method: "get",
+    path: "/images/:imageId",
+    summary: "An image's bytes, after checking the person may see its site",
+    access: {
+      kind: "site",
+      permission: "read:site:site",
+      async siteOf(params, deps, user) {
+        const image = await findImageForServing(deps.db, params.imageId!);
+        return image ? siteIdIfExists(deps.db, user.networkId, image.siteId) : null;
+      },
+    },
+    params: imageParamsSchema,
+    query: imageQuerySchema,
+    async handle({ res, deps, params, query }) {
+      const image = await findImageForServing(deps.db, params.imageId);
+      if (!image) throw notFound("That image");
+      const stored = await deps.storage.get(
+        query.variant === "thumb" ? image.thumbKey : image.displayKey,
+      );
+      res.set({
+        "Content-Type": stored.contentType,
+        // Private: the image is only for people who may see the site. Images never change in place.
+        "Cache-Control": "private, max-age=86400, immutable",
+        "X-Content-Type-Options": "nosniff",
+      });
+      if (stored.contentLength !== undefined)
+        res.set("Content-Length", String(stored.contentLength));
+      await pipeline(stored.body, res);
+    },
+  }),
+];
