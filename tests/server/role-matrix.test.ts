@@ -1,4 +1,4 @@
-import { mkdtempSync } from "node:fs";
+import { mkdtempSync, rmSync } from "node:fs";
 import os from "node:os";
 import path from "node:path";
 
@@ -8,7 +8,8 @@ import { afterAll, beforeAll, describe, expect, it } from "vitest";
 import type { Role } from "@shared/roles";
 
 import { hashPassword } from "../../server/auth/password";
-import { users } from "../../server/db/schema/index";
+import { fixtures, floors, spaces, users } from "../../server/db/schema/index";
+import { storeImage } from "../../server/lib/images";
 import { apiRoutes } from "../../server/routes";
 import {
   buildSite,
@@ -19,6 +20,7 @@ import {
 } from "../factories/records";
 import { api, createTestApp, testApp, type TestApp } from "../helpers/app";
 import { issueTestLink } from "../helpers/links";
+import { jpegWithGps, pngPlan } from "../factories/images";
 import { sessionCookieFor, signInAs } from "../helpers/auth";
 
 // The designed access for every route, stated here independently of the server's own tables.
@@ -59,6 +61,9 @@ const atA: Caller[] = [
 interface World {
   networkId: string;
   siteA: string;
+  floorA: string;
+  imageA: string;
+  planPng: Buffer;
   signInEmail: string;
   /** A hash of "matrix-password-1", so password changes need no hashing per call. */
   knownHash: string;
@@ -67,6 +72,8 @@ interface World {
 interface Call {
   url: string;
   body?: object;
+  /** A file sent as multipart/form-data instead of a JSON body. */
+  file?: { field: string; content: Buffer; name: string };
 }
 
 interface Sample {
@@ -95,7 +102,164 @@ async function personAtA(world: World, state: "active" | "invited" | "deactivate
   return { person, grant };
 }
 
+const readers = atA;
+const uploaders: Caller[] = [
+  "administrator (network)",
+  "administrator @A",
+  "auditor @A",
+  "facilities lead @A",
+];
+const square: [number, number][] = [
+  [10, 10],
+  [300, 10],
+  [300, 300],
+  [10, 300],
+];
+
+async function spaceAtA(world: World) {
+  const { db } = testApp().deps;
+  const [space] = await db
+    .insert(spaces)
+    .values({
+      floorId: world.floorA,
+      siteId: world.siteA,
+      zoneType: "doffing_area",
+      name: "Matrix doffing",
+      polygon: square,
+    })
+    .returning();
+  return space!;
+}
+
+async function fixtureAtA(world: World) {
+  const space = await spaceAtA(world);
+  const [fixture] = await testApp()
+    .deps.db.insert(fixtures)
+    .values({ spaceId: space.id, siteId: world.siteA, kind: "dirty_chair", x: 50, y: 50 })
+    .returning();
+  return fixture!;
+}
+
 const samples: Record<string, Sample> = {
+  "GET /sites/:siteId/floors": {
+    prepare: (w) => ({ url: `/api/sites/${w.siteA}/floors` }),
+    ok: 200,
+    allowed: readers,
+    hidden: notAtA,
+  },
+  "POST /sites/:siteId/floors": {
+    prepare: (w) => ({
+      url: `/api/sites/${w.siteA}/floors`,
+      body: { building: "Matrix block", level: 2, name: "Level 2" },
+    }),
+    ok: 201,
+    allowed: admins,
+    hidden: notAtA,
+  },
+  "GET /floors/:floorId": {
+    prepare: (w) => ({ url: `/api/floors/${w.floorA}` }),
+    ok: 200,
+    allowed: readers,
+    hidden: notAtA,
+  },
+  "PATCH /floors/:floorId": {
+    prepare: (w) => ({ url: `/api/floors/${w.floorA}`, body: { name: `Level ${Math.random()}` } }),
+    ok: 200,
+    allowed: admins,
+    hidden: notAtA,
+  },
+  "PUT /floors/:floorId/plan": {
+    prepare: (w) => ({
+      url: `/api/floors/${w.floorA}/plan`,
+      file: { field: "plan", content: w.planPng, name: "plan.png" },
+    }),
+    ok: 200,
+    allowed: admins,
+    hidden: notAtA,
+  },
+  "PUT /floors/:floorId/scale": {
+    prepare: (w) => ({
+      url: `/api/floors/${w.floorA}/scale`,
+      body: { a: { x: 0, y: 0 }, b: { x: 100, y: 0 }, distanceMetres: 2 },
+    }),
+    ok: 200,
+    allowed: admins,
+    hidden: notAtA,
+  },
+  "POST /floors/:floorId/suites": {
+    prepare: (w) => ({ url: `/api/floors/${w.floorA}/suites`, body: { name: "Suite M" } }),
+    ok: 201,
+    allowed: admins,
+    hidden: notAtA,
+  },
+  "POST /floors/:floorId/spaces": {
+    prepare: (w) => ({
+      url: `/api/floors/${w.floorA}/spaces`,
+      body: { zoneType: "donning_zone", name: "Matrix donning", polygon: square },
+    }),
+    ok: 201,
+    allowed: admins,
+    hidden: notAtA,
+  },
+  "PATCH /spaces/:spaceId": {
+    prepare: async (w) => ({
+      url: `/api/spaces/${(await spaceAtA(w)).id}`,
+      body: { name: "Renamed space" },
+    }),
+    ok: 200,
+    allowed: admins,
+    hidden: notAtA,
+  },
+  "DELETE /spaces/:spaceId": {
+    prepare: async (w) => ({ url: `/api/spaces/${(await spaceAtA(w)).id}` }),
+    ok: 204,
+    allowed: admins,
+    hidden: notAtA,
+  },
+  "POST /spaces/:spaceId/fixtures": {
+    prepare: async (w) => ({
+      url: `/api/spaces/${(await spaceAtA(w)).id}/fixtures`,
+      body: { kind: "hand_rub_station", x: 100, y: 100 },
+    }),
+    ok: 201,
+    allowed: admins,
+    hidden: notAtA,
+  },
+  "PATCH /fixtures/:fixtureId": {
+    prepare: async (w) => ({ url: `/api/fixtures/${(await fixtureAtA(w)).id}`, body: { x: 60 } }),
+    ok: 200,
+    allowed: admins,
+    hidden: notAtA,
+  },
+  "DELETE /fixtures/:fixtureId": {
+    prepare: async (w) => ({ url: `/api/fixtures/${(await fixtureAtA(w)).id}` }),
+    ok: 204,
+    allowed: admins,
+    hidden: notAtA,
+  },
+  "POST /sites/:siteId/images": {
+    prepare: async (w) => ({
+      url: `/api/sites/${w.siteA}/images`,
+      file: {
+        field: "photo",
+        content: await jpegWithGps({
+          colour: `#${Math.floor(Math.random() * 0xffffff)
+            .toString(16)
+            .padStart(6, "0")}`,
+        }),
+        name: "p.jpg",
+      },
+    }),
+    ok: 201,
+    allowed: uploaders,
+    hidden: notAtA,
+  },
+  "GET /images/:imageId": {
+    prepare: (w) => ({ url: `/api/images/${w.imageA}?variant=thumb` }),
+    ok: 200,
+    allowed: readers,
+    hidden: notAtA,
+  },
   "GET /health": { prepare: () => ({ url: "/api/health" }), ok: 200, allowed: everyone },
   "GET /app-config": { prepare: () => ({ url: "/api/app-config" }), ok: 200, allowed: everyone },
   "GET /dev/mailbox": {
@@ -299,6 +463,20 @@ describe("role matrix: every registered route, as every role, another site's mem
     world.networkId = network.id;
     world.knownHash = await hashPassword("matrix-password-1");
     world.siteA = (await insertSite(db, network.id)).id;
+    world.planPng = await pngPlan(400, 300);
+    const [floor] = await db
+      .insert(floors)
+      .values({ siteId: world.siteA, building: "Matrix block", level: 1, name: "Level 1" })
+      .returning();
+    world.floorA = floor!.id;
+    world.imageA = (
+      await storeImage(testApp().deps, {
+        siteId: world.siteA,
+        uploadedBy: null,
+        buffer: world.planPng,
+        field: "photo",
+      })
+    ).id;
     siteBId = (await insertSite(db, network.id)).id;
     const signInUser = await insertUser(db, network.id, { password: "matrix-password-1" });
     world.signInEmail = signInUser.email;
@@ -310,7 +488,10 @@ describe("role matrix: every registered route, as every role, another site's mem
       userIds[caller] = (await signInAs(network.id, grants)).user.id;
     }
   });
-  afterAll(() => matrixApp.database.close());
+  afterAll(async () => {
+    await matrixApp.database.close();
+    rmSync(matrixApp.deps.env.LINTEL_DEV_MAILBOX_DIR!, { recursive: true, force: true });
+  });
 
   it("when a route is registered, then the matrix has a designed answer for it", () => {
     const registered = apiRoutes.map(routeKey).sort();
@@ -324,9 +505,10 @@ describe("role matrix: every registered route, as every role, another site's mem
       if (!sample) return;
       const call = async (caller: Caller | null) => {
         const userId = caller ? userIds[caller] : null;
-        const { url, body } = await sample.prepare(world, { userId });
+        const { url, body, file } = await sample.prepare(world, { userId });
         const cookie = userId ? await sessionCookieFor(userId) : undefined;
         const request = api(matrixApp.app, { cookie }).request(route.method, url);
+        if (file) return request.attach(file.field, file.content, file.name);
         return body ? request.send(body) : request;
       };
 
