@@ -1,0 +1,71 @@
+/**
+ * Ventilation arithmetic an auditor needs at an isolation room. Stored units are SI: Pa for
+ * pressure, m³ for volume, m³/h for airflow. These are the auditor's readings, not a certification.
+ */
+
+/** 1 ft = 0.3048 m exactly, so 1 ft³ = 0.3048³ m³ = 0.028316846592 m³. */
+export const cubicMetresPerCubicFoot = 0.3048 ** 3;
+
+/**
+ * One inch of water column (conventional, water at 1000 kg/m³ under standard gravity):
+ * 0.0254 m × 9.80665 m/s² × 1000 kg/m³ = 249.08891 Pa.
+ */
+export const pascalsPerInchOfWater = 0.0254 * 9.80665 * 1000;
+
+function assertFinite(value: number, what: string): void {
+  if (!Number.isFinite(value)) throw new RangeError(`${what} must be a finite number.`);
+}
+
+export function cubicFeetToCubicMetres(cubicFeet: number): number {
+  assertFinite(cubicFeet, "Volume");
+  return cubicFeet * cubicMetresPerCubicFoot;
+}
+
+/** Cubic feet per minute → cubic metres per hour. */
+export function cfmToCubicMetresPerHour(cfm: number): number {
+  assertFinite(cfm, "Airflow");
+  return cfm * cubicMetresPerCubicFoot * 60;
+}
+
+export function pascalsToInchesOfWater(pascals: number): number {
+  assertFinite(pascals, "Pressure");
+  return pascals / pascalsPerInchOfWater;
+}
+
+export function inchesOfWaterToPascals(inches: number): number {
+  assertFinite(inches, "Pressure");
+  return inches * pascalsPerInchOfWater;
+}
+
+/** ACH = exhaust airflow per hour ÷ room volume. */
+export function airChangesPerHour(
+  airflowCubicMetresPerHour: number,
+  volumeCubicMetres: number,
+): number {
+  if (!Number.isFinite(airflowCubicMetresPerHour) || airflowCubicMetresPerHour < 0) {
+    throw new RangeError("Airflow must be a finite number, zero or more.");
+  }
+  if (!Number.isFinite(volumeCubicMetres) || volumeCubicMetres <= 0) {
+    throw new RangeError("Room volume must be a finite number above zero.");
+  }
+  return airflowCubicMetresPerHour / volumeCubicMetres;
+}
+
+/**
+ * Minutes for airborne contaminants to fall by `efficiencyPercent` in an empty, perfectly mixed
+ * room: t = −ln(1 − efficiency/100) ÷ ACH × 60. Imperfect mixing takes longer.
+ */
+export function purgeMinutes(airChanges: number, efficiencyPercent: number): number {
+  if (!Number.isFinite(airChanges) || airChanges <= 0)
+    throw new RangeError("Air changes per hour must be above zero.");
+  if (!Number.isFinite(efficiencyPercent) || efficiencyPercent <= 0 || efficiencyPercent >= 100) {
+    throw new RangeError("Removal efficiency must be between 0 and 100 percent, exclusive.");
+  }
+  return (-Math.log(1 - efficiencyPercent / 100) / airChanges) * 60;
+}
+
+/** Minimum air changes per hour for an airborne infection isolation room by construction class. */
+export const minimumAirChanges = { new_or_renovated: 12, existing: 6 } as const;
+
+/** At least 2.5 Pa negative to the corridor. */
+export const minimumNegativePressurePascals = 2.5;
