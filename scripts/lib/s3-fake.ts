@@ -18,7 +18,12 @@ export async function startS3Fake(options: { dir: string; port?: number }): Prom
   let server: S3rver | null = null;
 
   const listen = async () => {
-    const instance = new S3rver({ address: "127.0.0.1", port, directory: options.dir, silent: true });
+    const instance = new S3rver({
+      address: "127.0.0.1",
+      port,
+      directory: options.dir,
+      silent: true,
+    });
     const address = (await instance.run()) as AddressInfo;
     port = address.port;
     server = instance;

@@ -62,11 +62,35 @@ export function createRoutes(queryClient: QueryClient): RouteObject[] {
               },
             },
             {
+              path: paths.newSite.path,
+              errorElement: <RouteError />,
+              lazy: async () => {
+                const { NewSiteRoute } = await import("./routes/new-site");
+                return { Component: NewSiteRoute };
+              },
+            },
+            {
               path: paths.site.path,
               errorElement: <RouteError />,
               lazy: async () => {
                 const { SiteRoute, siteLoader } = await import("./routes/site");
                 return { Component: SiteRoute, loader: siteLoader(queryClient) };
+              },
+            },
+            {
+              path: paths.editSite.path,
+              errorElement: <RouteError />,
+              lazy: async () => {
+                const { EditSiteRoute, editSiteLoader } = await import("./routes/edit-site");
+                return { Component: EditSiteRoute, loader: editSiteLoader(queryClient) };
+              },
+            },
+            {
+              path: paths.floor.path,
+              errorElement: <RouteError />,
+              lazy: async () => {
+                const { FloorRoute, floorLoader } = await import("./routes/floor");
+                return { Component: FloorRoute, loader: floorLoader(queryClient) };
               },
             },
             {

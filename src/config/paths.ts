@@ -11,9 +11,22 @@ export const paths = {
       return safe && safe !== "/" ? `/sign-in?next=${encodeURIComponent(safe)}` : "/sign-in";
     },
   },
+  newSite: {
+    path: "/sites/new",
+    getHref: () => "/sites/new",
+  },
   site: {
     path: "/sites/:siteId",
     getHref: (siteId: string) => `/sites/${encodeURIComponent(siteId)}`,
+  },
+  editSite: {
+    path: "/sites/:siteId/edit",
+    getHref: (siteId: string) => `/sites/${encodeURIComponent(siteId)}/edit`,
+  },
+  floor: {
+    path: "/sites/:siteId/floors/:floorId",
+    getHref: (siteId: string, floorId: string) =>
+      `/sites/${encodeURIComponent(siteId)}/floors/${encodeURIComponent(floorId)}`,
   },
   account: {
     path: "/account",

@@ -39,6 +39,7 @@ type Method = "GET" | "POST" | "PUT" | "PATCH" | "DELETE";
 
 export interface ApiRequestOptions<TSchema extends z.ZodType | undefined> {
   method?: Method;
+  /** Sent as JSON, or as multipart/form-data when it is a FormData (file uploads). */
   body?: unknown;
   /** Validates the reply against the shared contract; without it the reply is ignored. */
   schema?: TSchema;
@@ -51,6 +52,8 @@ const fallbackMessages: Record<number, string> = {
   401: "Please sign in to continue.",
   403: "You do not have access to this.",
   404: "We could not find that.",
+  413: "The file is too large to upload.",
+  415: "That kind of file cannot be uploaded.",
   429: "Too many attempts. Please wait a moment and try again.",
 };
 
@@ -84,14 +87,16 @@ export async function apiRequest<TSchema extends z.ZodType | undefined = undefin
   { method = "GET", body, schema, signal }: ApiRequestOptions<TSchema> = {},
 ): Promise<Reply<TSchema>> {
   const headers: Record<string, string> = { Accept: "application/json" };
-  if (body !== undefined) headers["Content-Type"] = "application/json";
+  const isForm = body instanceof FormData;
+  // The browser writes the multipart boundary into Content-Type itself.
+  if (body !== undefined && !isForm) headers["Content-Type"] = "application/json";
 
   let response: Response;
   try {
     response = await fetch(path, {
       method,
       headers,
-      body: body === undefined ? undefined : JSON.stringify(body),
+      body: body === undefined ? undefined : isForm ? body : JSON.stringify(body),
       credentials: "same-origin",
       signal,
     });

@@ -88,4 +88,17 @@ describe("apiRequest", () => {
 
     await expect(apiRequest("/api/auth/sign-out", { method: "POST" })).resolves.toBeUndefined();
   });
+
+  it("when the body is form data, then it is sent as is and the browser sets the multipart type", async () => {
+    const fetchStub = vi.fn(() => Promise.resolve(jsonResponse({ ok: true })));
+    vi.stubGlobal("fetch", fetchStub);
+    const form = new FormData();
+    form.append("plan", new File(["x"], "plan.png", { type: "image/png" }));
+
+    await apiRequest("/api/floors/1/plan", { method: "PUT", body: form });
+
+    const init = (fetchStub.mock.calls[0] as unknown as [string, RequestInit])[1];
+    expect(init.body).toBe(form);
+    expect(init.headers).not.toHaveProperty("Content-Type");
+  });
 });

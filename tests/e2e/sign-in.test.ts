@@ -28,7 +28,8 @@ describe("signing in on a phone (390×844)", () => {
       "Orchard Hill Community Hospital",
       "Wexley Rehabilitation Centre",
     ]) {
-      await expect(page.getByText(site).first().isVisible()).resolves.toBe(true);
+      // The heading shows at once; the list arrives after its request.
+      await page.getByText(site).first().waitFor();
     }
     // Phones get the bottom navigation.
     const nav = page.getByRole("navigation", { name: "Main" });

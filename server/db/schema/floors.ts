@@ -7,7 +7,6 @@ import {
   jsonb,
   pgEnum,
   pgTable,
-  text,
   timestamp,
   uuid,
   varchar,

@@ -1,7 +1,12 @@
 import type { QueryClient } from "@tanstack/react-query";
+import { Link } from "react-router-dom";
+
+import { buttonStyles } from "@/components/ui/button";
+import { paths } from "@/config/paths";
 
 import { sitesQueryOptions } from "@/features/sites/api/get-sites";
 import { SitesList } from "@/features/sites/components/sites-list";
+import { useAuthorization } from "@/lib/authorization";
 
 import { isSignedIn } from "../session";
 import { useSignedInPerson } from "./protected-layout";
@@ -19,13 +24,23 @@ function firstName(name: string): string {
 
 export function HomeRoute() {
   const me = useSignedInPerson();
+  const { can } = useAuthorization();
   return (
     <>
       <title>My sites · Lintel</title>
-      <h1 className="text-2xl font-bold tracking-tight md:text-3xl">My sites</h1>
-      <p className="mt-2 mb-6 text-ink-muted">
-        Hello {firstName(me.user.name)}. These are the sites where you hold a role.
-      </p>
+      <div className="mb-6 flex flex-wrap items-end justify-between gap-4">
+        <div>
+          <h1 className="text-2xl font-bold tracking-tight md:text-3xl">My sites</h1>
+          <p className="mt-2 text-ink-muted">
+            Hello {firstName(me.user.name)}. These are the sites where you hold a role.
+          </p>
+        </div>
+        {can("create:site:network") ? (
+          <Link to={paths.newSite.getHref()} className={buttonStyles()}>
+            Add a site
+          </Link>
+        ) : null}
+      </div>
       <SitesList />
     </>
   );

@@ -1,19 +1,22 @@
 import { roleLabels } from "@shared/roles";
 import { siteParamsSchema } from "@shared/schemas/site";
 import type { QueryClient } from "@tanstack/react-query";
-import { type LoaderFunctionArgs, useParams } from "react-router-dom";
+import { Link, type LoaderFunctionArgs, useParams } from "react-router-dom";
 
 import { Alert } from "@/components/ui/alert";
-import { Button } from "@/components/ui/button";
+import { Button, buttonStyles } from "@/components/ui/button";
 import { Card } from "@/components/ui/card";
 import { CautionNote } from "@/components/ui/caution-note";
 import { EmptyState } from "@/components/ui/empty-state";
 import { Spinner } from "@/components/ui/spinner";
 import { TextLink } from "@/components/ui/text-link";
 import { paths } from "@/config/paths";
+import { floorsQueryOptions } from "@/features/floor-plans/api/get-floors";
+import { FloorsSection } from "@/features/floor-plans/components/floors-section";
 import { siteQueryOptions, useSite } from "@/features/sites/api/get-site";
 import { SiteDetails } from "@/features/sites/components/site-details";
 import { isApiError } from "@/lib/api-client";
+import { useAuthorization } from "@/lib/authorization";
 
 import { isSignedIn } from "../session";
 import { useSignedInPerson } from "./protected-layout";
@@ -23,16 +26,13 @@ export function siteLoader(queryClient: QueryClient) {
     const parsed = siteParamsSchema.safeParse(params);
     if (parsed.success && (await isSignedIn(queryClient))) {
       void queryClient.prefetchQuery(siteQueryOptions(parsed.data.siteId));
+      void queryClient.prefetchQuery(floorsQueryOptions(parsed.data.siteId));
     }
     return null;
   };
 }
 
 const upcoming = [
-  {
-    title: "Floor plans",
-    text: "Each floor with its isolation rooms, anterooms, donning zones and doffing areas, and the fixtures an audit looks for pinned where they stand.",
-  },
   {
     title: "Walkthroughs",
     text: "The readiness checklist on your phone, space by space, with readings and photos of anything that needs attention.",
@@ -59,7 +59,9 @@ function SiteNotFound() {
 
 function SiteOverview({ siteId }: { siteId: string }) {
   const me = useSignedInPerson();
+  const { can } = useAuthorization();
   const site = useSite(siteId);
+  const canEdit = can("update:site:site", siteId);
 
   if (site.isPending) return <Spinner label="Loading site…" className="py-8" />;
   if (site.isError) {
@@ -87,21 +89,41 @@ function SiteOverview({ siteId }: { siteId: string }) {
       <p className="text-sm">
         <TextLink to={paths.home.getHref()}>My sites</TextLink>
       </p>
-      <h1 className="mt-2 text-2xl font-bold tracking-tight md:text-3xl">{site.data.name}</h1>
-      {rolesHere.length > 0 ? (
-        <p className="mt-1 text-ink-muted">Your role here: {[...new Set(rolesHere)].join(", ")}</p>
-      ) : null}
+      <div className="mt-2 flex flex-wrap items-start justify-between gap-4">
+        <div>
+          <h1 className="text-2xl font-bold tracking-tight md:text-3xl">{site.data.name}</h1>
+          {rolesHere.length > 0 ? (
+            <p className="mt-1 text-ink-muted">
+              Your role here: {[...new Set(rolesHere)].join(", ")}
+            </p>
+          ) : null}
+        </div>
+        {canEdit ? (
+          <Link
+            to={paths.editSite.getHref(siteId)}
+            className={buttonStyles({ variant: "secondary" })}
+          >
+            Edit site
+          </Link>
+        ) : null}
+      </div>
 
       <div className="mt-6 flex flex-col gap-6">
         <SiteDetails site={site.data} />
 
+        <FloorsSection
+          siteId={siteId}
+          canEdit={canEdit}
+          floorHref={(floorId) => paths.floor.getHref(siteId, floorId)}
+        />
+
         <Card className="bg-brand-50">
           <h2 className="text-lg font-semibold">Coming to this site</h2>
           <p className="mt-1 text-ink-muted">
-            Floor plans, walkthroughs and corrective actions will gather here, so everything about
-            this site&apos;s readiness lives in one place.
+            Walkthroughs and corrective actions will gather here beside the floor plans, so
+            everything about this site&apos;s readiness lives in one place.
           </p>
-          <ul className="mt-4 grid gap-4 md:grid-cols-3">
+          <ul className="mt-4 grid gap-4 md:grid-cols-2">
             {upcoming.map((item) => (
               <li key={item.title} className="rounded-lg bg-surface p-4">
                 <h3 className="font-semibold text-brand-800">{item.title}</h3>

@@ -39,7 +39,12 @@ export function stubApi(replies: Record<string, Reply>) {
   const fetchStub = vi.fn(async (input: RequestInfo | URL, init?: RequestInit) => {
     const url = new URL(String(input), "http://localhost");
     const method = (init?.method ?? "GET").toUpperCase();
-    const body: unknown = typeof init?.body === "string" ? JSON.parse(init.body) : undefined;
+    const body: unknown =
+      typeof init?.body === "string"
+        ? JSON.parse(init.body)
+        : init?.body instanceof FormData
+          ? init.body
+          : undefined;
     const request = { method, path: url.pathname, body };
     calls.push(request);
     const reply = replies[`${method} ${url.pathname}`];

@@ -1,0 +1,102 @@
+import { floorParamsSchema } from "@shared/schemas/floors";
+import { siteParamsSchema } from "@shared/schemas/site";
+import type { QueryClient } from "@tanstack/react-query";
+import { type LoaderFunctionArgs, useParams } from "react-router-dom";
+
+import { Alert } from "@/components/ui/alert";
+import { Button } from "@/components/ui/button";
+import { CautionNote } from "@/components/ui/caution-note";
+import { EmptyState } from "@/components/ui/empty-state";
+import { Spinner } from "@/components/ui/spinner";
+import { TextLink } from "@/components/ui/text-link";
+import { paths } from "@/config/paths";
+import { floorQueryOptions, useFloor } from "@/features/floor-plans/api/get-floor";
+import { FloorPlanView } from "@/features/floor-plans/components/floor-plan-view";
+import { siteQueryOptions, useSite } from "@/features/sites/api/get-site";
+import { isApiError } from "@/lib/api-client";
+import { useAuthorization } from "@/lib/authorization";
+
+import { isSignedIn } from "../session";
+
+const floorPageParamsSchema = siteParamsSchema.extend(floorParamsSchema.shape);
+
+export function floorLoader(queryClient: QueryClient) {
+  return async ({ params }: LoaderFunctionArgs) => {
+    const parsed = floorPageParamsSchema.safeParse(params);
+    if (parsed.success && (await isSignedIn(queryClient))) {
+      void queryClient.prefetchQuery(floorQueryOptions(parsed.data.floorId));
+      void queryClient.prefetchQuery(siteQueryOptions(parsed.data.siteId));
+    }
+    return null;
+  };
+}
+
+function FloorNotFound({ siteId }: { siteId?: string }) {
+  return (
+    <>
+      <title>Floor not found · Lintel</title>
+      <EmptyState
+        headingLevel={1}
+        title="This floor is not available"
+        description="It may have been removed, or it belongs to a site where you hold no role."
+        action={
+          <TextLink to={siteId ? paths.site.getHref(siteId) : paths.home.getHref()}>
+            {siteId ? "Back to the site" : "Back to my sites"}
+          </TextLink>
+        }
+      />
+    </>
+  );
+}
+
+function FloorPage({ siteId, floorId }: { siteId: string; floorId: string }) {
+  const { can } = useAuthorization();
+  const floor = useFloor(floorId);
+  const site = useSite(siteId);
+
+  if (floor.isPending) return <Spinner label="Loading floor…" className="py-8" />;
+  if (floor.isError) {
+    if (isApiError(floor.error) && floor.error.status === 404) {
+      return <FloorNotFound siteId={siteId} />;
+    }
+    return (
+      <>
+        <h1 className="mb-4 text-2xl font-bold tracking-tight">Floor</h1>
+        <Alert role="alert" tone="error" title="We could not load this floor">
+          <p>{floor.error.message}</p>
+          <Button variant="secondary" className="mt-3" onClick={() => void floor.refetch()}>
+            Try again
+          </Button>
+        </Alert>
+      </>
+    );
+  }
+  // A floor reached through another site's address is not shown under this one.
+  if (floor.data.floor.siteId !== siteId) return <FloorNotFound siteId={siteId} />;
+
+  const { name, building, level } = floor.data.floor;
+  const siteName = site.data?.name;
+  return (
+    <>
+      <title>{`${name} · ${siteName ?? "Floor"} · Lintel`}</title>
+      <p className="text-sm">
+        <TextLink to={paths.site.getHref(siteId)}>{siteName ?? "Back to the site"}</TextLink>
+      </p>
+      <h1 className="mt-2 text-2xl font-bold tracking-tight md:text-3xl">{name}</h1>
+      <p className="mt-1 mb-6 text-ink-muted">
+        {building} · Level {level}
+      </p>
+      <div className="flex flex-col gap-6">
+        <FloorPlanView detail={floor.data} canEdit={can("update:site:site", siteId)} />
+        <CautionNote />
+      </div>
+    </>
+  );
+}
+
+export function FloorRoute() {
+  const parsed = floorPageParamsSchema.safeParse(useParams());
+  if (!parsed.success) return <FloorNotFound />;
+  const { siteId, floorId } = parsed.data;
+  return <FloorPage key={floorId} siteId={siteId} floorId={floorId} />;
+}

@@ -1,0 +1,55 @@
+import { type Floor, type FloorDetail, floorDetailResponseSchema } from "@shared/schemas/floors";
+import { type QueryClient, queryOptions, useQuery } from "@tanstack/react-query";
+
+import { apiRequest } from "@/lib/api-client";
+
+import { floorsQueryKey } from "./get-floors";
+
+export function floorQueryKey(floorId: string) {
+  return ["floors", "detail", floorId] as const;
+}
+
+/** One floor with its suites, spaces and fixtures. */
+export function getFloor(
+  floorId: string,
+  { signal }: { signal?: AbortSignal } = {},
+): Promise<FloorDetail> {
+  return apiRequest(`/api/floors/${encodeURIComponent(floorId)}`, {
+    schema: floorDetailResponseSchema,
+    signal,
+  });
+}
+
+export function floorQueryOptions(floorId: string) {
+  return queryOptions({
+    queryKey: floorQueryKey(floorId),
+    queryFn: ({ signal }) => getFloor(floorId, { signal }),
+  });
+}
+
+export function useFloor(floorId: string) {
+  return useQuery(floorQueryOptions(floorId));
+}
+
+/**
+ * Applies a change the server has confirmed to the cached floor at once, so the map answers the
+ * tap without waiting, then refetches to stay in step with edits made elsewhere.
+ */
+export function floorDetailChanged(
+  queryClient: QueryClient,
+  floorId: string,
+  change: (detail: FloorDetail) => FloorDetail,
+): Promise<void> {
+  queryClient.setQueryData(floorQueryOptions(floorId).queryKey, (detail) =>
+    detail ? change(detail) : detail,
+  );
+  return queryClient.invalidateQueries({ queryKey: floorQueryKey(floorId) });
+}
+
+/** After the floor itself changed (plan, scale): the detail and the site's floor list. */
+export function floorChanged(queryClient: QueryClient, floor: Floor): Promise<unknown> {
+  return Promise.all([
+    floorDetailChanged(queryClient, floor.id, (detail) => ({ ...detail, floor })),
+    queryClient.invalidateQueries({ queryKey: floorsQueryKey(floor.siteId) }),
+  ]);
+}
