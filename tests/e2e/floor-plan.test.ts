@@ -26,7 +26,12 @@ async function tapPlan(
   x: number,
   y: number,
 ): Promise<{ x: number; y: number }> {
-  await map.evaluate((element: HTMLElement) => element.scrollIntoView({ block: "center" }));
+  // Runs in the page; the test's own types have no DOM.
+  await map.evaluate((element) =>
+    (element as unknown as { scrollIntoView: (options: object) => void }).scrollIntoView({
+      block: "center",
+    }),
+  );
   const box = (await map.locator("img.leaflet-image-layer").boundingBox())!;
   await page.mouse.click(
     box.x + (x / planWidth) * box.width,
