@@ -54,6 +54,10 @@ const envSchema = z.object({
   LINTEL_CLIENT_DIR: z.string().optional(),
 });
 
+// The AWS SDK warns on every start that later releases will need Node 22; Lintel pins a release
+// that runs on Node 20, so the warning is noise here.
+process.env.AWS_SDK_JS_NODE_VERSION_SUPPORT_WARNING_DISABLED ??= "true";
+
 export type Env = z.infer<typeof envSchema> & { publicUrl: URL };
 
 export function parseEnv(source: NodeJS.ProcessEnv = process.env): Env {
