@@ -1,5 +1,7 @@
 import { accountRoutes } from "./modules/accounts/accounts.router";
 import { authRoutes } from "./modules/auth/auth.router";
+import { auditRoutes } from "./modules/audits/audits.router";
+import { checklistRoutes } from "./modules/checklists/checklists.router";
 import { floorRoutes } from "./modules/floors/floors.router";
 import { imageRoutes } from "./modules/images/images.router";
 import { devMailboxRoutes } from "./modules/dev-mailbox/dev-mailbox.router";
@@ -17,4 +19,6 @@ export const apiRoutes = [
   ...peopleRoutes,
   ...floorRoutes,
   ...imageRoutes,
+  ...checklistRoutes,
+  ...auditRoutes,
 ];

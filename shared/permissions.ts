@@ -13,6 +13,8 @@ export const permissions = [
   "manage:people:site",
   "read:dev-mailbox:network",
   "upload:image:site",
+  "conduct:audit:site",
+  "manage:checklists:network",
 ] as const;
 export type Permission = (typeof permissions)[number];
 
@@ -25,8 +27,9 @@ export const rolePermissions: Record<Role, readonly Permission[]> = {
     "manage:people:site",
     "read:dev-mailbox:network",
     "upload:image:site",
+    "manage:checklists:network",
   ],
-  auditor: ["read:site:site", "upload:image:site"],
+  auditor: ["read:site:site", "upload:image:site", "conduct:audit:site"],
   facilities_lead: ["read:site:site", "upload:image:site"],
   committee_member: ["read:site:site", "read:change-log:site"],
 };

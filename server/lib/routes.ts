@@ -46,10 +46,12 @@ export type Access =
   | {
       kind: "site";
       permission: Permission;
+      /** `req` serves resources the request itself creates (its body says where). */
       siteOf: (
         params: Record<string, string>,
         deps: AppDeps,
         user: SessionUser,
+        req: Request,
       ) => Promise<string | null>;
     };
 
@@ -128,7 +130,7 @@ export function mountRoutes(
       } else if (route.access.kind === "any-site") {
         if (!canSomewhere(auth!.grants, route.access.permission)) throw forbidden();
       } else if (route.access.kind === "site") {
-        siteId = await route.access.siteOf(params as Record<string, string>, deps, auth!.user);
+        siteId = await route.access.siteOf(params as Record<string, string>, deps, auth!.user, req);
         // What is not theirs to see does not exist for them.
         if (siteId === null || !hasAnyRoleAt(auth!.grants, siteId)) throw notFound();
         if (!can(auth!.grants, route.access.permission, siteId)) throw forbidden();

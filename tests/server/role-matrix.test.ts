@@ -2,13 +2,25 @@ import { mkdtempSync, rmSync } from "node:fs";
 import os from "node:os";
 import path from "node:path";
 
-import { eq } from "drizzle-orm";
+import { and, eq } from "drizzle-orm";
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
 
 import type { Role } from "@shared/roles";
 
 import { hashPassword } from "../../server/auth/password";
-import { fixtures, floors, spaces, users } from "../../server/db/schema/index";
+import {
+  audits,
+  checklistItems,
+  checklistVersions,
+  fixtures,
+  floors,
+  spaces,
+  users,
+} from "../../server/db/schema/index";
+import {
+  ensureDefaultChecklists,
+  saveDraft as checklistSaveDraft,
+} from "../../server/modules/checklists/checklists.service";
 import { storeImage } from "../../server/lib/images";
 import { apiRoutes } from "../../server/routes";
 import {
@@ -60,6 +72,8 @@ const atA: Caller[] = [
 
 interface World {
   networkId: string;
+  /** The auditor at site A, who owns audits prepared for callers that cannot start one. */
+  auditorA: string;
   siteA: string;
   floorA: string;
   imageA: string;
@@ -72,8 +86,9 @@ interface World {
 interface Call {
   url: string;
   body?: object;
-  /** A file sent as multipart/form-data instead of a JSON body. */
+  /** A file sent as multipart/form-data instead of a JSON body, with any text fields. */
   file?: { field: string; content: Buffer; name: string };
+  fields?: Record<string, string>;
 }
 
 interface Sample {
@@ -140,7 +155,161 @@ async function fixtureAtA(world: World) {
   return fixture!;
 }
 
+const auditors: Caller[] = ["auditor @A"];
+
+/** An audit of a fresh doffing area at site A started by the caller (or the auditor at A). */
+async function auditAtA(
+  world: World,
+  caller: { userId: string | null },
+  status: "draft" | "submitted" = "draft",
+) {
+  const space = await spaceAtA(world);
+  const auditId = crypto.randomUUID();
+  const { db } = testApp().deps;
+  await ensureDefaultChecklists(db, world.networkId);
+  const [version] = await db
+    .select()
+    .from(checklistVersions)
+    .where(
+      and(
+        eq(checklistVersions.networkId, world.networkId),
+        eq(checklistVersions.zoneType, "doffing_area"),
+      ),
+    );
+  await db.insert(audits).values({
+    id: auditId,
+    siteId: world.siteA,
+    spaceId: space.id,
+    checklistVersionId: version!.id,
+    auditorId: caller.userId ?? world.auditorA,
+    startedAt: new Date(),
+    status,
+  });
+  const [item] = await db
+    .select()
+    .from(checklistItems)
+    .where(eq(checklistItems.versionId, version!.id))
+    .limit(1);
+  return { auditId, spaceId: space.id, itemId: item!.id };
+}
+
 const samples: Record<string, Sample> = {
+  "GET /checklists": { prepare: () => ({ url: "/api/checklists" }), ok: 200, allowed: everyone },
+  "PUT /checklists/:zoneType/draft": {
+    prepare: () => ({
+      url: "/api/checklists/anteroom/draft",
+      body: {
+        title: "Anteroom checks",
+        items: [{ text: "Doors close", severity: "major", response: "check", photoOnFail: false }],
+      },
+    }),
+    ok: 200,
+    allowed: ["administrator (network)"],
+  },
+  "POST /checklists/:zoneType/publish": {
+    async prepare(world) {
+      await checklistSaveDraft(
+        testApp().deps.db,
+        world.networkId,
+        "donning_zone",
+        {
+          title: "Donning",
+          items: [{ text: "Stock", severity: "major", response: "check", photoOnFail: false }],
+        },
+        { userId: null, requestId: null },
+      );
+      return { url: "/api/checklists/donning_zone/publish" };
+    },
+    ok: 200,
+    allowed: ["administrator (network)"],
+  },
+  "DELETE /checklists/:zoneType/draft": {
+    async prepare(world) {
+      await checklistSaveDraft(
+        testApp().deps.db,
+        world.networkId,
+        "isolation_room",
+        {
+          title: "Room",
+          items: [{ text: "Door", severity: "major", response: "check", photoOnFail: false }],
+        },
+        { userId: null, requestId: null },
+      );
+      return { url: "/api/checklists/isolation_room/draft" };
+    },
+    ok: 204,
+    allowed: ["administrator (network)"],
+  },
+  "PUT /audits/:auditId": {
+    prepare: async (w) => ({
+      url: `/api/audits/${crypto.randomUUID()}`,
+      body: { spaceId: (await spaceAtA(w)).id, startedAt: new Date().toISOString() },
+    }),
+    ok: 201,
+    allowed: auditors,
+    hidden: notAtA,
+  },
+  "GET /audits/:auditId": {
+    prepare: async (w, caller) => ({ url: `/api/audits/${(await auditAtA(w, caller)).auditId}` }),
+    ok: 200,
+    allowed: readers,
+    hidden: notAtA,
+  },
+  "PUT /audits/:auditId/answers/:itemId": {
+    async prepare(w, caller) {
+      const { auditId, itemId } = await auditAtA(w, caller);
+      return {
+        url: `/api/audits/${auditId}/answers/${itemId}`,
+        body: { id: crypto.randomUUID(), outcome: "pass" },
+      };
+    },
+    ok: 200,
+    allowed: auditors,
+    hidden: notAtA,
+  },
+  "POST /audits/:auditId/photos": {
+    async prepare(w, caller) {
+      const { auditId, itemId } = await auditAtA(w, caller);
+      return {
+        url: `/api/audits/${auditId}/photos`,
+        file: { field: "photo", content: w.planPng, name: "p.png" },
+        fields: { id: crypto.randomUUID(), itemId },
+      };
+    },
+    ok: 201,
+    allowed: auditors,
+    hidden: notAtA,
+  },
+  "POST /audits/:auditId/submit": {
+    // Already submitted: the answer is the same audit again, which every auditor of the site gets.
+    prepare: async (w, caller) => ({
+      url: `/api/audits/${(await auditAtA(w, caller, "submitted")).auditId}/submit`,
+    }),
+    ok: 200,
+    allowed: auditors,
+    hidden: notAtA,
+  },
+  "GET /spaces/:spaceId/audits": {
+    prepare: async (w) => ({ url: `/api/spaces/${(await spaceAtA(w)).id}/audits` }),
+    ok: 200,
+    allowed: readers,
+    hidden: notAtA,
+  },
+  "PATCH /spaces/:spaceId/cadence": {
+    prepare: async (w) => ({
+      url: `/api/spaces/${(await spaceAtA(w)).id}/cadence`,
+      body: { cadenceDays: 14 },
+    }),
+    ok: 200,
+    allowed: admins,
+    hidden: notAtA,
+  },
+  "GET /sites/:siteId/schedule": {
+    prepare: (w) => ({ url: `/api/sites/${w.siteA}/schedule` }),
+    ok: 200,
+    allowed: readers,
+    hidden: notAtA,
+  },
   "GET /sites/:siteId/floors": {
     prepare: (w) => ({ url: `/api/sites/${w.siteA}/floors` }),
     ok: 200,
@@ -487,6 +656,7 @@ describe("role matrix: every registered route, as every role, another site's mem
       }));
       userIds[caller] = (await signInAs(network.id, grants)).user.id;
     }
+    world.auditorA = userIds["auditor @A"];
   });
   afterAll(async () => {
     await matrixApp.database.close();
@@ -505,10 +675,13 @@ describe("role matrix: every registered route, as every role, another site's mem
       if (!sample) return;
       const call = async (caller: Caller | null) => {
         const userId = caller ? userIds[caller] : null;
-        const { url, body, file } = await sample.prepare(world, { userId });
+        const { url, body, file, fields } = await sample.prepare(world, { userId });
         const cookie = userId ? await sessionCookieFor(userId) : undefined;
         const request = api(matrixApp.app, { cookie }).request(route.method, url);
-        if (file) return request.attach(file.field, file.content, file.name);
+        if (file) {
+          for (const [name, value] of Object.entries(fields ?? {})) request.field(name, value);
+          return request.attach(file.field, file.content, file.name);
+        }
         return body ? request.send(body) : request;
       };
 

@@ -9,3 +9,5 @@ export * from "./outbox";
 export * from "./user-tokens";
 export * from "./floors";
 export * from "./images";
+export * from "./audits";
+export * from "./checklists";

@@ -1,0 +1,166 @@
+import { z } from "zod";
+
+import type { Permission } from "@shared/permissions";
+import {
+  answerBodySchema,
+  auditItemParamsSchema,
+  auditParamsSchema,
+  cadenceBodySchema,
+  startAuditBodySchema,
+} from "@shared/schemas/audits";
+import { uuidSchema } from "@shared/schemas/common";
+import { spaceParamsSchema } from "@shared/schemas/floors";
+import { siteParamsSchema } from "@shared/schemas/site";
+
+import { readUpload } from "../../lib/images";
+import { parseInput } from "../../middleware/validate";
+import { defineRoute, type Access } from "../../lib/routes";
+import { siteIdIfExists } from "../sites/sites.service";
+import * as audits from "./audits.service";
+
+const inNetwork = (
+  siteId: string | null,
+  deps: Parameters<Extract<Access, { kind: "site" }>["siteOf"]>[1],
+  networkId: string,
+) => (siteId ? siteIdIfExists(deps.db, networkId, siteId) : Promise.resolve(null));
+
+const viaAudit = (permission: Permission): Access => ({
+  kind: "site",
+  permission,
+  siteOf: async (params, deps, user) =>
+    inNetwork(await audits.siteOfAudit(deps.db, params.auditId!), deps, user.networkId),
+});
+
+const viaSpace = (permission: Permission): Access => ({
+  kind: "site",
+  permission,
+  siteOf: async (params, deps, user) =>
+    inNetwork(await audits.siteOfSpace(deps.db, params.spaceId!), deps, user.networkId),
+});
+
+const photoFieldsSchema = z.strictObject({
+  id: uuidSchema,
+  itemId: uuidSchema.nullable().optional(),
+});
+
+export const auditRoutes = [
+  defineRoute({
+    method: "put",
+    path: "/audits/:auditId",
+    summary: "Start (or resume) an audit of a space with an id made by the device",
+    access: {
+      kind: "site",
+      permission: "conduct:audit:site",
+      async siteOf(params, deps, user, req) {
+        // An audit that exists belongs where it is; a new one belongs where its space is.
+        const existing = await audits.siteOfAudit(deps.db, params.auditId!);
+        if (existing) return inNetwork(existing, deps, user.networkId);
+        const spaceId = uuidSchema.safeParse(
+          (req.body as { spaceId?: unknown } | undefined)?.spaceId,
+        );
+        return spaceId.success
+          ? inNetwork(await audits.siteOfSpace(deps.db, spaceId.data), deps, user.networkId)
+          : null;
+      },
+    },
+    params: auditParamsSchema,
+    body: startAuditBodySchema,
+    async handle({ res, deps, auth, params, body }) {
+      const { created, detail } = await audits.startAudit(deps, auth!, params.auditId, body);
+      res.status(created ? 201 : 200).json(detail);
+    },
+  }),
+  defineRoute({
+    method: "get",
+    path: "/audits/:auditId",
+    summary: "An audit with its checklist, answers and photos",
+    access: viaAudit("read:site:site"),
+    params: auditParamsSchema,
+    async handle({ res, deps, params }) {
+      res.json(await audits.auditDetail(deps.db, params.auditId));
+    },
+  }),
+  defineRoute({
+    method: "put",
+    path: "/audits/:auditId/answers/:itemId",
+    summary: "Answer one checklist item (idempotent)",
+    access: viaAudit("conduct:audit:site"),
+    params: auditItemParamsSchema,
+    body: answerBodySchema,
+    async handle({ res, deps, auth, params, body }) {
+      res.json({
+        answer: await audits.saveAnswer(deps, auth!, params.auditId, params.itemId, body),
+      });
+    },
+  }),
+  defineRoute({
+    method: "post",
+    path: "/audits/:auditId/photos",
+    summary: "Add a photo to an audit (multipart: photo, id, itemId)",
+    access: viaAudit("conduct:audit:site"),
+    params: auditParamsSchema,
+    async handle({ req, res, deps, auth, params }) {
+      const buffer = await readUpload(req, res, "photo");
+      const fields = parseInput(photoFieldsSchema, { ...req.body }, "body");
+      const { created, photo } = await audits.addPhoto(deps, auth!, params.auditId, {
+        id: fields.id,
+        itemId: fields.itemId ?? null,
+        buffer,
+      });
+      res.status(created ? 201 : 200).json({ photo });
+    },
+  }),
+  defineRoute({
+    method: "post",
+    path: "/audits/:auditId/submit",
+    summary: "Submit a complete audit; the verdict and score are decided here",
+    access: viaAudit("conduct:audit:site"),
+    params: auditParamsSchema,
+    async handle({ res, deps, auth, params, requestId }) {
+      res.json(await audits.submitAudit(deps, auth!, params.auditId, requestId));
+    },
+  }),
+  defineRoute({
+    method: "get",
+    path: "/spaces/:spaceId/audits",
+    summary: "The audits of a space, newest first",
+    access: viaSpace("read:site:site"),
+    params: spaceParamsSchema,
+    async handle({ res, deps, auth, params }) {
+      res.json({ audits: await audits.auditsOfSpace(deps.db, params.spaceId, auth!.user.id) });
+    },
+  }),
+  defineRoute({
+    method: "patch",
+    path: "/spaces/:spaceId/cadence",
+    summary: "How often a space is audited",
+    access: viaSpace("update:site:site"),
+    params: spaceParamsSchema,
+    body: cadenceBodySchema,
+    async handle({ res, deps, auth, params, body, siteId, requestId }) {
+      res.json(
+        await audits.setCadence(
+          deps.db,
+          params.spaceId,
+          body.cadenceDays,
+          { userId: auth!.user.id, requestId },
+          siteId!,
+        ),
+      );
+    },
+  }),
+  defineRoute({
+    method: "get",
+    path: "/sites/:siteId/schedule",
+    summary: "What is due and overdue at a site",
+    access: {
+      kind: "site",
+      permission: "read:site:site",
+      siteOf: (params, deps, user) => siteIdIfExists(deps.db, user.networkId, params.siteId!),
+    },
+    params: siteParamsSchema,
+    async handle({ res, deps, params }) {
+      res.json({ entries: await audits.siteSchedule(deps.db, params.siteId) });
+    },
+  }),
+];

@@ -1,0 +1,118 @@
+import { z } from "zod";
+
+import { verdicts } from "../calc/verdict";
+import { zoneTypes } from "../zones";
+import { checklistItemSchema } from "./checklists";
+import { numberInput, text, uuidSchema } from "./common";
+
+/** Units an auditor may enter a reading in; the server stores SI (Pa, m³/h). */
+export const readingUnits = ["Pa", "inH2O", "m3/h", "cfm", "percent", "ach", "min"] as const;
+export type ReadingUnit = (typeof readingUnits)[number];
+
+export const outcomes = ["pass", "fail", "not_applicable"] as const;
+
+export const auditParamsSchema = z.strictObject({ auditId: uuidSchema });
+export const auditItemParamsSchema = z.strictObject({ auditId: uuidSchema, itemId: uuidSchema });
+
+/** Starting (or resuming) an audit: the id is made by the device, so a retried request is harmless. */
+export const startAuditBodySchema = z.strictObject({
+  spaceId: uuidSchema,
+  startedAt: z.iso.datetime({ offset: true, message: "A date and time with its offset." }),
+});
+
+export const answerBodySchema = z.strictObject({
+  /** Made by the device; the same answer sent twice is stored once. */
+  id: uuidSchema,
+  outcome: z.enum(outcomes, { message: "Choose pass, fail or not applicable." }).nullable(),
+  value: numberInput().nullable().optional(),
+  unit: z.enum(readingUnits, { message: "Unknown unit." }).nullable().optional(),
+  count: numberInput()
+    .int({ message: "A whole number." })
+    .min(0, { message: "Zero or more." })
+    .max(10_000)
+    .nullable()
+    .optional(),
+  choice: text().max(40).nullable().optional(),
+  note: text().trim().max(2000, { message: "At most 2000 characters." }).nullable().optional(),
+});
+export type AnswerBody = z.infer<typeof answerBodySchema>;
+
+export const answerSchema = z.object({
+  id: uuidSchema,
+  itemId: uuidSchema,
+  outcome: z.enum(outcomes).nullable(),
+  /** SI value: Pa, m³/h, percent, air changes per hour, minutes. */
+  value: z.number().nullable(),
+  /** The unit the auditor entered, to show the value the same way. */
+  unit: z.enum(readingUnits).nullable(),
+  count: z.number().nullable(),
+  choice: z.string().nullable(),
+  note: z.string().nullable(),
+});
+export type Answer = z.infer<typeof answerSchema>;
+
+export const auditPhotoSchema = z.object({
+  id: uuidSchema,
+  itemId: uuidSchema.nullable(),
+  imageId: uuidSchema,
+});
+
+export const auditSchema = z.object({
+  id: uuidSchema,
+  siteId: uuidSchema,
+  spaceId: uuidSchema,
+  spaceName: z.string(),
+  zoneType: z.enum(zoneTypes),
+  checklistVersionId: uuidSchema,
+  checklistVersion: z.number().int(),
+  auditorId: uuidSchema,
+  auditorName: z.string(),
+  status: z.enum(["draft", "submitted"]),
+  startedAt: z.string(),
+  submittedAt: z.string().nullable(),
+  verdict: z.enum(verdicts).nullable(),
+  /** Weighted pass rate in [0, 1]. */
+  score: z.number().nullable(),
+});
+export type Audit = z.infer<typeof auditSchema>;
+
+export const auditDetailSchema = z.object({
+  audit: auditSchema,
+  items: z.array(checklistItemSchema),
+  answers: z.array(answerSchema),
+  photos: z.array(auditPhotoSchema),
+  /** For isolation rooms: what the ventilation readings are judged against. */
+  room: z
+    .object({
+      volumeM3: z.number().nullable(),
+      constructionClass: z.enum(["new_or_renovated", "existing"]).nullable(),
+      minimumAirChanges: z.number().nullable(),
+    })
+    .nullable(),
+});
+export type AuditDetail = z.infer<typeof auditDetailSchema>;
+
+export const auditListResponseSchema = z.object({ audits: z.array(auditSchema) });
+
+export const scheduleEntrySchema = z.object({
+  spaceId: uuidSchema,
+  spaceName: z.string(),
+  zoneType: z.enum(zoneTypes),
+  floorId: uuidSchema,
+  floorName: z.string(),
+  cadenceDays: z.number().int(),
+  lastAuditAt: z.string().nullable(),
+  dueAt: z.string(),
+  state: z.enum(["overdue", "due_soon", "ok"]),
+  verdict: z.enum(verdicts).nullable(),
+  lastAuditorName: z.string().nullable(),
+});
+export type ScheduleEntry = z.infer<typeof scheduleEntrySchema>;
+export const scheduleResponseSchema = z.object({ entries: z.array(scheduleEntrySchema) });
+
+export const cadenceBodySchema = z.strictObject({
+  cadenceDays: numberInput()
+    .int({ message: "A whole number of days." })
+    .min(1, { message: "At least 1 day." })
+    .max(366, { message: "At most 366 days." }),
+});
