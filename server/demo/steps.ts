@@ -5,6 +5,7 @@ import type { ConstructionClass } from "@shared/zones";
 import { hashPassword } from "../auth/password";
 import { networks, roleGrants, sites, users } from "../db/schema/index";
 import { recordChange } from "../lib/change-log";
+import { createDemoAuditHistory } from "./audit-history";
 import { createDemoFloor, type DemoFloorPlan } from "./floor-plans";
 import { demoNetworkName, demoPassword, demoPeople, demoSites, type DemoSiteKey } from "./people";
 import type { DemoStep } from "./run-demo-steps";
@@ -151,5 +152,28 @@ const floorPlans: DemoStep = {
   },
 };
 
+const auditHistory: DemoStep = {
+  id: "2026-12-02-audit-history",
+  description: "default checklists and about a year of audits at every demo space",
+  async run(tx) {
+    const [network] = await tx
+      .select({ id: networks.id })
+      .from(networks)
+      .where(eq(networks.name, demoNetworkName));
+    if (!network) return;
+    const siteRows = await tx
+      .select({ id: sites.id, name: sites.name })
+      .from(sites)
+      .where(eq(sites.networkId, network.id));
+    const siteIds = Object.fromEntries(
+      (Object.keys(demoSites) as DemoSiteKey[]).map((key) => [
+        key,
+        siteRows.find((row) => row.name === demoSites[key].name)?.id,
+      ]),
+    ) as Record<DemoSiteKey, string>;
+    await createDemoAuditHistory(tx, network.id, siteIds);
+  },
+};
+
 /** In release order; append new steps, never reorder or rename released ones. */
-export const demoStepList: DemoStep[] = [networkSitesPeople, floorPlans];
+export const demoStepList: DemoStep[] = [networkSitesPeople, floorPlans, auditHistory];

@@ -1,7 +1,14 @@
-import { count, eq, inArray } from "drizzle-orm";
+import { count, eq, inArray, min } from "drizzle-orm";
 import { describe, expect, it } from "vitest";
 
-import { demoSteps, networks, roleGrants, users } from "../../server/db/schema/index";
+import {
+  audits,
+  demoSteps,
+  networks,
+  roleGrants,
+  sites,
+  users,
+} from "../../server/db/schema/index";
 import { demoPassword, demoPeople } from "../../server/demo/people";
 import { runDemoSteps, type DemoStep } from "../../server/demo/run-demo-steps";
 import { demoStepList } from "../../server/demo/steps";
@@ -95,5 +102,36 @@ describe("demo data", () => {
     expect(sites.body.sites.map((s: { name: string }) => s.name)).toEqual([
       "Orchard Hill Community Hospital",
     ]);
+  });
+
+  it("when the demo history is loaded, then each site has about a year of audits with every verdict", async () => {
+    const { db, logger, storage } = testApp().deps;
+    await runDemoSteps(db, logger, demoStepList, { storage });
+    const rows = await db
+      .select({
+        site: sites.name,
+        verdict: audits.verdict,
+        n: count(),
+        first: min(audits.submittedAt),
+      })
+      .from(audits)
+      .innerJoin(sites, eq(sites.id, audits.siteId))
+      .innerJoin(networks, eq(networks.id, sites.networkId))
+      .where(eq(networks.name, "Tamsin Bay Health"))
+      .groupBy(sites.name, audits.verdict);
+    for (const site of [
+      "Tamsin Bay General Hospital",
+      "Orchard Hill Community Hospital",
+      "Wexley Rehabilitation Centre",
+    ]) {
+      const mine = rows.filter((row) => row.site === site);
+      expect(mine.map((row) => row.verdict).sort(), site).toEqual([
+        "not_ready",
+        "ready",
+        "ready_with_conditions",
+      ]);
+      const earliest = Math.min(...mine.map((row) => row.first!.getTime()));
+      expect(Date.now() - earliest, site).toBeGreaterThan(300 * 24 * 60 * 60 * 1000);
+    }
   });
 });
