@@ -116,3 +116,15 @@ export const cadenceBodySchema = z.strictObject({
     .min(1, { message: "At least 1 day." })
     .max(366, { message: "At most 366 days." }),
 });
+
+/** A logged correction of a submitted audit by an administrator; the verdict is decided again. */
+export const amendmentBodySchema = z.strictObject({
+  itemId: uuidSchema,
+  outcome: z.enum(outcomes, { message: "Choose pass, fail or not applicable." }),
+  note: text().trim().max(2000, { message: "At most 2000 characters." }).nullable().optional(),
+  reason: text()
+    .trim()
+    .min(5, { message: "Say why, in a few words." })
+    .max(500, { message: "At most 500 characters." }),
+});
+export type AmendmentBody = z.infer<typeof amendmentBodySchema>;

@@ -1,9 +1,9 @@
-import { count, eq } from "drizzle-orm";
+import { and, count, eq } from "drizzle-orm";
 import { beforeAll, describe, expect, it } from "vitest";
 
 import type { AuditDetail } from "@shared/schemas/audits";
 
-import { auditAnswers, auditPhotos, audits, spaces } from "../../server/db/schema/index";
+import { auditAnswers, auditPhotos, audits, changeLog, spaces } from "../../server/db/schema/index";
 import { jpegWithGps } from "../factories/images";
 import { insertNetwork, insertSite } from "../factories/records";
 import { api, testApp } from "../helpers/app";
@@ -311,5 +311,42 @@ describe("audits", () => {
     expect(history.body.audits.map((a: { id: string }) => a.id)).toEqual([auditId]);
     const [space] = await testApp().deps.db.select().from(spaces).where(eq(spaces.id, spaceId));
     expect(space).toBeTruthy();
+  });
+
+  it("when an administrator amends a submitted audit with a reason, then the verdict is decided again and the change is logged", async () => {
+    const { auditId, detail } = await start(await newSpace("doffing_area"));
+    const prompt = item(detail, "Prompt for hand hygiene");
+    await answerAll(detail, {
+      [prompt.id]: { outcome: "fail", note: "No prompt by the exit" },
+    });
+    const failedAgain = await as(auditor).post(`/api/audits/${auditId}/submit`);
+    expect(failedAgain.body.audit.verdict).toBe("ready_with_conditions");
+
+    const byAuditor = await as(auditor)
+      .post(`/api/audits/${auditId}/amendments`)
+      .send({ itemId: prompt.id, outcome: "pass", reason: "Poster was there" });
+    expect(byAuditor.status).toBe(403);
+    const noReason = await as(admin)
+      .post(`/api/audits/${auditId}/amendments`)
+      .send({ itemId: prompt.id, outcome: "pass" });
+    expect(noReason.status).toBe(400);
+    expect(noReason.body.error.fields).toHaveProperty("reason");
+
+    const amended = await as(admin).post(`/api/audits/${auditId}/amendments`).send({
+      itemId: prompt.id,
+      outcome: "pass",
+      reason: "The prompt is on the door; the auditor missed it",
+    });
+    expect(amended.status).toBe(200);
+    expect(amended.body.audit.verdict).toBe("ready");
+    const [entry] = await testApp()
+      .deps.db.select()
+      .from(changeLog)
+      .where(and(eq(changeLog.entityId, auditId), eq(changeLog.action, "audit.amended")));
+    expect(entry).toMatchObject({
+      actorId: admin.user.id,
+      reason: "The prompt is on the door; the auditor missed it",
+    });
+    expect(entry!.before).toMatchObject({ outcome: "fail", verdict: "ready_with_conditions" });
   });
 });

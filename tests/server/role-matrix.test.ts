@@ -9,6 +9,7 @@ import type { Role } from "@shared/roles";
 
 import { hashPassword } from "../../server/auth/password";
 import {
+  auditAnswers,
   audits,
   checklistItems,
   checklistVersions,
@@ -287,6 +288,21 @@ const samples: Record<string, Sample> = {
     }),
     ok: 200,
     allowed: auditors,
+    hidden: notAtA,
+  },
+  "POST /audits/:auditId/amendments": {
+    async prepare(w, caller) {
+      const { auditId, itemId } = await auditAtA(w, caller, "submitted");
+      await testApp()
+        .deps.db.insert(auditAnswers)
+        .values({ id: crypto.randomUUID(), auditId, itemId, outcome: "fail" });
+      return {
+        url: `/api/audits/${auditId}/amendments`,
+        body: { itemId, outcome: "pass", reason: "Entered against the wrong item" },
+      };
+    },
+    ok: 200,
+    allowed: admins,
     hidden: notAtA,
   },
   "GET /spaces/:spaceId/audits": {

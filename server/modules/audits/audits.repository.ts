@@ -219,3 +219,25 @@ export async function setCadence(db: DbOrTx, spaceId: string, cadenceDays: numbe
       set: { cadenceDays, updatedAt: new Date() },
     });
 }
+
+export async function setAnswerOutcome(
+  db: DbOrTx,
+  auditId: string,
+  itemId: string,
+  outcome: Answer["outcome"],
+  note: string | null | undefined,
+) {
+  await db
+    .update(auditAnswers)
+    .set({ outcome, ...(note !== undefined ? { note } : {}), updatedAt: new Date() })
+    .where(and(eq(auditAnswers.auditId, auditId), eq(auditAnswers.itemId, itemId)));
+}
+
+export async function setVerdict(
+  db: DbOrTx,
+  auditId: string,
+  verdict: Audit["verdict"],
+  score: number | null,
+) {
+  await db.update(audits).set({ verdict, score }).where(eq(audits.id, auditId));
+}

@@ -2,6 +2,7 @@ import { z } from "zod";
 
 import type { Permission } from "@shared/permissions";
 import {
+  amendmentBodySchema,
   answerBodySchema,
   auditItemParamsSchema,
   auditParamsSchema,
@@ -118,6 +119,19 @@ export const auditRoutes = [
     params: auditParamsSchema,
     async handle({ res, deps, auth, params, requestId }) {
       res.json(await audits.submitAudit(deps, auth!, params.auditId, requestId));
+    },
+  }),
+  defineRoute({
+    method: "post",
+    path: "/audits/:auditId/amendments",
+    summary: "Correct one answer of a submitted audit, with a reason (administrators)",
+    access: viaAudit("update:site:site"),
+    params: auditParamsSchema,
+    body: amendmentBodySchema,
+    async handle({ res, deps, auth, params, body, requestId }) {
+      res.json(
+        await audits.amendAudit(deps, params.auditId, body, { userId: auth!.user.id, requestId }),
+      );
     },
   }),
   defineRoute({

@@ -4,7 +4,13 @@ import {
   inchesOfWaterToPascals,
   minimumAirChanges,
 } from "@shared/calc/ventilation";
-import type { AnswerBody, AuditDetail, ReadingUnit, ScheduleEntry } from "@shared/schemas/audits";
+import type {
+  AmendmentBody,
+  AnswerBody,
+  AuditDetail,
+  ReadingUnit,
+  ScheduleEntry,
+} from "@shared/schemas/audits";
 import type { ChecklistItem } from "@shared/schemas/checklists";
 import type { ZoneType } from "@shared/zones";
 
@@ -325,6 +331,70 @@ export async function submitAudit(
         after: { verdict, score },
       },
     );
+  });
+  return auditDetail(deps.db, auditId);
+}
+
+/**
+ * A submitted audit never changes silently: an administrator's correction is logged with its
+ * reason and the before and after, and the verdict and score are decided again.
+ */
+export async function amendAudit(
+  deps: AppDeps,
+  auditId: string,
+  body: AmendmentBody,
+  actor: Actor,
+): Promise<AuditDetail> {
+  const detail = await auditDetail(deps.db, auditId);
+  if (detail.audit.status !== "submitted") {
+    throw new AppError(
+      "conflict",
+      409,
+      "Only submitted audits are amended; the auditor can still change a draft.",
+    );
+  }
+  const before = detail.answers.find((answer) => answer.itemId === body.itemId);
+  if (!before) throw invalid("itemId", "That item has no answer in this audit.");
+  const item = detail.items.find((candidate) => candidate.id === body.itemId)!;
+  if (
+    body.outcome === "not_applicable" &&
+    item.severity === "critical" &&
+    !(body.note ?? before.note)
+  ) {
+    throw invalid("note", "Not applicable on a critical item needs a note saying why.");
+  }
+  await deps.db.transaction(async (tx) => {
+    await repo.lockAudit(tx, auditId);
+    await repo.setAnswerOutcome(tx, auditId, body.itemId, body.outcome, body.note);
+    const outcomes = detail.items.flatMap((candidate) => {
+      const outcome =
+        candidate.id === body.itemId
+          ? body.outcome
+          : detail.answers.find((answer) => answer.itemId === candidate.id)?.outcome;
+      return outcome ? [{ severity: candidate.severity, outcome }] : [];
+    });
+    const verdict = verdictOf(outcomes);
+    const score = scoreOf(outcomes);
+    await repo.setVerdict(tx, auditId, verdict, score);
+    await recordChange(tx, actor, {
+      action: "audit.amended",
+      entity: "audit",
+      entityId: auditId,
+      siteId: detail.audit.siteId,
+      before: {
+        itemId: body.itemId,
+        outcome: before.outcome,
+        note: before.note,
+        verdict: detail.audit.verdict,
+      },
+      after: {
+        itemId: body.itemId,
+        outcome: body.outcome,
+        note: body.note ?? before.note,
+        verdict,
+      },
+      reason: body.reason,
+    });
   });
   return auditDetail(deps.db, auditId);
 }
