@@ -2,7 +2,7 @@ import type { RoleGrant } from "@shared/roles";
 import { useMemo } from "react";
 
 import type { NavigationItem } from "@/components/layouts/navigation";
-import { AccountIcon, MailIcon, PeopleIcon, SitesIcon } from "@/components/ui/icons";
+import { AccountIcon, ChecklistIcon, MailIcon, PeopleIcon, SitesIcon } from "@/components/ui/icons";
 import { paths } from "@/config/paths";
 import { useAppConfig } from "@/features/admin/api/get-app-config";
 import { canAnywhere } from "@/lib/authorization";
@@ -14,13 +14,19 @@ export const navigationItems: readonly NavigationItem[] = [
     to: paths.home.getHref(),
     icon: <SitesIcon />,
     end: true,
-    alsoActiveOn: [paths.site.path],
+    alsoActiveOn: [paths.site.path, paths.spaceAudits.path],
   },
   {
     label: "People",
     to: paths.people.getHref(),
     icon: <PeopleIcon />,
     permission: "manage:people:site",
+  },
+  {
+    label: "Checklists",
+    to: paths.checklists.getHref(),
+    icon: <ChecklistIcon />,
+    permission: "manage:checklists:network",
   },
   {
     label: "Mailbox",

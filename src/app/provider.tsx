@@ -1,5 +1,7 @@
 import { type QueryClient, QueryClientProvider } from "@tanstack/react-query";
-import type { ReactNode } from "react";
+import { type ReactNode, useEffect } from "react";
+
+import { registerServiceWorker } from "@/lib/service-worker";
 
 export interface AppProviderProps {
   queryClient: QueryClient;
@@ -7,5 +9,8 @@ export interface AppProviderProps {
 }
 
 export function AppProvider({ queryClient, children }: AppProviderProps) {
+  useEffect(() => {
+    if (import.meta.env.PROD) registerServiceWorker();
+  }, []);
   return <QueryClientProvider client={queryClient}>{children}</QueryClientProvider>;
 }

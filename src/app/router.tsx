@@ -86,6 +86,39 @@ export function createRoutes(queryClient: QueryClient): RouteObject[] {
               },
             },
             {
+              path: paths.siteDue.path,
+              errorElement: <RouteError />,
+              lazy: async () => {
+                const { SiteDueRoute, siteDueLoader } = await import("./routes/site-due");
+                return { Component: SiteDueRoute, loader: siteDueLoader(queryClient) };
+              },
+            },
+            {
+              path: paths.qrSheet.path,
+              errorElement: <RouteError />,
+              lazy: async () => {
+                const { QrSheetRoute, qrSheetLoader } = await import("./routes/qr-sheet");
+                return { Component: QrSheetRoute, loader: qrSheetLoader(queryClient) };
+              },
+            },
+            {
+              path: paths.spaceAudits.path,
+              errorElement: <RouteError />,
+              lazy: async () => {
+                const { SpaceAuditsRoute, spaceAuditsLoader } =
+                  await import("./routes/space-audits");
+                return { Component: SpaceAuditsRoute, loader: spaceAuditsLoader(queryClient) };
+              },
+            },
+            {
+              path: paths.checklists.path,
+              errorElement: <RouteError />,
+              lazy: async () => {
+                const { ChecklistsRoute, checklistsLoader } = await import("./routes/checklists");
+                return { Component: ChecklistsRoute, loader: checklistsLoader(queryClient) };
+              },
+            },
+            {
               path: paths.floor.path,
               errorElement: <RouteError />,
               lazy: async () => {
@@ -132,6 +165,32 @@ export function createRoutes(queryClient: QueryClient): RouteObject[] {
               lazy: async () => {
                 const { MailboxRoute, mailboxLoader } = await import("./routes/mailbox");
                 return { Component: MailboxRoute, loader: mailboxLoader(queryClient) };
+              },
+            },
+          ],
+        },
+        {
+          // Audits open from the phone's own store, so this frame does not insist on the network.
+          errorElement: <RouteError standalone />,
+          lazy: async () => {
+            const { AuditLayout, auditLayoutLoader } = await import("./routes/audit-layout");
+            return { Component: AuditLayout, loader: auditLayoutLoader(queryClient) };
+          },
+          children: [
+            {
+              path: paths.audit.path,
+              errorElement: <RouteError />,
+              lazy: async () => {
+                const { AuditRoute } = await import("./routes/audit");
+                return { Component: AuditRoute };
+              },
+            },
+            {
+              path: paths.startAudit.path,
+              errorElement: <RouteError />,
+              lazy: async () => {
+                const { StartAuditRoute } = await import("./routes/start-audit");
+                return { Component: StartAuditRoute };
               },
             },
           ],

@@ -28,6 +28,30 @@ export const paths = {
     getHref: (siteId: string, floorId: string) =>
       `/sites/${encodeURIComponent(siteId)}/floors/${encodeURIComponent(floorId)}`,
   },
+  siteDue: {
+    path: "/sites/:siteId/due",
+    getHref: (siteId: string) => `/sites/${encodeURIComponent(siteId)}/due`,
+  },
+  qrSheet: {
+    path: "/sites/:siteId/qr-sheet",
+    getHref: (siteId: string) => `/sites/${encodeURIComponent(siteId)}/qr-sheet`,
+  },
+  startAudit: {
+    path: "/spaces/:spaceId/audit",
+    getHref: (spaceId: string) => `/spaces/${encodeURIComponent(spaceId)}/audit`,
+  },
+  spaceAudits: {
+    path: "/spaces/:spaceId/audits",
+    getHref: (spaceId: string) => `/spaces/${encodeURIComponent(spaceId)}/audits`,
+  },
+  audit: {
+    path: "/audits/:auditId",
+    getHref: (auditId: string) => `/audits/${encodeURIComponent(auditId)}`,
+  },
+  checklists: {
+    path: "/admin/checklists",
+    getHref: () => "/admin/checklists",
+  },
   account: {
     path: "/account",
     getHref: () => "/account",

@@ -115,6 +115,27 @@ describe("a floor with a plan", () => {
     expect(check.textContent).toContain("cannot be checked until the scale of this floor is set");
   });
 
+  it("when an auditor reads the list, then each space offers Start audit and its audit history", async () => {
+    stubFloor(auditor, detail);
+    renderApp(floorUrl);
+
+    const list = await screen.findByRole("region", { name: "Spaces" });
+    const starts = within(list).getAllByRole("link", { name: "Start audit" });
+    expect(starts.map((link) => link.getAttribute("href")).sort()).toEqual(
+      [doffing, room, corridorBay].map((space) => `/spaces/${space.id}/audit`).sort(),
+    );
+    expect(within(list).getAllByRole("link", { name: "Audit history" })).toHaveLength(3);
+  });
+
+  it("when an administrator reads the list, then there is no Start audit: auditors audit", async () => {
+    stubFloor(administrator, detail);
+    renderApp(floorUrl);
+
+    const list = await screen.findByRole("region", { name: "Spaces" });
+    expect(within(list).queryByRole("link", { name: "Start audit" })).toBeNull();
+    expect(within(list).getAllByRole("link", { name: "Audit history" })).toHaveLength(3);
+  });
+
   it("when the list is read, then spaces are grouped by suite with zone type, area and fixtures", async () => {
     stubFloor(auditor, detail);
     renderApp(floorUrl);

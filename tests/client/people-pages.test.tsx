@@ -58,7 +58,7 @@ describe("who sees people and the mailbox", () => {
 
     await screen.findByRole("heading", { level: 1, name: "My sites" });
     await vi.waitFor(() =>
-      expect(navigationLinks()).toEqual(["Sites", "People", "Mailbox", "Account"]),
+      expect(navigationLinks()).toEqual(["Sites", "People", "Checklists", "Mailbox", "Account"]),
     );
     expect(screen.getByRole("link", { name: "People" }).getAttribute("href")).toBe("/admin/people");
   });
@@ -68,7 +68,9 @@ describe("who sees people and the mailbox", () => {
     renderApp("/");
 
     await screen.findByRole("heading", { level: 1, name: "My sites" });
-    await vi.waitFor(() => expect(navigationLinks()).toEqual(["Sites", "People", "Account"]));
+    await vi.waitFor(() =>
+      expect(navigationLinks()).toEqual(["Sites", "People", "Checklists", "Account"]),
+    );
   });
 
   it("when an auditor opens the people page directly, then it is not available and nothing is asked of the server", async () => {

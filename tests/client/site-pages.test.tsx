@@ -26,6 +26,7 @@ function signedInAs(me: typeof administrator) {
     "GET /api/sites": sites,
     [`GET /api/sites/${tamsinGeneral.id}`]: () => jsonResponse({ site: tamsinGeneral }),
     [`GET /api/sites/${tamsinGeneral.id}/floors`]: () => jsonResponse({ floors: [buildFloor()] }),
+    [`GET /api/sites/${tamsinGeneral.id}/schedule`]: () => jsonResponse({ entries: [] }),
   };
 }
 
@@ -87,6 +88,7 @@ describe("adding a site", () => {
       "POST /api/sites": () => jsonResponse({ site: created }, 201),
       [`GET /api/sites/${created.id}`]: () => jsonResponse({ site: created }),
       [`GET /api/sites/${created.id}/floors`]: () => jsonResponse({ floors: [] }),
+      [`GET /api/sites/${created.id}/schedule`]: () => jsonResponse({ entries: [] }),
     });
     const { user, router } = renderApp("/sites/new");
 

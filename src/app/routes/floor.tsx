@@ -1,10 +1,10 @@
 import { floorParamsSchema } from "@shared/schemas/floors";
 import { siteParamsSchema } from "@shared/schemas/site";
 import type { QueryClient } from "@tanstack/react-query";
-import { type LoaderFunctionArgs, useParams } from "react-router-dom";
+import { Link, type LoaderFunctionArgs, useParams } from "react-router-dom";
 
 import { Alert } from "@/components/ui/alert";
-import { Button } from "@/components/ui/button";
+import { Button, buttonStyles } from "@/components/ui/button";
 import { CautionNote } from "@/components/ui/caution-note";
 import { EmptyState } from "@/components/ui/empty-state";
 import { Spinner } from "@/components/ui/spinner";
@@ -76,6 +76,7 @@ function FloorPage({ siteId, floorId }: { siteId: string; floorId: string }) {
 
   const { name, building, level } = floor.data.floor;
   const siteName = site.data?.name;
+  const mayAudit = can("conduct:audit:site", siteId);
   return (
     <>
       <title>{`${name} · ${siteName ?? "Floor"} · Lintel`}</title>
@@ -87,7 +88,28 @@ function FloorPage({ siteId, floorId }: { siteId: string; floorId: string }) {
         {building} · Level {level}
       </p>
       <div className="flex flex-col gap-6">
-        <FloorPlanView detail={floor.data} canEdit={can("update:site:site", siteId)} />
+        <FloorPlanView
+          detail={floor.data}
+          canEdit={can("update:site:site", siteId)}
+          spaceActions={(space) => (
+            <>
+              {mayAudit ? (
+                <Link
+                  to={paths.startAudit.getHref(space.id)}
+                  className={buttonStyles({ className: "px-3 py-1.5" })}
+                >
+                  Start audit
+                </Link>
+              ) : null}
+              <Link
+                to={paths.spaceAudits.getHref(space.id)}
+                className={buttonStyles({ variant: "quiet", className: "px-3" })}
+              >
+                Audit history
+              </Link>
+            </>
+          )}
+        />
         <CautionNote />
       </div>
     </>

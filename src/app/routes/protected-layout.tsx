@@ -1,5 +1,6 @@
 import type { MeResponse } from "@shared/schemas/auth";
 import type { QueryClient } from "@tanstack/react-query";
+import { lazy, Suspense } from "react";
 import { type LoaderFunctionArgs, Outlet, redirect, useOutletContext } from "react-router-dom";
 
 import { AppShell } from "@/components/layouts/app-shell";
@@ -8,8 +9,16 @@ import { paths } from "@/config/paths";
 import { useMe } from "@/features/auth/api/get-me";
 import { AuthorizationProvider } from "@/lib/authorization";
 
+import { useAuditSyncInBackground } from "../background-sync";
 import { useNavigationItems } from "../navigation-items";
 import { isSignedIn } from "../session";
+
+// Loaded apart from the first screen: most pages never need the audit store.
+const SyncStatusNote = lazy(() =>
+  import("@/features/walkthroughs/components/sync-status").then((module) => ({
+    default: module.SyncStatusNote,
+  })),
+);
 
 function pathOf(url: { pathname: string; search: string }): string {
   return `${url.pathname}${url.search}`;
@@ -26,6 +35,7 @@ export function protectedLoader(queryClient: QueryClient) {
 
 function SignedInFrame({ me }: { me: MeResponse }) {
   const navigationItems = useNavigationItems(me.roles);
+  useAuditSyncInBackground();
   return (
     <AuthorizationProvider grants={me.roles}>
       <AppShell
@@ -33,6 +43,9 @@ function SignedInFrame({ me }: { me: MeResponse }) {
         homeHref={paths.home.getHref()}
         personName={me.user.name}
       >
+        <Suspense fallback={null}>
+          <SyncStatusNote quietWhenSaved className="mb-4 print:hidden" />
+        </Suspense>
         <Outlet context={me} />
       </AppShell>
     </AuthorizationProvider>

@@ -15,6 +15,8 @@ import { floorsQueryOptions } from "@/features/floor-plans/api/get-floors";
 import { FloorsSection } from "@/features/floor-plans/components/floors-section";
 import { siteQueryOptions, useSite } from "@/features/sites/api/get-site";
 import { SiteDetails } from "@/features/sites/components/site-details";
+import { siteScheduleQueryOptions } from "@/features/walkthroughs/api/get-site-schedule";
+import { DueSection } from "@/features/walkthroughs/components/due-list";
 import { isApiError } from "@/lib/api-client";
 import { useAuthorization } from "@/lib/authorization";
 
@@ -27,16 +29,13 @@ export function siteLoader(queryClient: QueryClient) {
     if (parsed.success && (await isSignedIn(queryClient))) {
       void queryClient.prefetchQuery(siteQueryOptions(parsed.data.siteId));
       void queryClient.prefetchQuery(floorsQueryOptions(parsed.data.siteId));
+      void queryClient.prefetchQuery(siteScheduleQueryOptions(parsed.data.siteId));
     }
     return null;
   };
 }
 
 const upcoming = [
-  {
-    title: "Walkthroughs",
-    text: "The readiness checklist on your phone, space by space, with readings and photos of anything that needs attention.",
-  },
   {
     title: "Corrective actions",
     text: "Every gap becomes an action with an owner and a due time, followed until an auditor verifies the fix.",
@@ -109,6 +108,24 @@ function SiteOverview({ siteId }: { siteId: string }) {
       </div>
 
       <div className="mt-6 flex flex-col gap-6">
+        <DueSection
+          siteId={siteId}
+          canStart={can("conduct:audit:site", siteId)}
+          allHref={paths.siteDue.getHref(siteId)}
+          startHref={paths.startAudit.getHref}
+          historyHref={paths.spaceAudits.getHref}
+          actions={
+            canEdit ? (
+              <TextLink
+                to={paths.qrSheet.getHref(siteId)}
+                className="inline-flex min-h-tap items-center"
+              >
+                Print QR codes
+              </TextLink>
+            ) : null
+          }
+        />
+
         <SiteDetails site={site.data} />
 
         <FloorsSection
@@ -120,10 +137,10 @@ function SiteOverview({ siteId }: { siteId: string }) {
         <Card className="bg-brand-50">
           <h2 className="text-lg font-semibold">Coming to this site</h2>
           <p className="mt-1 text-ink-muted">
-            Walkthroughs and corrective actions will gather here beside the floor plans, so
-            everything about this site&apos;s readiness lives in one place.
+            Corrective actions will gather here beside the audits and floor plans, so everything
+            about this site&apos;s readiness lives in one place.
           </p>
-          <ul className="mt-4 grid gap-4 md:grid-cols-2">
+          <ul className="mt-4 grid gap-4">
             {upcoming.map((item) => (
               <li key={item.title} className="rounded-lg bg-surface p-4">
                 <h3 className="font-semibold text-brand-800">{item.title}</h3>

@@ -31,10 +31,14 @@ export const signedOutReply: Reply = () =>
   errorResponse(401, "unauthenticated", "Please sign in to continue.");
 
 /**
- * Replaces `fetch` with replies keyed by "METHOD /path". A request nobody expected fails the
+ * Replaces `fetch` with replies keyed by "METHOD /path"; `fallback` answers paths made at run time
+ * (ids a device makes) and returns undefined for the rest. A request nobody expected fails the
  * test loudly rather than hanging.
  */
-export function stubApi(replies: Record<string, Reply>) {
+export function stubApi(
+  replies: Record<string, Reply>,
+  fallback?: (request: StubRequest) => Response | Promise<Response> | undefined,
+) {
   const calls: StubRequest[] = [];
   const fetchStub = vi.fn(async (input: RequestInfo | URL, init?: RequestInit) => {
     const url = new URL(String(input), "http://localhost");
@@ -48,8 +52,10 @@ export function stubApi(replies: Record<string, Reply>) {
     const request = { method, path: url.pathname, body };
     calls.push(request);
     const reply = replies[`${method} ${url.pathname}`];
-    if (!reply) throw new Error(`Unexpected request in test: ${method} ${url.pathname}`);
-    return reply(request);
+    if (reply) return reply(request);
+    const fallen = fallback?.(request);
+    if (!fallen) throw new Error(`Unexpected request in test: ${method} ${url.pathname}`);
+    return fallen;
   });
   vi.stubGlobal("fetch", fetchStub);
   return { calls, fetchStub };

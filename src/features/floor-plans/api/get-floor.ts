@@ -53,3 +53,14 @@ export function floorChanged(queryClient: QueryClient, floor: Floor): Promise<un
     queryClient.invalidateQueries({ queryKey: floorsQueryKey(floor.siteId) }),
   ]);
 }
+
+/** A space's name from any floor already loaded, or null. */
+export function cachedSpaceName(queryClient: QueryClient, spaceId: string): string | null {
+  for (const [, detail] of queryClient.getQueriesData<FloorDetail>({
+    queryKey: ["floors", "detail"],
+  })) {
+    const space = detail?.spaces.find((candidate) => candidate.id === spaceId);
+    if (space) return space.name;
+  }
+  return null;
+}

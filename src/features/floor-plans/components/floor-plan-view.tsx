@@ -1,4 +1,5 @@
-import type { FloorDetail } from "@shared/schemas/floors";
+import type { FloorDetail, Space } from "@shared/schemas/floors";
+import type { ReactNode } from "react";
 
 import { Card } from "@/components/ui/card";
 import { EmptyState } from "@/components/ui/empty-state";
@@ -10,10 +11,12 @@ export interface FloorPlanViewProps {
   detail: FloorDetail;
   /** May change this site's floors, spaces and fixtures. */
   canEdit: boolean;
+  /** Links or buttons the page adds to each space in the list (such as starting an audit). */
+  spaceActions?: (space: Space) => ReactNode;
 }
 
 /** The floor's plan with everything on it, or the way to get a plan there first. */
-export function FloorPlanView({ detail, canEdit }: FloorPlanViewProps) {
+export function FloorPlanView({ detail, canEdit, spaceActions }: FloorPlanViewProps) {
   const { floor } = detail;
 
   if (!floor.plan) {
@@ -39,7 +42,13 @@ export function FloorPlanView({ detail, canEdit }: FloorPlanViewProps) {
 
   return (
     <div className="flex flex-col gap-6">
-      <FloorWorkspace key={floor.id} detail={detail} plan={floor.plan} canEdit={canEdit} />
+      <FloorWorkspace
+        key={floor.id}
+        detail={detail}
+        plan={floor.plan}
+        canEdit={canEdit}
+        spaceActions={spaceActions}
+      />
       {canEdit ? (
         <Card>
           <h2 className="text-lg font-semibold">Plan image</h2>

@@ -2,7 +2,16 @@ import type { PlanPoint } from "@shared/calc/plan-geometry";
 import type { FloorDetail, Space } from "@shared/schemas/floors";
 import { fixtureKindLabels, fixtureKinds, type FixtureKind, type ZoneType } from "@shared/zones";
 import type { Map as LeafletMap } from "leaflet";
-import { lazy, Suspense, useCallback, useMemo, useReducer, useRef, useState } from "react";
+import {
+  lazy,
+  type ReactNode,
+  Suspense,
+  useCallback,
+  useMemo,
+  useReducer,
+  useRef,
+  useState,
+} from "react";
 
 import { Alert } from "@/components/ui/alert";
 import { Button } from "@/components/ui/button";
@@ -42,10 +51,12 @@ export interface FloorWorkspaceProps {
   detail: FloorDetail;
   plan: { imageId: string; width: number; height: number };
   canEdit: boolean;
+  /** Links or buttons the page adds to each space in the list (such as starting an audit). */
+  spaceActions?: (space: Space) => ReactNode;
 }
 
 /** The plan, its tools, the spacing check, the key and the list of spaces for one floor. */
-export function FloorWorkspace({ detail, plan, canEdit }: FloorWorkspaceProps) {
+export function FloorWorkspace({ detail, plan, canEdit, spaceActions }: FloorWorkspaceProps) {
   const { floor, suites, spaces, fixtures } = detail;
   const metresPerUnit = floor.metresPerUnit;
 
@@ -316,6 +327,7 @@ export function FloorWorkspace({ detail, plan, canEdit }: FloorWorkspaceProps) {
             flaggedFixtureIds={flagged}
             canEdit={canEdit}
             onShowSpace={showSpace}
+            spaceActions={spaceActions}
           />
         </div>
       </div>

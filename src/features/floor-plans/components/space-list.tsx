@@ -1,6 +1,6 @@
 import type { Fixture, Space, Suite } from "@shared/schemas/floors";
 import { fixtureKindLabels, zoneTypeLabels } from "@shared/zones";
-import { useId, useRef, useState } from "react";
+import { type ReactNode, useId, useRef, useState } from "react";
 
 import { Alert } from "@/components/ui/alert";
 import { Badge } from "@/components/ui/badge";
@@ -89,6 +89,7 @@ interface SpaceItemProps {
   flaggedFixtureIds: ReadonlySet<string>;
   canEdit: boolean;
   onShow: (spaceId: string) => void;
+  actions?: ReactNode;
 }
 
 function SpaceItem({
@@ -100,6 +101,7 @@ function SpaceItem({
   flaggedFixtureIds,
   canEdit,
   onShow,
+  actions,
 }: SpaceItemProps) {
   const remove = useDeleteSpace(floorId);
   const [confirming, setConfirming] = useState(false);
@@ -129,6 +131,7 @@ function SpaceItem({
           </span>
         </span>
       </button>
+      {actions ? <div className="mt-2 flex flex-wrap items-center gap-2">{actions}</div> : null}
       {fixtures.length > 0 ? (
         <ul aria-label={`Fixtures in ${title}`} className="mt-2 divide-y divide-surface-line">
           {fixtures.map((fixture) => (
@@ -194,6 +197,8 @@ export interface SpaceListProps {
   flaggedFixtureIds: ReadonlySet<string>;
   canEdit: boolean;
   onShowSpace: (spaceId: string) => void;
+  /** Links or buttons the page adds to each space (such as starting an audit). */
+  spaceActions?: (space: Space) => ReactNode;
 }
 
 /** Every space on the floor as text, grouped by suite: the way through without the map. */
@@ -208,6 +213,7 @@ export function SpaceList({
   flaggedFixtureIds,
   canEdit,
   onShowSpace,
+  spaceActions,
 }: SpaceListProps) {
   const headingId = useId();
   const groups = groupSpacesBySuite(spaces, suites);
@@ -248,6 +254,7 @@ export function SpaceList({
                 flaggedFixtureIds={flaggedFixtureIds}
                 canEdit={canEdit}
                 onShow={onShowSpace}
+                actions={spaceActions?.(space)}
               />
             ))}
           </ul>

@@ -1,0 +1,52 @@
+import { spaceParamsSchema } from "@shared/schemas/floors";
+import type { QueryClient } from "@tanstack/react-query";
+import { Link, type LoaderFunctionArgs, useParams } from "react-router-dom";
+
+import { buttonStyles } from "@/components/ui/button";
+import { TextLink } from "@/components/ui/text-link";
+import { paths } from "@/config/paths";
+import { spaceAuditsQueryOptions } from "@/features/walkthroughs/api/get-space-audits";
+import { AuditHistory } from "@/features/walkthroughs/components/audit-history";
+import { useAuthorization } from "@/lib/authorization";
+
+import { isSignedIn } from "../session";
+import { NotAvailable } from "./not-available";
+
+export function spaceAuditsLoader(queryClient: QueryClient) {
+  return async ({ params }: LoaderFunctionArgs) => {
+    const parsed = spaceParamsSchema.safeParse(params);
+    if (parsed.success && (await isSignedIn(queryClient))) {
+      void queryClient.prefetchQuery(spaceAuditsQueryOptions(parsed.data.spaceId));
+    }
+    return null;
+  };
+}
+
+/** A space's audits: date, auditor, verdict, score; each opens read-only once submitted. */
+export function SpaceAuditsRoute() {
+  const { can, canAnywhere } = useAuthorization();
+  const parsed = spaceParamsSchema.safeParse(useParams());
+  if (!parsed.success) return <NotAvailable description="There is no space at this address." />;
+  const { spaceId } = parsed.data;
+  return (
+    <AuditHistory
+      key={spaceId}
+      spaceId={spaceId}
+      auditHref={paths.audit.getHref}
+      backLink={(siteId) =>
+        siteId ? (
+          <TextLink to={paths.siteDue.getHref(siteId)}>Due for audit</TextLink>
+        ) : (
+          <TextLink to={paths.home.getHref()}>My sites</TextLink>
+        )
+      }
+      startAction={(siteId) =>
+        (siteId ? can("conduct:audit:site", siteId) : canAnywhere("conduct:audit:site")) ? (
+          <Link to={paths.startAudit.getHref(spaceId)} className={buttonStyles()}>
+            Start audit
+          </Link>
+        ) : null
+      }
+    />
+  );
+}

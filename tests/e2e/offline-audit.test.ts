@@ -1,0 +1,102 @@
+import sharp from "sharp";
+import type { Browser } from "playwright-core";
+import { afterAll, beforeAll, describe, expect, it } from "vitest";
+
+import { baseUrl, launchBrowser, phonePage } from "../helpers/browser";
+
+describe("an audit on a phone that loses its connection half-way (390×844)", () => {
+  let browser: Browser;
+  beforeAll(async () => {
+    browser = await launchBrowser();
+  });
+  afterAll(async () => {
+    await browser.close();
+  });
+
+  it("when the auditor finishes offline and reconnects, then the audit arrives once with its photo and says not ready", async () => {
+    const { page, problems } = await phonePage(browser);
+    const context = page.context();
+    await page.goto(`${baseUrl()}/sign-in`);
+    await page.getByLabel("E-mail").fill("auditor@example.org");
+    await page.getByLabel("Password").fill("lintel-demo-2026");
+    await page.getByRole("button", { name: "Sign in" }).click();
+    await page.getByRole("heading", { level: 1, name: "My sites" }).waitFor();
+
+    await page
+      .getByRole("link", { name: /Wexley Rehabilitation Centre/ })
+      .first()
+      .click();
+    await page
+      .getByRole("link", { name: /All spaces and due dates|every other space/ })
+      .first()
+      .click();
+    await page
+      .getByRole("listitem", { name: "Doffing area 1", exact: true })
+      .getByRole("link", { name: "Start audit" })
+      .click();
+    await page.getByRole("heading", { level: 1, name: "Doffing area 1" }).waitFor();
+    const total = Number(
+      /of (\d+)$/.exec((await page.getByText(/^Item 1 of \d+$/).textContent())!)![1],
+    );
+    expect(total).toBeGreaterThanOrEqual(15);
+    const auditId = new URL(page.url()).pathname.split("/").pop()!;
+
+    const chairPhoto = await sharp({
+      create: { width: 800, height: 600, channels: 3, background: "#9a4f22" },
+    })
+      .png()
+      .toBuffer();
+    for (let index = 1; index <= total; index += 1) {
+      await page.getByText(`Item ${index} of ${total}`, { exact: true }).waitFor();
+      if (index === Math.ceil(total / 2)) {
+        // Half-way the connection goes: the browser is offline and the API cannot be reached.
+        await context.setOffline(true);
+        await context.route("**/api/**", (route) => route.abort());
+        await page.getByText("Offline — changes are kept on this phone").waitFor();
+      }
+      const text = (await page.getByRole("heading", { level: 2 }).first().textContent()) ?? "";
+      if (text.startsWith("Dirty chair present")) {
+        await page.getByRole("button", { name: "Fail", exact: true }).click();
+        await page.getByLabel("Note").fill("No dirty chair; staff sit on the bin lid");
+        await page
+          .getByLabel("Add photo")
+          .setInputFiles({ name: "chair.png", mimeType: "image/png", buffer: chairPhoto });
+        await page.getByRole("list", { name: "Photos of this item" }).waitFor();
+      } else if (text.startsWith("Number of working")) {
+        await page.getByLabel("Count").fill("2");
+      } else if (text.startsWith("Mirror or observer")) {
+        await page.getByRole("button", { name: "Mirror", exact: true }).click();
+      } else {
+        await page.getByRole("button", { name: "Pass", exact: true }).click();
+      }
+      // "Next" on the last item opens the review.
+      await page.getByRole("button", { name: "Next", exact: true }).click();
+    }
+
+    await page.getByRole("button", { name: "Submit audit" }).click();
+    await page.getByRole("heading", { level: 2, name: "Not ready" }).waitFor();
+    await page.getByText("Provisional").first().waitFor();
+
+    // Back online: the phone sends what it kept, by itself.
+    await context.unroute("**/api/**");
+    await context.setOffline(false);
+    await page.getByText("All changes saved").waitFor({ timeout: 30_000 });
+    await expect
+      .poll(async () => page.getByText("Provisional").count(), { timeout: 15_000 })
+      .toBe(0);
+
+    const detail = await (await page.request.get(`${baseUrl()}/api/audits/${auditId}`)).json();
+    expect(detail.audit).toMatchObject({ status: "submitted", verdict: "not_ready" });
+    expect(detail.photos).toHaveLength(1);
+    expect(detail.answers).toHaveLength(total);
+    const history = await (
+      await page.request.get(`${baseUrl()}/api/spaces/${detail.audit.spaceId}/audits`)
+    ).json();
+    expect(history.audits.filter((audit: { id: string }) => audit.id === auditId)).toHaveLength(1);
+    // While the API was blocked but the browser thought it was online, retries log failed loads.
+    expect(
+      problems.filter((problem) => !/ERR_FAILED|ERR_INTERNET_DISCONNECTED/.test(problem)),
+    ).toEqual([]);
+    await context.close();
+  });
+});
