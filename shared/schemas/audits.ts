@@ -110,6 +110,14 @@ export const scheduleEntrySchema = z.object({
 export type ScheduleEntry = z.infer<typeof scheduleEntrySchema>;
 export const scheduleResponseSchema = z.object({ entries: z.array(scheduleEntrySchema) });
 
+/** What one auditor has due across every site where they audit. */
+export const myDueEntrySchema = scheduleEntrySchema.extend({
+  siteId: uuidSchema,
+  siteName: z.string(),
+});
+export type MyDueEntry = z.infer<typeof myDueEntrySchema>;
+export const myDueResponseSchema = z.object({ entries: z.array(myDueEntrySchema) });
+
 export const cadenceBodySchema = z.strictObject({
   cadenceDays: numberInput()
     .int({ message: "A whole number of days." })

@@ -349,4 +349,23 @@ describe("audits", () => {
     });
     expect(entry!.before).toMatchObject({ outcome: "fail", verdict: "ready_with_conditions" });
   });
+
+  it("when an auditor asks what they have due, then overdue spaces of their sites come first, and others' sites never", async () => {
+    const spaceId = await newSpace("doffing_area");
+    const otherSite = (await insertSite(testApp().deps.db, networkId)).id;
+    const response = await as(auditor).get("/api/my/due");
+    expect(response.status).toBe(200);
+    const entries = response.body.entries as { spaceId: string; siteId: string; state: string }[];
+    expect(entries.find((entry) => entry.spaceId === spaceId)).toMatchObject({
+      siteId,
+      state: "overdue",
+    });
+    expect(entries.every((entry) => entry.siteId !== otherSite)).toBe(true);
+    const states = entries.map((entry) => entry.state);
+    expect(
+      states.indexOf("due_soon") === -1 ||
+        states.lastIndexOf("overdue") < states.indexOf("due_soon"),
+    ).toBe(true);
+    expect((await as(admin).get("/api/my/due")).body.entries).toEqual([]);
+  });
 });

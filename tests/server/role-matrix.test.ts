@@ -320,6 +320,7 @@ const samples: Record<string, Sample> = {
     allowed: admins,
     hidden: notAtA,
   },
+  "GET /my/due": { prepare: () => ({ url: "/api/my/due" }), ok: 200, allowed: everyone },
   "GET /sites/:siteId/schedule": {
     prepare: (w) => ({ url: `/api/sites/${w.siteA}/schedule` }),
     ok: 200,

@@ -165,6 +165,15 @@ export const auditRoutes = [
   }),
   defineRoute({
     method: "get",
+    path: "/my/due",
+    summary: "What the person has due or overdue across the sites where they audit",
+    access: { kind: "signed-in" },
+    async handle({ res, deps, auth }) {
+      res.json({ entries: await audits.myDue(deps, auth!) });
+    },
+  }),
+  defineRoute({
+    method: "get",
     path: "/sites/:siteId/schedule",
     summary: "What is due and overdue at a site",
     access: {

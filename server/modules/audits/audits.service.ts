@@ -4,10 +4,12 @@ import {
   inchesOfWaterToPascals,
   minimumAirChanges,
 } from "@shared/calc/ventilation";
+import { can } from "@shared/permissions";
 import type {
   AmendmentBody,
   AnswerBody,
   AuditDetail,
+  MyDueEntry,
   ReadingUnit,
   ScheduleEntry,
 } from "@shared/schemas/audits";
@@ -24,6 +26,7 @@ import {
   ensureDefaultChecklists,
   latestPublishedVersion,
 } from "../checklists/checklists.service";
+import { listSitesFor } from "../sites/sites.service";
 import * as repo from "./audits.repository";
 
 const invalid = (field: string, message: string) =>
@@ -437,6 +440,23 @@ export async function siteSchedule(
   });
   const rank = { overdue: 0, due_soon: 1, ok: 2 };
   return entries.sort((a, b) => rank[a.state] - rank[b.state] || a.dueAt.localeCompare(b.dueAt));
+}
+
+/** Overdue and soon-due spaces at every site where the person audits, overdue first. */
+export async function myDue(deps: AppDeps, auth: SignedIn): Promise<MyDueEntry[]> {
+  const sites = await listSitesFor(deps.db, auth.user.networkId, auth.grants);
+  const mine = sites.filter((site) => can(auth.grants, "conduct:audit:site", site.id));
+  const rank = { overdue: 0, due_soon: 1, ok: 2 };
+  const entries = await Promise.all(
+    mine.map(async (site) =>
+      (await siteSchedule(deps.db, site.id))
+        .filter((entry) => entry.state !== "ok")
+        .map((entry) => ({ ...entry, siteId: site.id, siteName: site.name })),
+    ),
+  );
+  return entries
+    .flat()
+    .sort((a, b) => rank[a.state] - rank[b.state] || a.dueAt.localeCompare(b.dueAt));
 }
 
 export async function setCadence(

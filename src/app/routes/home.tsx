@@ -6,6 +6,7 @@ import { paths } from "@/config/paths";
 
 import { sitesQueryOptions } from "@/features/sites/api/get-sites";
 import { SitesList } from "@/features/sites/components/sites-list";
+import { MyDueAudits } from "@/features/walkthroughs/components/my-due-audits";
 import { useAuthorization } from "@/lib/authorization";
 
 import { isSignedIn } from "../session";
@@ -24,7 +25,7 @@ function firstName(name: string): string {
 
 export function HomeRoute() {
   const me = useSignedInPerson();
-  const { can } = useAuthorization();
+  const { can, canAnywhere } = useAuthorization();
   return (
     <>
       <title>My sites · Lintel</title>
@@ -41,6 +42,9 @@ export function HomeRoute() {
           </Link>
         ) : null}
       </div>
+      {canAnywhere("conduct:audit:site") ? (
+        <MyDueAudits startHref={(spaceId) => paths.startAudit.getHref(spaceId)} />
+      ) : null}
       <SitesList />
     </>
   );
