@@ -1,11 +1,13 @@
+import type { ReactNode } from "react";
+
 import { cn } from "@/lib/cn";
 
 export interface IconProps {
   className?: string;
 }
 
-/** A building with a doorway: the sites a person works at. */
-export function SitesIcon({ className }: IconProps) {
+/** The frame every outline icon shares: a 24-unit grid drawn in the current text colour. */
+function OutlineIcon({ className, children }: IconProps & { children: ReactNode }) {
   return (
     <svg
       aria-hidden="true"
@@ -17,31 +19,31 @@ export function SitesIcon({ className }: IconProps) {
       strokeLinejoin="round"
       className={cn("size-6", className)}
     >
+      {children}
+    </svg>
+  );
+}
+
+/** A building with a doorway: the sites a person works at. */
+export function SitesIcon({ className }: IconProps) {
+  return (
+    <OutlineIcon className={className}>
       <path d="M4 21V5.5A1.5 1.5 0 0 1 5.5 4h9A1.5 1.5 0 0 1 16 5.5V21" />
       <path d="M16 10h2.5A1.5 1.5 0 0 1 20 11.5V21" />
       <path d="M2.5 21h19" />
       <path d="M8.5 21v-4h3v4" />
       <path d="M7.5 8h1M11.5 8h1M7.5 12h1M11.5 12h1" />
-    </svg>
+    </OutlineIcon>
   );
 }
 
 /** A head and shoulders: the signed-in person's own page. */
 export function AccountIcon({ className }: IconProps) {
   return (
-    <svg
-      aria-hidden="true"
-      viewBox="0 0 24 24"
-      fill="none"
-      stroke="currentColor"
-      strokeWidth="1.8"
-      strokeLinecap="round"
-      strokeLinejoin="round"
-      className={cn("size-6", className)}
-    >
+    <OutlineIcon className={className}>
       <circle cx="12" cy="8.5" r="3.75" />
       <path d="M4.5 20.5c.9-3.6 3.9-5.75 7.5-5.75s6.6 2.15 7.5 5.75" />
-    </svg>
+    </OutlineIcon>
   );
 }
 
@@ -82,59 +84,42 @@ export function PinIcon({ className }: IconProps) {
 /** Two heads: the people an administrator looks after. */
 export function PeopleIcon({ className }: IconProps) {
   return (
-    <svg
-      aria-hidden="true"
-      viewBox="0 0 24 24"
-      fill="none"
-      stroke="currentColor"
-      strokeWidth="1.8"
-      strokeLinecap="round"
-      strokeLinejoin="round"
-      className={cn("size-6", className)}
-    >
+    <OutlineIcon className={className}>
       <circle cx="9" cy="8.5" r="3.25" />
       <path d="M2.75 19.5c.8-3.1 3.3-5 6.25-5s5.45 1.9 6.25 5" />
       <path d="M15.5 5.6a3.25 3.25 0 0 1 0 5.8" />
       <path d="M17.25 14.75c2 .55 3.45 2.2 4 4.75" />
-    </svg>
+    </OutlineIcon>
   );
 }
 
 /** An envelope: the mail Lintel has sent. */
 export function MailIcon({ className }: IconProps) {
   return (
-    <svg
-      aria-hidden="true"
-      viewBox="0 0 24 24"
-      fill="none"
-      stroke="currentColor"
-      strokeWidth="1.8"
-      strokeLinecap="round"
-      strokeLinejoin="round"
-      className={cn("size-6", className)}
-    >
+    <OutlineIcon className={className}>
       <rect x="3" y="5.5" width="18" height="13" rx="2" />
       <path d="m3.75 7 8.25 6 8.25-6" />
-    </svg>
+    </OutlineIcon>
   );
 }
 
 /** A clipboard with ticks: the checklists an audit follows. */
 export function ChecklistIcon({ className }: IconProps) {
   return (
-    <svg
-      aria-hidden="true"
-      viewBox="0 0 24 24"
-      fill="none"
-      stroke="currentColor"
-      strokeWidth="1.8"
-      strokeLinecap="round"
-      strokeLinejoin="round"
-      className={cn("size-6", className)}
-    >
+    <OutlineIcon className={className}>
       <path d="M9 4.5H6.5A1.5 1.5 0 0 0 5 6v13.5A1.5 1.5 0 0 0 6.5 21h11a1.5 1.5 0 0 0 1.5-1.5V6a1.5 1.5 0 0 0-1.5-1.5H15" />
       <rect x="9" y="3" width="6" height="3" rx="1" />
       <path d="m8.5 11 1.5 1.5 2.5-2.5M8.5 16.5l1.5 1.5 2.5-2.5M14.5 11.5h1.5M14.5 17h1.5" />
-    </svg>
+    </OutlineIcon>
+  );
+}
+
+/** A camera: taking a photo of what the audit found. */
+export function CameraIcon({ className }: IconProps) {
+  return (
+    <OutlineIcon className={className}>
+      <path d="M4 8.5A1.5 1.5 0 0 1 5.5 7h2.2l1.5-2h5.6l1.5 2h2.2A1.5 1.5 0 0 1 20 8.5v9a1.5 1.5 0 0 1-1.5 1.5h-13A1.5 1.5 0 0 1 4 17.5Z" />
+      <circle cx="12" cy="13" r="3.5" />
+    </OutlineIcon>
   );
 }

@@ -1,6 +1,7 @@
 import { type ChangeEvent, useEffect, useState } from "react";
 
 import { Button } from "@/components/ui/button";
+import { CameraIcon } from "@/components/ui/icons";
 import { SpinnerGlyph } from "@/components/ui/spinner";
 import { cn } from "@/lib/cn";
 
@@ -54,24 +55,6 @@ export function PhotoThumb({
     >
       {src ? <img src={src} alt={alt} className="size-full object-cover" /> : null}
     </span>
-  );
-}
-
-function CameraIcon() {
-  return (
-    <svg
-      aria-hidden="true"
-      viewBox="0 0 24 24"
-      fill="none"
-      stroke="currentColor"
-      strokeWidth="1.8"
-      strokeLinecap="round"
-      strokeLinejoin="round"
-      className="size-6"
-    >
-      <path d="M4 8.5A1.5 1.5 0 0 1 5.5 7h2.2l1.5-2h5.6l1.5 2h2.2A1.5 1.5 0 0 1 20 8.5v9a1.5 1.5 0 0 1-1.5 1.5h-13A1.5 1.5 0 0 1 4 17.5Z" />
-      <circle cx="12" cy="13" r="3.5" />
-    </svg>
   );
 }
 
