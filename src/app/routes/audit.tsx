@@ -5,7 +5,9 @@ import { buttonStyles } from "@/components/ui/button";
 import { EmptyState } from "@/components/ui/empty-state";
 import { TextLink } from "@/components/ui/text-link";
 import { paths } from "@/config/paths";
+import { AmendAuditForm } from "@/features/walkthroughs/components/amend-audit-form";
 import { AuditScreen } from "@/features/walkthroughs/components/audit-screen";
+import { useAuthorization } from "@/lib/authorization";
 
 import { usePersonIfKnown } from "./audit-person";
 
@@ -27,6 +29,7 @@ function AuditNotFound() {
 export function AuditRoute() {
   const parsed = auditParamsSchema.safeParse(useParams());
   const me = usePersonIfKnown();
+  const { can } = useAuthorization();
   if (!parsed.success) return <AuditNotFound />;
   const { auditId } = parsed.data;
   return (
@@ -46,6 +49,9 @@ export function AuditRoute() {
           >
             Audit history
           </Link>
+          {detail.audit.status === "submitted" && can("update:site:site", detail.audit.siteId) ? (
+            <AmendAuditForm detail={detail} />
+          ) : null}
         </>
       )}
     />

@@ -1,0 +1,26 @@
+import { type AmendmentBody, type AuditDetail, auditDetailSchema } from "@shared/schemas/audits";
+import { useMutation, useQueryClient } from "@tanstack/react-query";
+
+import { apiRequest } from "@/lib/api-client";
+
+import { auditQueryKey } from "./get-audit";
+
+/** An administrator's logged correction of a submitted audit; the reply has the new verdict. */
+export function amendAudit(auditId: string, body: AmendmentBody): Promise<AuditDetail> {
+  return apiRequest(`/api/audits/${encodeURIComponent(auditId)}/amendments`, {
+    method: "POST",
+    body,
+    schema: auditDetailSchema,
+  });
+}
+
+export function useAmendAudit(auditId: string) {
+  const queryClient = useQueryClient();
+  return useMutation({
+    mutationFn: (body: AmendmentBody) => amendAudit(auditId, body),
+    onSuccess: async (detail) => {
+      queryClient.setQueryData(auditQueryKey(auditId), detail);
+      await queryClient.invalidateQueries({ queryKey: ["schedules"] });
+    },
+  });
+}
