@@ -7,6 +7,7 @@ import type { Env } from "./env";
 import type { AppDeps } from "./lib/routes";
 import type { Storage } from "./lib/storage";
 import { loadGrants } from "./modules/auth/auth.service";
+import { siteIdIfExists } from "./modules/sites/sites.service";
 
 /** Wires the app's collaborators from configuration and a database handle. */
 export function buildDeps(
@@ -35,6 +36,8 @@ export function buildDeps(
       windowMinutes: 60,
     }),
     storage,
+    siteInNetwork: async (siteId, networkId) =>
+      (await siteIdIfExists(database.db, networkId, siteId)) !== null,
     loadGrants: (userId) => loadGrants(database, userId),
     notifyOutbox,
   };

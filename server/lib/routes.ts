@@ -21,6 +21,8 @@ export interface AppDeps {
   signInLimiter: SignInLimiter;
   resetLimiter: ResetLimiter;
   storage: Storage;
+  /** Whether the site exists and belongs to the network (every site-scoped route asks this). */
+  siteInNetwork: (siteId: string, networkId: string) => Promise<boolean>;
   /** Loads a person's role grants; one query per request. */
   loadGrants: (userId: string) => Promise<RoleGrant[]>;
   /** Tells the e-mail worker that new mail is waiting (after the transaction commits). */
@@ -35,7 +37,8 @@ export interface SignedIn {
 
 /**
  * Who may call a route. Site-scoped routes name how to find the site the resource belongs to
- * (null when the resource does not exist); the mount code loads it, decides, then runs the handler.
+ * (null when the resource does not exist); the mount code checks that site is in the caller's
+ * network, decides, then runs the handler.
  */
 export type Access =
   | { kind: "public" }
@@ -131,6 +134,8 @@ export function mountRoutes(
         if (!canSomewhere(auth!.grants, route.access.permission)) throw forbidden();
       } else if (route.access.kind === "site") {
         siteId = await route.access.siteOf(params as Record<string, string>, deps, auth!.user, req);
+        if (siteId !== null && !(await deps.siteInNetwork(siteId, auth!.user.networkId)))
+          siteId = null;
         // What is not theirs to see does not exist for them.
         if (siteId === null || !hasAnyRoleAt(auth!.grants, siteId)) throw notFound();
         if (!can(auth!.grants, route.access.permission, siteId)) throw forbidden();

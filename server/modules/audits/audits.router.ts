@@ -16,27 +16,18 @@ import { siteParamsSchema } from "@shared/schemas/site";
 import { readUpload } from "../../lib/images";
 import { parseInput } from "../../middleware/validate";
 import { defineRoute, type Access } from "../../lib/routes";
-import { siteIdIfExists } from "../sites/sites.service";
 import * as audits from "./audits.service";
-
-const inNetwork = (
-  siteId: string | null,
-  deps: Parameters<Extract<Access, { kind: "site" }>["siteOf"]>[1],
-  networkId: string,
-) => (siteId ? siteIdIfExists(deps.db, networkId, siteId) : Promise.resolve(null));
 
 const viaAudit = (permission: Permission): Access => ({
   kind: "site",
   permission,
-  siteOf: async (params, deps, user) =>
-    inNetwork(await audits.siteOfAudit(deps.db, params.auditId!), deps, user.networkId),
+  siteOf: (params, deps) => audits.siteOfAudit(deps.db, params.auditId!),
 });
 
 const viaSpace = (permission: Permission): Access => ({
   kind: "site",
   permission,
-  siteOf: async (params, deps, user) =>
-    inNetwork(await audits.siteOfSpace(deps.db, params.spaceId!), deps, user.networkId),
+  siteOf: (params, deps) => audits.siteOfSpace(deps.db, params.spaceId!),
 });
 
 const photoFieldsSchema = z.strictObject({
@@ -52,16 +43,14 @@ export const auditRoutes = [
     access: {
       kind: "site",
       permission: "conduct:audit:site",
-      async siteOf(params, deps, user, req) {
+      async siteOf(params, deps, _user, req) {
         // An audit that exists belongs where it is; a new one belongs where its space is.
         const existing = await audits.siteOfAudit(deps.db, params.auditId!);
-        if (existing) return inNetwork(existing, deps, user.networkId);
+        if (existing) return existing;
         const spaceId = uuidSchema.safeParse(
           (req.body as { spaceId?: unknown } | undefined)?.spaceId,
         );
-        return spaceId.success
-          ? inNetwork(await audits.siteOfSpace(deps.db, spaceId.data), deps, user.networkId)
-          : null;
+        return spaceId.success ? audits.siteOfSpace(deps.db, spaceId.data) : null;
       },
     },
     params: auditParamsSchema,
@@ -179,7 +168,7 @@ export const auditRoutes = [
     access: {
       kind: "site",
       permission: "read:site:site",
-      siteOf: (params, deps, user) => siteIdIfExists(deps.db, user.networkId, params.siteId!),
+      siteOf: async (params) => params.siteId!,
     },
     params: siteParamsSchema,
     async handle({ res, deps, params }) {

@@ -17,7 +17,6 @@ import type { Permission } from "@shared/permissions";
 
 import { readUpload } from "../../lib/images";
 import { defineRoute, type Access, type AppDeps } from "../../lib/routes";
-import { siteIdIfExists } from "../sites/sites.service";
 import * as floors from "./floors.service";
 
 type Resolve = (db: AppDeps["db"], id: string) => Promise<string | null>;
@@ -27,10 +26,7 @@ function through(param: string, resolve: Resolve, permission: Permission): Acces
   return {
     kind: "site",
     permission,
-    async siteOf(params, deps, user) {
-      const siteId = await resolve(deps.db, params[param]!);
-      return siteId ? siteIdIfExists(deps.db, user.networkId, siteId) : null;
-    },
+    siteOf: (params, deps) => resolve(deps.db, params[param]!),
   };
 }
 

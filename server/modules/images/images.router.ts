@@ -7,7 +7,6 @@ import { notFound } from "../../lib/app-error";
 import { readUpload, storeImage } from "../../lib/images";
 import { findImageForServing } from "../../lib/images.repository";
 import { defineRoute } from "../../lib/routes";
-import { siteIdIfExists } from "../sites/sites.service";
 
 export const imageRoutes = [
   defineRoute({
@@ -17,7 +16,7 @@ export const imageRoutes = [
     access: {
       kind: "site",
       permission: "upload:image:site",
-      siteOf: (params, deps, user) => siteIdIfExists(deps.db, user.networkId, params.siteId!),
+      siteOf: async (params) => params.siteId!,
     },
     params: siteParamsSchema,
     async handle({ req, res, deps, auth, params }) {
@@ -38,9 +37,9 @@ export const imageRoutes = [
     access: {
       kind: "site",
       permission: "read:site:site",
-      async siteOf(params, deps, user) {
+      async siteOf(params, deps) {
         const image = await findImageForServing(deps.db, params.imageId!);
-        return image ? siteIdIfExists(deps.db, user.networkId, image.siteId) : null;
+        return image?.siteId ?? null;
       },
     },
     params: imageParamsSchema,
