@@ -37,6 +37,10 @@ const envSchema = z.object({
   LINTEL_OUTBOX_LEASE_MS: positiveInt(120_000),
   /** `0` keeps this process from sending e-mail (another process does it). */
   LINTEL_OUTBOX_WORKER: z.enum(["0", "1"]).default("1"),
+  /** How often the server looks for actions due soon or overdue (`0` in LINTEL_ACTION_NOTICES
+   *  leaves it to another process). */
+  LINTEL_ACTION_NOTICE_MS: positiveInt(60_000),
+  LINTEL_ACTION_NOTICES: z.enum(["0", "1"]).default("1"),
   LINTEL_INVITATION_DAYS: positiveInt(7),
   LINTEL_PASSWORD_RESET_MINUTES: positiveInt(60),
   /** Folder where the local mail catcher keeps what it received (demo and development only). */

@@ -1,3 +1,4 @@
+import { actionRoutes } from "./modules/actions/actions.router";
 import { accountRoutes } from "./modules/accounts/accounts.router";
 import { authRoutes } from "./modules/auth/auth.router";
 import { auditRoutes } from "./modules/audits/audits.router";
@@ -21,4 +22,5 @@ export const apiRoutes = [
   ...imageRoutes,
   ...checklistRoutes,
   ...auditRoutes,
+  ...actionRoutes,
 ];

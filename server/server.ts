@@ -11,6 +11,7 @@ import { createLogger } from "./lib/logger";
 import { createMailer } from "./lib/mailer";
 import { reconcileStorage } from "./lib/images";
 import { createStorage } from "./lib/storage";
+import { createActionScheduler } from "./modules/actions/actions.scheduler";
 import { createOutboxWorker } from "./outbox/outbox-worker";
 
 export interface RunningServer {
@@ -50,6 +51,17 @@ export async function startServer(env: Env): Promise<RunningServer> {
         })
       : null;
   worker?.start();
+  const scheduler =
+    env.LINTEL_ACTION_NOTICES === "1"
+      ? createActionScheduler({
+          db: database.db,
+          env,
+          logger,
+          intervalMs: env.LINTEL_ACTION_NOTICE_MS,
+          notifyOutbox: () => worker?.nudge(),
+        })
+      : null;
+  scheduler?.start();
 
   const app = createApp(buildDeps(env, database, logger, storage, () => worker?.nudge()));
   const server = createServer(app);
@@ -70,6 +82,7 @@ export async function startServer(env: Env): Promise<RunningServer> {
         server.closeIdleConnections();
       });
       clearInterval(reconcileTimer);
+      await scheduler?.stop();
       await worker?.stop();
       mailer.close();
       storage.close();

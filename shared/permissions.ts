@@ -15,6 +15,12 @@ export const permissions = [
   "upload:image:site",
   "conduct:audit:site",
   "manage:checklists:network",
+  /** Facilities leads: start the fix, attach proof, send it for verification. */
+  "work:action:site",
+  /** Auditors: verify a fix, reject its proof, reopen a closed action. */
+  "verify:action:site",
+  /** Who owns an action: administrators, and facilities leads handing over to a colleague. */
+  "assign:action:site",
 ] as const;
 export type Permission = (typeof permissions)[number];
 
@@ -28,9 +34,15 @@ export const rolePermissions: Record<Role, readonly Permission[]> = {
     "read:dev-mailbox:network",
     "upload:image:site",
     "manage:checklists:network",
+    "assign:action:site",
   ],
-  auditor: ["read:site:site", "upload:image:site", "conduct:audit:site"],
-  facilities_lead: ["read:site:site", "upload:image:site"],
+  auditor: ["read:site:site", "upload:image:site", "conduct:audit:site", "verify:action:site"],
+  facilities_lead: [
+    "read:site:site",
+    "upload:image:site",
+    "work:action:site",
+    "assign:action:site",
+  ],
   committee_member: ["read:site:site", "read:change-log:site"],
 };
 

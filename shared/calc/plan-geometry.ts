@@ -69,3 +69,30 @@ export function formatLength(metres: number): string {
   }
   return `${metres.toFixed(2)} m (${feet} ft ${inches.toFixed(1)} in)`;
 }
+
+/**
+ * The area centroid of a simple polygon (the shoelace formula's first moments); the mean of the
+ * corners when the polygon has no area. Where a finding's pin goes in its space.
+ */
+export function polygonCentroid(polygon: readonly (readonly [number, number])[]): PlanPoint {
+  if (polygon.length === 0) throw new RangeError("A polygon needs at least one corner.");
+  let twice = 0;
+  let cx = 0;
+  let cy = 0;
+  for (let i = 0, j = polygon.length - 1; i < polygon.length; j = i, i += 1) {
+    const [xj, yj] = polygon[j]!;
+    const [xi, yi] = polygon[i]!;
+    const cross = xj * yi - xi * yj;
+    twice += cross;
+    cx += (xj + xi) * cross;
+    cy += (yj + yi) * cross;
+  }
+  if (twice === 0) {
+    const n = polygon.length;
+    return {
+      x: polygon.reduce((sum, [x]) => sum + x, 0) / n,
+      y: polygon.reduce((sum, [, y]) => sum + y, 0) / n,
+    };
+  }
+  return { x: cx / (3 * twice), y: cy / (3 * twice) };
+}

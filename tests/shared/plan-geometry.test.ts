@@ -10,6 +10,7 @@ import {
   metresToInches,
   pointInPolygon,
   polygonArea,
+  polygonCentroid,
   scaleFromReference,
 } from "@shared/calc/plan-geometry";
 
@@ -137,5 +138,52 @@ describe("hand-rub dispenser spacing (NFPA 101, 2012, 18.3.2.6 / 19.3.2.6: at le
         null,
       ),
     ).toEqual([]);
+  });
+});
+
+describe("where a finding's pin goes", () => {
+  it("when the space is a rectangle, then the pin is at its centre", () => {
+    expect(
+      polygonCentroid([
+        [100, 50],
+        [400, 50],
+        [400, 250],
+        [100, 250],
+      ]),
+    ).toEqual({ x: 250, y: 150 });
+  });
+
+  it("when the space is an L shape, then the pin is the area centroid, not the mean of the corners", () => {
+    // Two rectangles: 0–20 × 0–10 (area 200, centre 10,5) and 0–10 × 10–30 (area 200, centre 5,20):
+    // centroid = area-weighted mean of the parts = (7.5, 12.5), exactly.
+    const l: [number, number][] = [
+      [0, 0],
+      [20, 0],
+      [20, 10],
+      [10, 10],
+      [10, 30],
+      [0, 30],
+    ];
+    const centre = polygonCentroid(l);
+    expect(centre.x).toBeCloseTo(7.5, 12);
+    expect(centre.y).toBeCloseTo(12.5, 12);
+  });
+
+  it("when the corners are listed the other way round or the polygon is flat, then it still gives a point inside the corners", () => {
+    expect(
+      polygonCentroid([
+        [0, 0],
+        [0, 10],
+        [10, 10],
+        [10, 0],
+      ]),
+    ).toEqual({ x: 5, y: 5 });
+    expect(
+      polygonCentroid([
+        [0, 0],
+        [10, 0],
+      ]),
+    ).toEqual({ x: 5, y: 0 });
+    expect(() => polygonCentroid([])).toThrow(RangeError);
   });
 });

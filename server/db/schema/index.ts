@@ -11,3 +11,4 @@ export * from "./floors";
 export * from "./images";
 export * from "./audits";
 export * from "./checklists";
+export * from "./actions";

@@ -26,6 +26,7 @@ import {
   ensureDefaultChecklists,
   latestPublishedVersion,
 } from "../checklists/checklists.service";
+import { recordFindings } from "../actions/actions.service";
 import { listSitesFor } from "../sites/sites.service";
 import * as repo from "./audits.repository";
 
@@ -319,22 +320,37 @@ export async function submitAudit(
   }));
   const verdict = verdictOf(scored);
   const score = scoreOf(scored);
-  await deps.db.transaction(async (tx) => {
-    const locked = await repo.lockAudit(tx, auditId);
-    if (locked?.status === "submitted") return;
-    await repo.markSubmitted(tx, auditId, { verdict, score, submittedAt: new Date() });
-    await recordChange(
-      tx,
-      { userId: auth.user.id, requestId },
-      {
-        action: "audit.submitted",
-        entity: "audit",
-        entityId: auditId,
-        siteId: current.siteId,
-        after: { verdict, score },
-      },
-    );
+  // Every failed item becomes a finding followed up by a corrective action, in the same commit.
+  const failed = detail.items.flatMap((item) => {
+    const answer = answers.get(item.id)!;
+    return answer.outcome === "fail"
+      ? [
+          {
+            itemId: item.id,
+            key: item.key,
+            text: item.text,
+            severity: item.severity,
+            note: answer.note,
+          },
+        ]
+      : [];
   });
+  const actor = { userId: auth.user.id, requestId };
+  const queued = await deps.db.transaction(async (tx) => {
+    const locked = await repo.lockAudit(tx, auditId);
+    if (locked?.status === "submitted") return 0;
+    const submittedAt = new Date();
+    await repo.markSubmitted(tx, auditId, { verdict, score, submittedAt });
+    await recordChange(tx, actor, {
+      action: "audit.submitted",
+      entity: "audit",
+      entityId: auditId,
+      siteId: current.siteId,
+      after: { verdict, score },
+    });
+    return recordFindings(tx, deps.env, current, failed, actor, submittedAt);
+  });
+  if (queued > 0) deps.notifyOutbox();
   return auditDetail(deps.db, auditId);
 }
 

@@ -1,0 +1,122 @@
+import { formatInZone } from "@shared/calc/due";
+import type { Severity } from "@shared/calc/verdict";
+
+import { mailLayout } from "../../lib/mail-layout";
+import type { NewMail } from "../../outbox/outbox.repository";
+
+/** What every action e-mail says about the action it is about. */
+export interface ActionMailFacts {
+  to: string;
+  name: string;
+  link: string;
+  title: string;
+  severity: Severity;
+  spaceName: string;
+  siteName: string;
+  dueAt: Date;
+  timeZone: string;
+}
+
+const severityWords: Record<Severity, string> = {
+  critical: "Critical",
+  major: "Major",
+  minor: "Minor",
+};
+
+function actionMail(
+  topic: string,
+  facts: ActionMailFacts,
+  subject: string,
+  lines: string[],
+  button: string,
+): NewMail {
+  const about = `${severityWords[facts.severity]} finding in ${facts.spaceName}, ${facts.siteName}: ${facts.title}`;
+  const due = `Due ${formatInZone(facts.dueAt, facts.timeZone)} (the site's time).`;
+  const paragraphs = [`Hello ${facts.name},`, ...lines, about, due];
+  const footnote =
+    "You receive this because of your role at this site in Lintel. Sign in to see the photos, where it is on the floor plan, and its history.";
+  return {
+    topic,
+    to: facts.to,
+    subject,
+    text: `${paragraphs.join("\n\n")}\n\n${button}: ${facts.link}\n\n${footnote}\n`,
+    html: mailLayout(subject, paragraphs, { label: button, href: facts.link }, footnote),
+  };
+}
+
+export const assignedMail = (facts: ActionMailFacts, by: string | null) =>
+  actionMail(
+    "action_assigned",
+    facts,
+    `Corrective action for you: ${facts.spaceName}`,
+    [
+      by
+        ? `${by} has made you the owner of a corrective action.`
+        : "A failed audit item has opened a corrective action, and you are its owner.",
+    ],
+    "Open the action",
+  );
+
+export const dueSoonMail = (facts: ActionMailFacts) =>
+  actionMail(
+    "action_due_soon",
+    facts,
+    `Due within a day: ${facts.spaceName}`,
+    ["A corrective action you own is due within the next 24 hours."],
+    "Open the action",
+  );
+
+export const overdueMail = (facts: ActionMailFacts) =>
+  actionMail(
+    "action_overdue",
+    facts,
+    `Overdue: ${facts.spaceName}`,
+    [
+      "A corrective action you own is past its due time. Fix it, attach a photo of the fix and send it for verification.",
+    ],
+    "Open the action",
+  );
+
+export const reminderMail = (facts: ActionMailFacts, weeks: number) =>
+  actionMail(
+    "action_reminder",
+    facts,
+    `Still overdue: ${facts.spaceName}`,
+    [
+      `A corrective action you own is still open, ${weeks === 1 ? "a week" : `${weeks} weeks`} after we told you it was overdue.`,
+    ],
+    "Open the action",
+  );
+
+export const verificationRequestedMail = (facts: ActionMailFacts, by: string, note: string) =>
+  actionMail(
+    "action_awaiting_verification",
+    facts,
+    `Fix to verify: ${facts.spaceName}`,
+    [
+      `${by} has fixed a finding and asks an auditor of the site to verify it.`,
+      `Their note: ${note}`,
+    ],
+    "Verify the fix",
+  );
+
+export const rejectedMail = (facts: ActionMailFacts, by: string, reason: string) =>
+  actionMail(
+    "action_rejected",
+    facts,
+    `Fix not accepted: ${facts.spaceName}`,
+    [`${by} looked at the proof and did not accept the fix.`, `Reason: ${reason}`],
+    "Open the action",
+  );
+
+export const reopenedMail = (facts: ActionMailFacts, by: string, reason: string) =>
+  actionMail(
+    "action_reopened",
+    facts,
+    `Action reopened: ${facts.spaceName}`,
+    [
+      `${by} has reopened a corrective action that was closed. Its original due time stands.`,
+      `Reason: ${reason}`,
+    ],
+    "Open the action",
+  );

@@ -1,0 +1,276 @@
+import { stringify } from "csv-stringify/sync";
+
+import { formatInZone } from "@shared/calc/due";
+import type { Permission } from "@shared/permissions";
+import {
+  actionListQuerySchema,
+  actionNoteBodySchema,
+  actionParamsSchema,
+  actionReasonBodySchema,
+  actionStatusLabels,
+  assigneeBodySchema,
+  duePolicySchema,
+} from "@shared/schemas/actions";
+import { siteParamsSchema } from "@shared/schemas/site";
+import { zoneTypeLabels } from "@shared/zones";
+
+import { readUpload } from "../../lib/images";
+import { defineRoute, type Access } from "../../lib/routes";
+import * as actions from "./actions.service";
+
+const viaAction = (permission: Permission): Access => ({
+  kind: "site",
+  permission,
+  siteOf: (params, deps) => actions.siteOfAction(deps.db, params.actionId!),
+});
+
+const atSite = (permission: Permission): Access => ({
+  kind: "site",
+  permission,
+  siteOf: async (params) => params.siteId!,
+});
+
+/** A spreadsheet would run a cell that starts like a formula; such cells are kept as text. */
+const asCell = (value: string) => (/^[=+\-@\t\r]/.test(value) ? `'${value}` : value);
+
+export const actionRoutes = [
+  defineRoute({
+    method: "get",
+    path: "/sites/:siteId/actions",
+    summary:
+      "A site's corrective actions, unclosed and overdue first (filters: state, floor, space, severity, overdue)",
+    access: atSite("read:site:site"),
+    params: siteParamsSchema,
+    query: actionListQuerySchema,
+    async handle({ res, deps, params, query }) {
+      res.json({ actions: await actions.listActions(deps.db, params.siteId, query) });
+    },
+  }),
+  defineRoute({
+    method: "get",
+    path: "/sites/:siteId/actions/export",
+    summary: "The same list as CSV, one row per action",
+    access: atSite("read:site:site"),
+    params: siteParamsSchema,
+    query: actionListQuerySchema,
+    async handle({ res, deps, params, query }) {
+      const rows = await actions.listActions(deps.db, params.siteId, query);
+      const csv = stringify(
+        rows.map((row) =>
+          [
+            row.id,
+            row.siteName,
+            row.floorName,
+            row.spaceName,
+            zoneTypeLabels[row.zoneType],
+            row.title,
+            row.severity,
+            actionStatusLabels[row.status],
+            row.assignee?.name ?? "",
+            row.openedAt,
+            row.dueAt,
+            formatInZone(new Date(row.dueAt), row.siteTimeZone),
+            row.overdue ? "yes" : "no",
+            row.closedAt ?? "",
+            row.daysToClose ?? "",
+            row.findingCount,
+            actions.actionLink(deps.env, row.id),
+          ].map((cell) => asCell(String(cell))),
+        ),
+        {
+          header: true,
+          columns: [
+            "id",
+            "site",
+            "floor",
+            "space",
+            "zone type",
+            "item",
+            "severity",
+            "status",
+            "owner",
+            "opened (UTC)",
+            "due (UTC)",
+            "due (site time)",
+            "overdue",
+            "closed (UTC)",
+            "days to close",
+            "findings",
+            "link",
+          ],
+        },
+      );
+      const day = new Date().toISOString().slice(0, 10);
+      res
+        .status(200)
+        .type("text/csv; charset=utf-8")
+        .attachment(`corrective-actions-${day}.csv`)
+        .send(`\uFEFF${csv}`);
+    },
+  }),
+  defineRoute({
+    method: "get",
+    path: "/my/actions",
+    summary: "The unclosed actions the person owns, overdue first",
+    access: { kind: "signed-in" },
+    async handle({ res, deps, auth }) {
+      res.json({ actions: await actions.myActions(deps.db, auth!) });
+    },
+  }),
+  defineRoute({
+    method: "get",
+    path: "/actions/:actionId",
+    summary: "A corrective action with its findings, photos, proof, plan position and timeline",
+    access: viaAction("read:site:site"),
+    params: actionParamsSchema,
+    async handle({ res, deps, params }) {
+      res.json(await actions.actionDetail(deps.db, params.actionId));
+    },
+  }),
+  defineRoute({
+    method: "post",
+    path: "/actions/:actionId/start",
+    summary: "Mark an open action in progress (facilities lead)",
+    access: viaAction("work:action:site"),
+    params: actionParamsSchema,
+    async handle({ res, deps, auth, params, requestId }) {
+      res.json(
+        await actions.startAction({ deps, auth: auth!, actionId: params.actionId, requestId }),
+      );
+    },
+  }),
+  defineRoute({
+    method: "post",
+    path: "/actions/:actionId/proofs",
+    summary: "Attach a photo of the fix (multipart: photo)",
+    access: viaAction("work:action:site"),
+    params: actionParamsSchema,
+    async handle({ req, res, deps, auth, params, requestId }) {
+      const buffer = await readUpload(req, res, "photo");
+      res
+        .status(201)
+        .json(
+          await actions.addProof(
+            { deps, auth: auth!, actionId: params.actionId, requestId },
+            buffer,
+          ),
+        );
+    },
+  }),
+  defineRoute({
+    method: "post",
+    path: "/actions/:actionId/verification-request",
+    summary: "Send the fix for verification, with a note (needs proof of this attempt)",
+    access: viaAction("work:action:site"),
+    params: actionParamsSchema,
+    body: actionNoteBodySchema,
+    async handle({ res, deps, auth, params, body, requestId }) {
+      res.json(
+        await actions.sendForVerification(
+          { deps, auth: auth!, actionId: params.actionId, requestId },
+          body.note,
+        ),
+      );
+    },
+  }),
+  defineRoute({
+    method: "post",
+    path: "/actions/:actionId/verify",
+    summary: "Verify the fix and close the action, with a note (auditor)",
+    access: viaAction("verify:action:site"),
+    params: actionParamsSchema,
+    body: actionNoteBodySchema,
+    async handle({ res, deps, auth, params, body, requestId }) {
+      res.json(
+        await actions.verifyAction(
+          { deps, auth: auth!, actionId: params.actionId, requestId },
+          body.note,
+        ),
+      );
+    },
+  }),
+  defineRoute({
+    method: "post",
+    path: "/actions/:actionId/reject",
+    summary: "Reject the proof with a reason; the action goes back to in progress (auditor)",
+    access: viaAction("verify:action:site"),
+    params: actionParamsSchema,
+    body: actionReasonBodySchema,
+    async handle({ res, deps, auth, params, body, requestId }) {
+      res.json(
+        await actions.rejectAction(
+          { deps, auth: auth!, actionId: params.actionId, requestId },
+          body.reason,
+        ),
+      );
+    },
+  }),
+  defineRoute({
+    method: "post",
+    path: "/actions/:actionId/reopen",
+    summary: "Reopen a closed action with a reason; it keeps its history and due time (auditor)",
+    access: viaAction("verify:action:site"),
+    params: actionParamsSchema,
+    body: actionReasonBodySchema,
+    async handle({ res, deps, auth, params, body, requestId }) {
+      res.json(
+        await actions.reopenAction(
+          { deps, auth: auth!, actionId: params.actionId, requestId },
+          body.reason,
+        ),
+      );
+    },
+  }),
+  defineRoute({
+    method: "put",
+    path: "/actions/:actionId/assignee",
+    summary: "Give the action to another facilities lead of the site",
+    access: viaAction("assign:action:site"),
+    params: actionParamsSchema,
+    body: assigneeBodySchema,
+    async handle({ res, deps, auth, params, body, requestId }) {
+      res.json(
+        await actions.assignAction(
+          { deps, auth: auth!, actionId: params.actionId, requestId },
+          body.assigneeId,
+        ),
+      );
+    },
+  }),
+  defineRoute({
+    method: "get",
+    path: "/sites/:siteId/action-assignees",
+    summary: "Who may own the site's actions (its active facilities leads)",
+    access: atSite("assign:action:site"),
+    params: siteParamsSchema,
+    async handle({ res, deps, params }) {
+      res.json({ people: await actions.assigneeOptions(deps.db, params.siteId) });
+    },
+  }),
+  defineRoute({
+    method: "get",
+    path: "/sites/:siteId/due-policy",
+    summary: "The site's due times by severity",
+    access: atSite("read:site:site"),
+    params: siteParamsSchema,
+    async handle({ res, deps, params }) {
+      res.json(await actions.sitePolicy(deps.db, params.siteId));
+    },
+  }),
+  defineRoute({
+    method: "put",
+    path: "/sites/:siteId/due-policy",
+    summary: "Change the site's due times by severity (new actions only)",
+    access: atSite("update:site:site"),
+    params: siteParamsSchema,
+    body: duePolicySchema,
+    async handle({ res, deps, auth, params, body, requestId }) {
+      res.json(
+        await actions.setSitePolicy(deps.db, params.siteId, body, {
+          userId: auth!.user.id,
+          requestId,
+        }),
+      );
+    },
+  }),
+];

@@ -1,0 +1,176 @@
+import { z } from "zod";
+
+import { dueUnits, maxDueAmount } from "../calc/due";
+import { severities } from "../calc/verdict";
+import { zoneTypes } from "../zones";
+import { numberInput, text, uuidSchema } from "./common";
+
+/** open → in progress → awaiting verification → closed; rejected or reopened go back to in progress. */
+export const actionStatuses = ["open", "in_progress", "awaiting_verification", "closed"] as const;
+export type ActionStatus = (typeof actionStatuses)[number];
+
+export const actionStatusLabels: Record<ActionStatus, string> = {
+  open: "Open",
+  in_progress: "In progress",
+  awaiting_verification: "Awaiting verification",
+  closed: "Closed",
+};
+
+export const actionParamsSchema = z.strictObject({ actionId: uuidSchema });
+
+const boolFlag = z.enum(["true", "false"], { message: "Use true or false." });
+
+/** Filters of a site's list; the map asks for the open ones on one floor. */
+export const actionListQuerySchema = z.strictObject({
+  state: z
+    .enum(["open", "closed", "all"], { message: "Use open, closed or all." })
+    .optional()
+    .default("all"),
+  floorId: uuidSchema.optional(),
+  spaceId: uuidSchema.optional(),
+  severity: z.enum(severities, { message: "Use critical, major or minor." }).optional(),
+  overdue: boolFlag.optional(),
+});
+export type ActionListQuery = z.infer<typeof actionListQuerySchema>;
+
+export const personRefSchema = z.object({ id: uuidSchema, name: z.string() });
+
+export const actionSummarySchema = z.object({
+  id: uuidSchema,
+  siteId: uuidSchema,
+  siteName: z.string(),
+  siteTimeZone: z.string(),
+  spaceId: uuidSchema,
+  spaceName: z.string(),
+  zoneType: z.enum(zoneTypes),
+  floorId: uuidSchema,
+  floorName: z.string(),
+  itemKey: z.string(),
+  title: z.string(),
+  severity: z.enum(severities),
+  status: z.enum(actionStatuses),
+  assignee: personRefSchema.nullable(),
+  openedAt: z.string(),
+  dueAt: z.string(),
+  closedAt: z.string().nullable(),
+  /** Elapsed days from opening to the latest close. */
+  daysToClose: z.number().nullable(),
+  overdue: z.boolean(),
+  findingCount: z.number().int(),
+  /** Where the pin goes, in plan units of the floor. */
+  position: z.object({ x: z.number(), y: z.number() }),
+});
+export type ActionSummary = z.infer<typeof actionSummarySchema>;
+
+export const actionListResponseSchema = z.object({ actions: z.array(actionSummarySchema) });
+
+export const findingSchema = z.object({
+  id: uuidSchema,
+  auditId: uuidSchema,
+  auditedAt: z.string(),
+  auditorName: z.string(),
+  itemText: z.string(),
+  severity: z.enum(severities),
+  note: z.string().nullable(),
+  photos: z.array(z.object({ imageId: uuidSchema })),
+});
+export type Finding = z.infer<typeof findingSchema>;
+
+export const proofSchema = z.object({
+  id: uuidSchema,
+  imageId: uuidSchema,
+  uploadedBy: z.string().nullable(),
+  createdAt: z.string(),
+  /** Proof of the current attempt counts towards sending for verification; older proof stays. */
+  current: z.boolean(),
+});
+export type Proof = z.infer<typeof proofSchema>;
+
+export const timelineKinds = [
+  "opened",
+  "finding_added",
+  "assigned",
+  "started",
+  "proof_added",
+  "sent_for_verification",
+  "verified",
+  "rejected",
+  "reopened",
+] as const;
+export type TimelineKind = (typeof timelineKinds)[number];
+
+export const timelineEntrySchema = z.object({
+  id: uuidSchema,
+  at: z.string(),
+  kind: z.enum(timelineKinds),
+  actorName: z.string().nullable(),
+  fromStatus: z.enum(actionStatuses).nullable(),
+  toStatus: z.enum(actionStatuses).nullable(),
+  /** The note or reason given with the move. */
+  text: z.string().nullable(),
+});
+export type TimelineEntry = z.infer<typeof timelineEntrySchema>;
+
+export const actionDetailSchema = z.object({
+  action: actionSummarySchema,
+  findings: z.array(findingSchema),
+  proofs: z.array(proofSchema),
+  timeline: z.array(timelineEntrySchema),
+  plan: z
+    .object({
+      imageId: uuidSchema,
+      width: z.number(),
+      height: z.number(),
+      spacePolygon: z.array(z.tuple([z.number(), z.number()])),
+    })
+    .nullable(),
+});
+export type ActionDetail = z.infer<typeof actionDetailSchema>;
+
+const longText = (min: number, tooShort: string) =>
+  text().trim().min(min, { message: tooShort }).max(2000, { message: "At most 2000 characters." });
+
+/** Sending for verification and verifying both need a note of what was done or seen. */
+export const actionNoteBodySchema = z.strictObject({
+  note: longText(3, "Say what was done or seen, in a few words."),
+});
+export type ActionNoteBody = z.infer<typeof actionNoteBodySchema>;
+
+/** Rejecting proof and reopening a closed action both need a reason. */
+export const actionReasonBodySchema = z.strictObject({
+  reason: longText(5, "Say why, in a few words."),
+});
+export type ActionReasonBody = z.infer<typeof actionReasonBodySchema>;
+
+export const assigneeBodySchema = z.strictObject({ assigneeId: uuidSchema });
+
+export const assigneeListResponseSchema = z.object({ people: z.array(personRefSchema) });
+
+const dueRuleSchema = z
+  .strictObject({
+    amount: numberInput().int({ message: "A whole number." }),
+    unit: z.enum(dueUnits, { message: "Use hours or days." }),
+  })
+  .superRefine((rule, ctx) => {
+    const max = maxDueAmount[rule.unit];
+    if (rule.amount < 1 || rule.amount > max) {
+      ctx.addIssue({
+        code: "custom",
+        path: ["amount"],
+        message: `Between 1 and ${max} ${rule.unit}.`,
+      });
+    }
+  });
+
+export const duePolicySchema = z.strictObject({
+  critical: dueRuleSchema,
+  major: dueRuleSchema,
+  minor: dueRuleSchema,
+});
+
+export const duePolicyResponseSchema = z.object({
+  policy: duePolicySchema,
+  /** True while the site uses the defaults (common practice: 24 hours, 7 days, 30 days). */
+  isDefault: z.boolean(),
+});
+export type DuePolicyResponse = z.infer<typeof duePolicyResponseSchema>;
