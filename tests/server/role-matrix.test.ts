@@ -9,8 +9,10 @@ import type { Role } from "@shared/roles";
 
 import { hashPassword } from "../../server/auth/password";
 import {
+  actionProofs,
   auditAnswers,
   audits,
+  correctiveActions,
   checklistItems,
   checklistVersions,
   fixtures,
@@ -80,6 +82,8 @@ interface World {
   imageA: string;
   planPng: Buffer;
   signInEmail: string;
+  /** The facilities lead at site A, whom actions can be given to. */
+  leadA: string;
   /** A hash of "matrix-password-1", so password changes need no hashing per call. */
   knownHash: string;
 }
@@ -194,7 +198,149 @@ async function auditAtA(
   return { auditId, spaceId: space.id, itemId: item!.id };
 }
 
+/** A corrective action at site A in the given state; with proof of the current attempt when asked. */
+async function actionAtA(
+  world: World,
+  status: "open" | "in_progress" | "awaiting_verification" | "closed",
+  withProof = false,
+) {
+  const space = await spaceAtA(world);
+  const { db } = testApp().deps;
+  const now = new Date();
+  const [action] = await db
+    .insert(correctiveActions)
+    .values({
+      siteId: world.siteA,
+      spaceId: space.id,
+      floorId: world.floorA,
+      itemKey: "matrix-item",
+      title: "Dirty chair labelled",
+      severity: "major",
+      status,
+      assigneeId: world.leadA,
+      openedAt: now,
+      dueAt: new Date(now.getTime() + 7 * 24 * 3600 * 1000),
+      closedAt: status === "closed" ? now : null,
+      x: 100,
+      y: 100,
+    })
+    .returning();
+  if (withProof) {
+    await db
+      .insert(actionProofs)
+      .values({ actionId: action!.id, imageId: world.imageA, round: 0, uploadedBy: null });
+  }
+  return action!.id;
+}
+
+const leadsAtA: Caller[] = ["facilities lead @A"];
+const assigners: Caller[] = [...admins, "facilities lead @A"];
+
 const samples: Record<string, Sample> = {
+  "GET /sites/:siteId/actions": {
+    prepare: (w) => ({ url: `/api/sites/${w.siteA}/actions?state=open` }),
+    ok: 200,
+    allowed: readers,
+    hidden: notAtA,
+  },
+  "GET /sites/:siteId/actions/export": {
+    prepare: (w) => ({ url: `/api/sites/${w.siteA}/actions/export` }),
+    ok: 200,
+    allowed: readers,
+    hidden: notAtA,
+  },
+  "GET /my/actions": { prepare: () => ({ url: "/api/my/actions" }), ok: 200, allowed: everyone },
+  "GET /actions/:actionId": {
+    prepare: async (w) => ({ url: `/api/actions/${await actionAtA(w, "open")}` }),
+    ok: 200,
+    allowed: readers,
+    hidden: notAtA,
+  },
+  "POST /actions/:actionId/start": {
+    prepare: async (w) => ({ url: `/api/actions/${await actionAtA(w, "open")}/start` }),
+    ok: 200,
+    allowed: leadsAtA,
+    hidden: notAtA,
+  },
+  "POST /actions/:actionId/proofs": {
+    prepare: async (w) => ({
+      url: `/api/actions/${await actionAtA(w, "in_progress")}/proofs`,
+      file: { field: "photo", content: w.planPng, name: "fixed.png" },
+    }),
+    ok: 201,
+    allowed: leadsAtA,
+    hidden: notAtA,
+  },
+  "POST /actions/:actionId/verification-request": {
+    prepare: async (w) => ({
+      url: `/api/actions/${await actionAtA(w, "in_progress", true)}/verification-request`,
+      body: { note: "New labelled chair in place" },
+    }),
+    ok: 200,
+    allowed: leadsAtA,
+    hidden: notAtA,
+  },
+  "POST /actions/:actionId/verify": {
+    prepare: async (w) => ({
+      url: `/api/actions/${await actionAtA(w, "awaiting_verification", true)}/verify`,
+      body: { note: "Seen in place" },
+    }),
+    ok: 200,
+    allowed: auditors,
+    hidden: notAtA,
+  },
+  "POST /actions/:actionId/reject": {
+    prepare: async (w) => ({
+      url: `/api/actions/${await actionAtA(w, "awaiting_verification", true)}/reject`,
+      body: { reason: "The label is missing" },
+    }),
+    ok: 200,
+    allowed: auditors,
+    hidden: notAtA,
+  },
+  "POST /actions/:actionId/reopen": {
+    prepare: async (w) => ({
+      url: `/api/actions/${await actionAtA(w, "closed")}/reopen`,
+      body: { reason: "Chair gone again" },
+    }),
+    ok: 200,
+    allowed: auditors,
+    hidden: notAtA,
+  },
+  "PUT /actions/:actionId/assignee": {
+    prepare: async (w) => ({
+      url: `/api/actions/${await actionAtA(w, "open")}/assignee`,
+      body: { assigneeId: w.leadA },
+    }),
+    ok: 200,
+    allowed: assigners,
+    hidden: notAtA,
+  },
+  "GET /sites/:siteId/action-assignees": {
+    prepare: (w) => ({ url: `/api/sites/${w.siteA}/action-assignees` }),
+    ok: 200,
+    allowed: assigners,
+    hidden: notAtA,
+  },
+  "GET /sites/:siteId/due-policy": {
+    prepare: (w) => ({ url: `/api/sites/${w.siteA}/due-policy` }),
+    ok: 200,
+    allowed: readers,
+    hidden: notAtA,
+  },
+  "PUT /sites/:siteId/due-policy": {
+    prepare: (w) => ({
+      url: `/api/sites/${w.siteA}/due-policy`,
+      body: {
+        critical: { amount: 12, unit: "hours" },
+        major: { amount: 5, unit: "days" },
+        minor: { amount: 21, unit: "days" },
+      },
+    }),
+    ok: 200,
+    allowed: admins,
+    hidden: notAtA,
+  },
   "GET /checklists": { prepare: () => ({ url: "/api/checklists" }), ok: 200, allowed: everyone },
   "PUT /checklists/:zoneType/draft": {
     prepare: () => ({
@@ -674,6 +820,7 @@ describe("role matrix: every registered route, as every role, another site's mem
       userIds[caller] = (await signInAs(network.id, grants)).user.id;
     }
     world.auditorA = userIds["auditor @A"];
+    world.leadA = userIds["facilities lead @A"];
   });
   afterAll(async () => {
     await matrixApp.database.close();
