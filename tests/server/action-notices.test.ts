@@ -69,7 +69,7 @@ describe("corrective action e-mail and notices", () => {
     try {
       const action = await failedAudit("Spare clean gloves in several sizes");
       // Assignment: one e-mail to the owner.
-      await mail.catcher.waitFor((messages) => mailTo(mail.catcher, lead.user.email).length >= 1);
+      await mail.catcher.waitFor(() => mailTo(mail.catcher, lead.user.email).length >= 1);
 
       await mail.catcher.stop();
       await as(lead).post(`/api/actions/${action.id}/start`);
@@ -156,7 +156,7 @@ describe("corrective action e-mail and notices", () => {
     expect(notices.map((notice) => notice.kind).sort()).toEqual(
       ["due-soon", "overdue", "reminder-1", "reminder-5"].sort(),
     );
-    await mail.catcher.waitFor((messages) => mailTo(mail.catcher, lead.user.email).length >= 5);
+    await mail.catcher.waitFor(() => mailTo(mail.catcher, lead.user.email).length >= 5);
     await settle();
     const subjects = mailTo(mail.catcher, lead.user.email).map((m) => m.subject.split(":")[0]);
     expect(subjects.sort()).toEqual(
