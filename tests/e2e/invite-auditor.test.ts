@@ -1,32 +1,10 @@
-import { readdirSync, readFileSync } from "node:fs";
-import path from "node:path";
-
 import type { Browser, Page } from "playwright-core";
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
 
-import type { MailboxMessage } from "@shared/schemas/people";
+import { baseUrl, launchBrowser, phonePage, receivedMail, signIn } from "../helpers/browser";
 
-import { baseUrl, launchBrowser, phonePage } from "../helpers/browser";
-
-/** Waits for the e-mail the local SMTP catcher received for `to`. */
-async function receivedMail(to: string, timeoutMs = 15_000): Promise<MailboxMessage> {
-  const dir = process.env.LINTEL_E2E_MAILBOX_DIR!;
-  const deadline = Date.now() + timeoutMs;
-  for (;;) {
-    for (const file of readdirSync(dir)) {
-      const message = JSON.parse(readFileSync(path.join(dir, file), "utf8")) as MailboxMessage;
-      if (message.to.includes(to)) return message;
-    }
-    if (Date.now() > deadline) throw new Error(`no e-mail for ${to} within ${timeoutMs} ms`);
-    await new Promise((resolve) => setTimeout(resolve, 100));
-  }
-}
-
-async function signIn(page: Page, email: string, password: string) {
-  await page.goto(`${baseUrl()}/sign-in`);
-  await page.getByLabel("E-mail").fill(email);
-  await page.getByLabel("Password").fill(password);
-  await page.getByRole("button", { name: "Sign in" }).click();
+async function signInHome(page: Page, email: string, password: string) {
+  await signIn(page, email, password);
   await page.getByRole("heading", { level: 1, name: "My sites" }).waitFor();
 }
 
@@ -42,7 +20,7 @@ describe("inviting an auditor on a phone (390×844)", () => {
   it("when the administrator invites an auditor for one site, then the invitee joins from the e-mail and sees only that site", async () => {
     const invitee = `new.auditor.${Date.now()}@example.org`;
     const admin = await phonePage(browser);
-    await signIn(admin.page, "admin@example.org", "lintel-demo-2026");
+    await signInHome(admin.page, "admin@example.org", "lintel-demo-2026");
 
     await admin.page.getByRole("link", { name: "People" }).last().click();
     await admin.page.getByRole("heading", { level: 1, name: "People" }).waitFor();
@@ -78,7 +56,7 @@ describe("inviting an auditor on a phone (390×844)", () => {
 
     // Signed out, the new password works from the sign-in page too.
     await newcomer.page.context().clearCookies();
-    await signIn(newcomer.page, invitee, "morning rounds on the rehab ward");
+    await signInHome(newcomer.page, invitee, "morning rounds on the rehab ward");
     expect(await newcomer.page.getByText("Tamsin Bay General Hospital").count()).toBe(0);
     expect(newcomer.problems).toEqual([]);
 
@@ -92,7 +70,7 @@ describe("inviting an auditor on a phone (390×844)", () => {
 
   it("when an administrator opens the mailbox page, then the invitation e-mail is listed", async () => {
     const admin = await phonePage(browser);
-    await signIn(admin.page, "admin@example.org", "lintel-demo-2026");
+    await signInHome(admin.page, "admin@example.org", "lintel-demo-2026");
     await admin.page.goto(`${baseUrl()}/admin/mail`);
     await admin.page.getByRole("heading", { level: 1, name: "Mailbox" }).waitFor();
     await admin.page

@@ -1,4 +1,9 @@
+import { readdirSync, readFileSync } from "node:fs";
+import path from "node:path";
+
 import { chromium, type Browser, type Page } from "playwright-core";
+
+import type { MailboxMessage } from "@shared/schemas/people";
 
 import { chromiumArgs } from "../../scripts/lib/chromium";
 
@@ -29,4 +34,30 @@ export async function phonePage(browser: Browser): Promise<{ page: Page; problem
   });
   page.on("pageerror", (error) => problems.push(error.message));
   return { page, problems };
+}
+
+/** Waits for an e-mail the local SMTP catcher received for `to` (and matching `accept`). */
+export async function receivedMail(
+  to: string,
+  accept: (message: MailboxMessage) => boolean = () => true,
+  timeoutMs = 15_000,
+): Promise<MailboxMessage> {
+  const dir = process.env.LINTEL_E2E_MAILBOX_DIR!;
+  const deadline = Date.now() + timeoutMs;
+  for (;;) {
+    for (const file of readdirSync(dir)) {
+      const message = JSON.parse(readFileSync(path.join(dir, file), "utf8")) as MailboxMessage;
+      if (message.to.includes(to) && accept(message)) return message;
+    }
+    if (Date.now() > deadline) throw new Error(`no e-mail for ${to} within ${timeoutMs} ms`);
+    await new Promise((resolve) => setTimeout(resolve, 100));
+  }
+}
+
+/** Fills in the sign-in page: opened first, unless a link has just led there (`goTo` false). */
+export async function signIn(page: Page, email: string, password: string, goTo = true) {
+  if (goTo) await page.goto(`${baseUrl()}/sign-in`);
+  await page.getByLabel("E-mail").fill(email);
+  await page.getByLabel("Password").fill(password);
+  await page.getByRole("button", { name: "Sign in" }).click();
 }

@@ -556,6 +556,31 @@ describe("corrective actions", () => {
     expect(lines[1]).toContain(`http://lintel.test/actions/${action!.id}`);
   });
 
+  it("when an administrator amends a passed answer to failed, then the finding opens an action; amending it back leaves the action for an auditor to close", async () => {
+    const space = await insertSpace(testApp().deps.db, floor);
+    const { auditId } = await submitWithFailures(space, []);
+    expect(await actionsOf(space.id)).toHaveLength(0);
+    const detail = (await as(admin).get(`/api/audits/${auditId}`)).body;
+    const wipes = detail.items.find((i: { text: string }) =>
+      i.text.startsWith("Disinfectant wipes"),
+    );
+    const amended = await as(admin)
+      .post(`/api/audits/${auditId}/amendments`)
+      .send({
+        itemId: wipes.id,
+        outcome: "fail",
+        note: "No wipes",
+        reason: "Entered as pass by mistake",
+      });
+    expect(amended.status).toBe(200);
+    const [action] = await actionsOf(space.id);
+    expect(action).toMatchObject({ status: "open", severity: "major", findingCount: 1 });
+    await as(admin)
+      .post(`/api/audits/${auditId}/amendments`)
+      .send({ itemId: wipes.id, outcome: "pass", reason: "Wipes were there after all" });
+    expect((await actionsOf(space.id))[0]).toMatchObject({ id: action!.id, status: "open" });
+  });
+
   it("when the list filter is unknown, then 400 names the field", async () => {
     const response = await as(auditor).get(`/api/sites/${siteId}/actions?state=sometimes`);
     expect(response.status).toBe(400);

@@ -382,7 +382,7 @@ export async function amendAudit(
   ) {
     throw invalid("note", "Not applicable on a critical item needs a note saying why.");
   }
-  await deps.db.transaction(async (tx) => {
+  const queued = await deps.db.transaction(async (tx) => {
     await repo.lockAudit(tx, auditId);
     await repo.setAnswerOutcome(tx, auditId, body.itemId, body.outcome, body.note);
     const outcomes = detail.items.flatMap((candidate) => {
@@ -414,7 +414,27 @@ export async function amendAudit(
       },
       reason: body.reason,
     });
+    // A correction to "fail" is a finding like any other; one away from "fail" leaves the action
+    // to be closed by an auditor's verification, so nothing is closed silently.
+    if (body.outcome !== "fail" || before.outcome === "fail") return 0;
+    return recordFindings(
+      tx,
+      deps.env,
+      detail.audit,
+      [
+        {
+          itemId: item.id,
+          key: item.key,
+          text: item.text,
+          severity: item.severity,
+          note: body.note ?? before.note,
+        },
+      ],
+      actor,
+      new Date(),
+    );
   });
+  if (queued > 0) deps.notifyOutbox();
   return auditDetail(deps.db, auditId);
 }
 
