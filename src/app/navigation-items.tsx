@@ -2,7 +2,14 @@ import type { RoleGrant } from "@shared/roles";
 import { useMemo } from "react";
 
 import type { NavigationItem } from "@/components/layouts/navigation";
-import { AccountIcon, ChecklistIcon, MailIcon, PeopleIcon, SitesIcon } from "@/components/ui/icons";
+import {
+  AccountIcon,
+  ActionsIcon,
+  ChecklistIcon,
+  MailIcon,
+  PeopleIcon,
+  SitesIcon,
+} from "@/components/ui/icons";
 import { paths } from "@/config/paths";
 import { useAppConfig } from "@/features/admin/api/get-app-config";
 import { canAnywhere } from "@/lib/authorization";
@@ -15,6 +22,13 @@ export const navigationItems: readonly NavigationItem[] = [
     icon: <SitesIcon />,
     end: true,
     alsoActiveOn: [paths.site.path, paths.spaceAudits.path],
+  },
+  {
+    label: "Actions",
+    to: paths.myActions.getHref(),
+    icon: <ActionsIcon />,
+    permission: "work:action:site",
+    alsoActiveOn: [paths.action.path],
   },
   {
     label: "People",

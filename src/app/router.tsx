@@ -111,6 +111,31 @@ export function createRoutes(queryClient: QueryClient): RouteObject[] {
               },
             },
             {
+              path: paths.siteActions.path,
+              errorElement: <RouteError />,
+              lazy: async () => {
+                const { SiteActionsRoute, siteActionsLoader } =
+                  await import("./routes/site-actions");
+                return { Component: SiteActionsRoute, loader: siteActionsLoader(queryClient) };
+              },
+            },
+            {
+              path: paths.myActions.path,
+              errorElement: <RouteError />,
+              lazy: async () => {
+                const { MyActionsRoute, myActionsLoader } = await import("./routes/my-actions");
+                return { Component: MyActionsRoute, loader: myActionsLoader(queryClient) };
+              },
+            },
+            {
+              path: paths.action.path,
+              errorElement: <RouteError />,
+              lazy: async () => {
+                const { ActionRoute, actionLoader } = await import("./routes/action");
+                return { Component: ActionRoute, loader: actionLoader(queryClient) };
+              },
+            },
+            {
               path: paths.checklists.path,
               errorElement: <RouteError />,
               lazy: async () => {

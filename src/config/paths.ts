@@ -48,6 +48,21 @@ export const paths = {
     path: "/audits/:auditId",
     getHref: (auditId: string) => `/audits/${encodeURIComponent(auditId)}`,
   },
+  siteActions: {
+    path: "/sites/:siteId/actions",
+    getHref: (siteId: string, search?: URLSearchParams | string) => {
+      const query = search ? String(search) : "";
+      return `/sites/${encodeURIComponent(siteId)}/actions${query ? `?${query}` : ""}`;
+    },
+  },
+  myActions: {
+    path: "/actions",
+    getHref: () => "/actions",
+  },
+  action: {
+    path: "/actions/:actionId",
+    getHref: (actionId: string) => `/actions/${encodeURIComponent(actionId)}`,
+  },
   checklists: {
     path: "/admin/checklists",
     getHref: () => "/admin/checklists",

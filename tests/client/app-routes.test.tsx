@@ -116,17 +116,21 @@ describe("my sites", () => {
 });
 
 describe("site overview", () => {
-  it("when the site is one of the person's, then its details and what is coming are shown", async () => {
+  it("when the site is one of the person's, then its details and its corrective actions are shown", async () => {
     stubApi({
       ...signedInAsAuditor,
       [`GET /api/sites/${tamsinGeneral.id}`]: () => jsonResponse({ site: tamsinGeneral }),
+      [`GET /api/sites/${tamsinGeneral.id}/actions`]: () => jsonResponse({ actions: [] }),
     });
     renderApp(`/sites/${tamsinGeneral.id}`);
 
     expect(await screen.findByRole("heading", { level: 1, name: tamsinGeneral.name })).toBeTruthy();
     expect(screen.getByText(tamsinGeneral.address)).toBeTruthy();
     expect(screen.getByText("Your role here: Auditor")).toBeTruthy();
-    expect(screen.getByRole("heading", { name: "Coming to this site" })).toBeTruthy();
+    expect(screen.getByRole("heading", { name: "Corrective actions" })).toBeTruthy();
+    expect(
+      screen.getByRole("link", { name: "See all corrective actions" }).getAttribute("href"),
+    ).toBe(`/sites/${tamsinGeneral.id}/actions`);
     expect(screen.getByRole("complementary", { name: "Caution" }).textContent).toContain(
       "it does not replace it",
     );

@@ -48,7 +48,8 @@ describe("who sees people and the mailbox", () => {
     renderApp("/");
 
     await screen.findByRole("heading", { level: 1, name: "My sites" });
-    expect(navigationLinks()).toEqual(["Sites", "Account"]);
+    // This auditor is also a facilities lead at another site, so their own actions are listed.
+    expect(navigationLinks()).toEqual(["Sites", "Actions", "Account"]);
     expect(calls.some((call) => call.path === "/api/app-config")).toBe(false);
   });
 

@@ -9,6 +9,8 @@ import { EmptyState } from "@/components/ui/empty-state";
 import { Spinner } from "@/components/ui/spinner";
 import { TextLink } from "@/components/ui/text-link";
 import { paths } from "@/config/paths";
+import { duePolicyQueryOptions } from "@/features/actions/api/get-due-policy";
+import { DuePolicyForm } from "@/features/actions/components/due-policy-form";
 import { siteQueryOptions, useSite } from "@/features/sites/api/get-site";
 import { EditSiteForm } from "@/features/sites/components/site-form";
 import { isApiError } from "@/lib/api-client";
@@ -22,6 +24,7 @@ export function editSiteLoader(queryClient: QueryClient) {
     const parsed = siteParamsSchema.safeParse(params);
     if (parsed.success && (await isSignedIn(queryClient))) {
       void queryClient.prefetchQuery(siteQueryOptions(parsed.data.siteId));
+      void queryClient.prefetchQuery(duePolicyQueryOptions(parsed.data.siteId));
     }
     return null;
   };
@@ -70,6 +73,10 @@ function EditSite({ siteId }: { siteId: string }) {
           site={site.data}
           onSaved={() => void navigate(paths.site.getHref(siteId), { replace: true })}
         />
+      </Card>
+      <Card className="mt-6">
+        <h2 className="mb-2 text-lg font-semibold">Due times for corrective actions</h2>
+        <DuePolicyForm siteId={siteId} />
       </Card>
     </>
   );

@@ -1,7 +1,8 @@
 import { floorParamsSchema } from "@shared/schemas/floors";
 import { siteParamsSchema } from "@shared/schemas/site";
 import type { QueryClient } from "@tanstack/react-query";
-import { Link, type LoaderFunctionArgs, useParams } from "react-router-dom";
+import { useMemo, useState } from "react";
+import { Link, type LoaderFunctionArgs, useNavigate, useParams } from "react-router-dom";
 
 import { Alert } from "@/components/ui/alert";
 import { Button, buttonStyles } from "@/components/ui/button";
@@ -10,8 +11,13 @@ import { EmptyState } from "@/components/ui/empty-state";
 import { Spinner } from "@/components/ui/spinner";
 import { TextLink } from "@/components/ui/text-link";
 import { paths } from "@/config/paths";
+import { siteActionsQueryOptions, useSiteActions } from "@/features/actions/api/get-site-actions";
+import { FloorActionsKey } from "@/features/actions/components/floor-actions-key";
+import { applyPinFilter, type PinFilter, showAllPins } from "@/features/actions/lib/action-filters";
+import { actionPinHtml, actionPinTitle } from "@/features/actions/lib/action-pins";
 import { floorQueryOptions, useFloor } from "@/features/floor-plans/api/get-floor";
 import { FloorPlanView } from "@/features/floor-plans/components/floor-plan-view";
+import type { MapPin } from "@/features/floor-plans/lib/map-pins";
 import { siteQueryOptions, useSite } from "@/features/sites/api/get-site";
 import { isApiError } from "@/lib/api-client";
 import { useAuthorization } from "@/lib/authorization";
@@ -20,12 +26,17 @@ import { isSignedIn } from "../session";
 
 const floorPageParamsSchema = siteParamsSchema.extend(floorParamsSchema.shape);
 
+const openOn = (floorId: string) => ({ state: "open", floorId }) as const;
+
 export function floorLoader(queryClient: QueryClient) {
   return async ({ params }: LoaderFunctionArgs) => {
     const parsed = floorPageParamsSchema.safeParse(params);
     if (parsed.success && (await isSignedIn(queryClient))) {
       void queryClient.prefetchQuery(floorQueryOptions(parsed.data.floorId));
       void queryClient.prefetchQuery(siteQueryOptions(parsed.data.siteId));
+      void queryClient.prefetchQuery(
+        siteActionsQueryOptions(parsed.data.siteId, openOn(parsed.data.floorId)),
+      );
     }
     return null;
   };
@@ -53,6 +64,24 @@ function FloorPage({ siteId, floorId }: { siteId: string; floorId: string }) {
   const { can } = useAuthorization();
   const floor = useFloor(floorId);
   const site = useSite(siteId);
+  const navigate = useNavigate();
+  const actions = useSiteActions(siteId, openOn(floorId));
+  const [pinFilter, setPinFilter] = useState<PinFilter>(showAllPins);
+  const shownActions = useMemo(
+    () => applyPinFilter(actions.data ?? [], pinFilter),
+    [actions.data, pinFilter],
+  );
+  const pins = useMemo<MapPin[]>(
+    () =>
+      shownActions.map((action) => ({
+        id: action.id,
+        position: action.position,
+        html: actionPinHtml(action),
+        title: actionPinTitle(action),
+        onSelect: () => void navigate(paths.action.getHref(action.id)),
+      })),
+    [shownActions, navigate],
+  );
 
   if (floor.isPending) return <Spinner label="Loading floor…" className="py-8" />;
   if (floor.isError) {
@@ -91,6 +120,17 @@ function FloorPage({ siteId, floorId }: { siteId: string; floorId: string }) {
         <FloorPlanView
           detail={floor.data}
           canEdit={can("update:site:site", siteId)}
+          pins={pins}
+          pinKey={
+            <FloorActionsKey
+              filter={pinFilter}
+              onFilterChange={setPinFilter}
+              total={actions.data?.length ?? 0}
+              shown={shownActions.length}
+              loading={actions.isPending}
+              failed={actions.isError}
+            />
+          }
           spaceActions={(space) => (
             <>
               {mayAudit ? (

@@ -4,6 +4,7 @@ import { Link } from "react-router-dom";
 import { buttonStyles } from "@/components/ui/button";
 import { paths } from "@/config/paths";
 
+import { MyActions } from "@/features/actions/components/my-actions";
 import { sitesQueryOptions } from "@/features/sites/api/get-sites";
 import { SitesList } from "@/features/sites/components/sites-list";
 import { MyDueAudits } from "@/features/walkthroughs/components/my-due-audits";
@@ -42,6 +43,7 @@ export function HomeRoute() {
           </Link>
         ) : null}
       </div>
+      {canAnywhere("work:action:site") ? <MyActions actionHref={paths.action.getHref} /> : null}
       {canAnywhere("conduct:audit:site") ? (
         <MyDueAudits startHref={(spaceId) => paths.startAudit.getHref(spaceId)} />
       ) : null}

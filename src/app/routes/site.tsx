@@ -5,12 +5,13 @@ import { Link, type LoaderFunctionArgs, useParams } from "react-router-dom";
 
 import { Alert } from "@/components/ui/alert";
 import { Button, buttonStyles } from "@/components/ui/button";
-import { Card } from "@/components/ui/card";
 import { CautionNote } from "@/components/ui/caution-note";
 import { EmptyState } from "@/components/ui/empty-state";
 import { Spinner } from "@/components/ui/spinner";
 import { TextLink } from "@/components/ui/text-link";
 import { paths } from "@/config/paths";
+import { siteActionsQueryOptions } from "@/features/actions/api/get-site-actions";
+import { SiteActionsSummary } from "@/features/actions/components/site-actions-summary";
 import { floorsQueryOptions } from "@/features/floor-plans/api/get-floors";
 import { FloorsSection } from "@/features/floor-plans/components/floors-section";
 import { siteQueryOptions, useSite } from "@/features/sites/api/get-site";
@@ -30,17 +31,13 @@ export function siteLoader(queryClient: QueryClient) {
       void queryClient.prefetchQuery(siteQueryOptions(parsed.data.siteId));
       void queryClient.prefetchQuery(floorsQueryOptions(parsed.data.siteId));
       void queryClient.prefetchQuery(siteScheduleQueryOptions(parsed.data.siteId));
+      void queryClient.prefetchQuery(
+        siteActionsQueryOptions(parsed.data.siteId, { state: "open" }),
+      );
     }
     return null;
   };
 }
-
-const upcoming = [
-  {
-    title: "Corrective actions",
-    text: "Every gap becomes an action with an owner and a due time, followed until an auditor verifies the fix.",
-  },
-];
 
 function SiteNotFound() {
   return (
@@ -134,21 +131,7 @@ function SiteOverview({ siteId }: { siteId: string }) {
           floorHref={(floorId) => paths.floor.getHref(siteId, floorId)}
         />
 
-        <Card className="bg-brand-50">
-          <h2 className="text-lg font-semibold">Coming to this site</h2>
-          <p className="mt-1 text-ink-muted">
-            Corrective actions will gather here beside the audits and floor plans, so everything
-            about this site&apos;s readiness lives in one place.
-          </p>
-          <ul className="mt-4 grid gap-4">
-            {upcoming.map((item) => (
-              <li key={item.title} className="rounded-lg bg-surface p-4">
-                <h3 className="font-semibold text-brand-800">{item.title}</h3>
-                <p className="mt-1 text-sm text-ink-muted">{item.text}</p>
-              </li>
-            ))}
-          </ul>
-        </Card>
+        <SiteActionsSummary siteId={siteId} listHref={paths.siteActions.getHref(siteId)} />
 
         <CautionNote />
       </div>

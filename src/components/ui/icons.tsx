@@ -123,3 +123,14 @@ export function CameraIcon({ className }: IconProps) {
     </OutlineIcon>
   );
 }
+
+/** A clipboard with a tick: corrective actions to see through. */
+export function ActionsIcon({ className }: IconProps) {
+  return (
+    <OutlineIcon className={className}>
+      <rect x="5" y="4.5" width="14" height="17" rx="2" />
+      <path d="M9 4.5V3h6v1.5" />
+      <path d="m8.5 13 2.5 2.5 4.5-5" />
+    </OutlineIcon>
+  );
+}

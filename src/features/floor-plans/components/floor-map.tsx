@@ -28,7 +28,9 @@ import {
 import { cn } from "@/lib/cn";
 
 import { fixtureMarkerHtml } from "../lib/fixture-symbols";
+import type { MapPin } from "../lib/map-pins";
 import type { MapTool } from "../lib/map-tool";
+import { PinMarkers } from "./pin-markers";
 import {
   latLngToPlan,
   planBounds,
@@ -41,6 +43,7 @@ import { spacingWarningColour, zoneStyles } from "../lib/zone-styles";
 export const floorMapLabel = "Floor plan map";
 
 const toolColour = "#102b2d";
+const noPins: readonly MapPin[] = [];
 const iconCache = new Map<string, DivIcon>();
 
 function fixtureIcon(kind: FixtureKind, flagged: boolean, selected: boolean): DivIcon {
@@ -89,6 +92,8 @@ export interface FloorMapProps {
   onTap: (point: PlanPoint) => void;
   onSelectSpace: (spaceId: string) => void;
   onMapReady: (map: LeafletMap | null) => void;
+  /** Markers a page adds (such as open corrective actions), drawn above the fixtures. */
+  pins?: readonly MapPin[];
 }
 
 interface MapBehaviourProps {
@@ -222,6 +227,7 @@ export function FloorMap({
   onTap,
   onSelectSpace,
   onMapReady,
+  pins = noPins,
 }: FloorMapProps) {
   const { width, height, imageId } = plan;
   const bounds = useMemo(() => planBounds({ width, height }), [width, height]);
@@ -286,6 +292,7 @@ export function FloorMap({
           />
         );
       })}
+      <PinMarkers pins={pins} interactive={!picking} layerKey={layerKey} />
       <MapBehaviour
         bounds={bounds}
         picking={picking}

@@ -4,6 +4,7 @@ import type { ReactNode } from "react";
 import { Card } from "@/components/ui/card";
 import { EmptyState } from "@/components/ui/empty-state";
 
+import type { MapPin } from "../lib/map-pins";
 import { FloorWorkspace } from "./floor-workspace";
 import { PlanUploadForm } from "./plan-upload-form";
 
@@ -13,10 +14,14 @@ export interface FloorPlanViewProps {
   canEdit: boolean;
   /** Links or buttons the page adds to each space in the list (such as starting an audit). */
   spaceActions?: (space: Space) => ReactNode;
+  /** Markers the page adds to the plan, such as open corrective actions. */
+  pins?: readonly MapPin[];
+  /** The key and filters for those markers, shown beside the plan's own key. */
+  pinKey?: ReactNode;
 }
 
 /** The floor's plan with everything on it, or the way to get a plan there first. */
-export function FloorPlanView({ detail, canEdit, spaceActions }: FloorPlanViewProps) {
+export function FloorPlanView({ detail, canEdit, spaceActions, pins, pinKey }: FloorPlanViewProps) {
   const { floor } = detail;
 
   if (!floor.plan) {
@@ -48,6 +53,8 @@ export function FloorPlanView({ detail, canEdit, spaceActions }: FloorPlanViewPr
         plan={floor.plan}
         canEdit={canEdit}
         spaceActions={spaceActions}
+        pins={pins}
+        pinKey={pinKey}
       />
       {canEdit ? (
         <Card>

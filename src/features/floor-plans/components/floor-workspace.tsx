@@ -19,6 +19,7 @@ import { Spinner } from "@/components/ui/spinner";
 import { isApiError } from "@/lib/api-client";
 
 import { useCreateFixture } from "../api/create-fixture";
+import type { MapPin } from "../lib/map-pins";
 import { idleTool, type MapToolKind, mapToolReducer } from "../lib/map-tool";
 import { formatScale } from "../lib/measurements";
 import { formatPlanPoint, latLngToPlan, tidyPlanPoint } from "../lib/plan-coordinates";
@@ -53,10 +54,21 @@ export interface FloorWorkspaceProps {
   canEdit: boolean;
   /** Links or buttons the page adds to each space in the list (such as starting an audit). */
   spaceActions?: (space: Space) => ReactNode;
+  /** Markers the page adds to the plan; the floor plan knows only where they go. */
+  pins?: readonly MapPin[];
+  /** More of the key, for what the page pins (with its own filters). */
+  pinKey?: ReactNode;
 }
 
 /** The plan, its tools, the spacing check, the key and the list of spaces for one floor. */
-export function FloorWorkspace({ detail, plan, canEdit, spaceActions }: FloorWorkspaceProps) {
+export function FloorWorkspace({
+  detail,
+  plan,
+  canEdit,
+  spaceActions,
+  pins,
+  pinKey,
+}: FloorWorkspaceProps) {
   const { floor, suites, spaces, fixtures } = detail;
   const metresPerUnit = floor.metresPerUnit;
 
@@ -257,6 +269,7 @@ export function FloorWorkspace({ detail, plan, canEdit, spaceActions }: FloorWor
                 onTap={handleTap}
                 onSelectSpace={selectFromMap}
                 onMapReady={setMap}
+                pins={pins}
               />
             </Suspense>
             {tool.kind !== "idle" ? (
@@ -315,6 +328,7 @@ export function FloorWorkspace({ detail, plan, canEdit, spaceActions }: FloorWor
         </div>
 
         <div className="flex min-w-0 flex-col gap-6">
+          {pinKey}
           <MapKey filter={zoneFilter} onZoneVisibleChange={changeZoneVisible} />
           <SpaceList
             floorId={floor.id}

@@ -1,0 +1,25 @@
+import { type ActionDetail, actionDetailSchema } from "@shared/schemas/actions";
+import { useMutation, useQueryClient } from "@tanstack/react-query";
+
+import { apiRequest } from "@/lib/api-client";
+
+import { storeMovedAction } from "./action-cache";
+
+/** Attaches a photo of the fix (multipart field `photo`). */
+export function addProof(actionId: string, file: File): Promise<ActionDetail> {
+  const form = new FormData();
+  form.append("photo", file, file.name || "proof.jpg");
+  return apiRequest(`/api/actions/${encodeURIComponent(actionId)}/proofs`, {
+    method: "POST",
+    body: form,
+    schema: actionDetailSchema,
+  });
+}
+
+export function useAddProof(actionId: string) {
+  const queryClient = useQueryClient();
+  return useMutation({
+    mutationFn: (file: File) => addProof(actionId, file),
+    onSuccess: (detail) => storeMovedAction(queryClient, detail),
+  });
+}

@@ -1,0 +1,30 @@
+import { type ActionDetail, actionDetailSchema } from "@shared/schemas/actions";
+import { queryOptions, useQuery } from "@tanstack/react-query";
+
+import { apiRequest } from "@/lib/api-client";
+
+export function actionQueryKey(actionId: string) {
+  return ["actions", "detail", actionId] as const;
+}
+
+/** One corrective action with its findings, proof, place on the plan and every move. */
+export function getAction(
+  actionId: string,
+  { signal }: { signal?: AbortSignal } = {},
+): Promise<ActionDetail> {
+  return apiRequest(`/api/actions/${encodeURIComponent(actionId)}`, {
+    schema: actionDetailSchema,
+    signal,
+  });
+}
+
+export function actionQueryOptions(actionId: string) {
+  return queryOptions({
+    queryKey: actionQueryKey(actionId),
+    queryFn: ({ signal }) => getAction(actionId, { signal }),
+  });
+}
+
+export function useAction(actionId: string) {
+  return useQuery(actionQueryOptions(actionId));
+}
