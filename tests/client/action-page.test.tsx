@@ -1,0 +1,250 @@
+import type { ActionDetail } from "@shared/schemas/actions";
+import { screen, within } from "@testing-library/react";
+import { afterEach, describe, expect, it, vi } from "vitest";
+
+import {
+  actionId,
+  buildActionDetail,
+  committeeMember,
+  facilitiesLead,
+  siteAuditor,
+} from "./support/action-data";
+import { errorResponse, jsonResponse, stubApi, tamsinGeneral } from "./support/api-stub";
+import { renderApp } from "./support/render-app";
+
+afterEach(() => {
+  vi.unstubAllGlobals();
+});
+
+const actionUrl = `/actions/${actionId}`;
+const colleague = { id: "9f0a1b2c-3d4e-4f5a-8b6c-7d8e9f0a1b2c", name: "Alder Quinn" };
+
+function stubAction(me: typeof facilitiesLead, detail: ActionDetail, extra = {}) {
+  return stubApi({
+    "GET /api/auth/me": () => jsonResponse(me),
+    [`GET /api/actions/${actionId}`]: () => jsonResponse(detail),
+    [`GET /api/sites/${tamsinGeneral.id}/action-assignees`]: () =>
+      jsonResponse({ people: [{ id: me.user.id, name: me.user.name }, colleague] }),
+    ...extra,
+  });
+}
+
+function moveButtons(): string[] {
+  const moves = screen.getByRole("heading", { name: "What happens next" }).parentElement!;
+  return within(moves)
+    .queryAllByRole("button")
+    .map((button) => button.textContent ?? "");
+}
+
+describe("the action page", () => {
+  it("when it opens, then it shows the item, where, severity, status, the due time in the site's zone, owner, finding and timeline", async () => {
+    stubAction(siteAuditor, buildActionDetail({ overdue: true }));
+    renderApp(actionUrl);
+
+    expect(
+      await screen.findByRole("heading", { level: 1, name: "Dirty chair present and labelled" }),
+    ).toBeTruthy();
+    expect(screen.getByText(/Doffing area 4 \(Doffing area\)/)).toBeTruthy();
+    expect(screen.getByText("Critical")).toBeTruthy();
+    expect(screen.getByText("Open")).toBeTruthy();
+    expect(screen.getByText("Overdue")).toBeTruthy();
+    // 08:00 UTC on 31 March 2026 is 09:00 British Summer Time.
+    expect(screen.getByText("Tue 31 Mar 2026, 09:00 BST")).toBeTruthy();
+    expect(screen.getByText("Jonah Whitlock")).toBeTruthy();
+    expect(screen.getByText("No chair at all; staff sat on the bin lid.")).toBeTruthy();
+    const photo = screen.getByRole("img", { name: "Finding 1, photo 1" });
+    expect(photo.getAttribute("src")).toContain("variant=thumb");
+    expect(photo.closest("a")?.getAttribute("href")).toContain("variant=display");
+    const timeline = screen.getByRole("list", { name: "Every move" });
+    expect(timeline.textContent).toContain("Opened from a failed item");
+    expect(
+      await screen.findByRole("region", { name: "Where Doffing area 4 is on Ward 4 East" }),
+    ).toBeTruthy();
+    expect(screen.getByRole("complementary", { name: "Caution" })).toBeTruthy();
+  });
+
+  it("when a facilities lead opens an open action, then they may start work, add a photo and give it to someone else, but not verify", async () => {
+    stubAction(facilitiesLead, buildActionDetail({ status: "open" }));
+    renderApp(actionUrl);
+
+    expect(await screen.findByRole("button", { name: "Start work" })).toBeTruthy();
+    const photo = screen.getByLabelText("Add a photo of the fix");
+    expect(photo.getAttribute("accept")).toBe("image/*");
+    expect(photo.getAttribute("capture")).toBe("environment");
+    expect(screen.getByRole("combobox", { name: "Give to" })).toBeTruthy();
+    expect(moveButtons()).toEqual(["Start work", "Change owner"]);
+    expect(screen.queryByRole("button", { name: "Send for verification" })).toBeNull();
+  });
+
+  it("when a facilities lead opens an action in progress, then they may send it for verification and are told a photo is needed", async () => {
+    stubAction(facilitiesLead, buildActionDetail({ status: "in_progress" }));
+    renderApp(actionUrl);
+
+    expect(await screen.findByRole("button", { name: "Send for verification" })).toBeTruthy();
+    expect(screen.getByLabelText("Note for the auditor")).toBeTruthy();
+    expect(
+      screen.getByText(
+        "A photo of this attempt is needed before the fix can be sent for verification.",
+      ),
+    ).toBeTruthy();
+    expect(screen.queryByRole("button", { name: "Start work" })).toBeNull();
+  });
+
+  it("when an auditor opens an action awaiting verification, then they may verify or reject, and nothing else", async () => {
+    stubAction(siteAuditor, buildActionDetail({ status: "awaiting_verification" }));
+    renderApp(actionUrl);
+
+    expect(await screen.findByRole("button", { name: "Verify and close" })).toBeTruthy();
+    expect(screen.getByLabelText("Verification note")).toBeTruthy();
+    expect(screen.getByLabelText("Reason for rejecting")).toBeTruthy();
+    expect(moveButtons()).toEqual(["Verify and close", "Reject"]);
+    expect(screen.queryByLabelText("Add a photo of the fix")).toBeNull();
+  });
+
+  it("when an auditor opens an open action, then there is nothing for them to do yet", async () => {
+    stubAction(siteAuditor, buildActionDetail({ status: "open" }));
+    renderApp(actionUrl);
+
+    await screen.findByRole("heading", { name: "What happens next" });
+    expect(moveButtons()).toEqual([]);
+    expect(
+      screen.getByText("The facilities lead who owns this action is working on it."),
+    ).toBeTruthy();
+  });
+
+  it("when an auditor opens a closed action, then they may reopen it and the days to close are shown", async () => {
+    stubAction(
+      siteAuditor,
+      buildActionDetail({
+        status: "closed",
+        closedAt: "2026-03-31T06:00:00.000Z",
+        daysToClose: 0.9,
+      }),
+    );
+    renderApp(actionUrl);
+
+    expect(await screen.findByRole("button", { name: "Reopen" })).toBeTruthy();
+    expect(screen.getByLabelText("Reason for reopening")).toBeTruthy();
+    expect(screen.getByText("0.9 days")).toBeTruthy();
+  });
+
+  it("when a committee member opens an action, then they read it and make no move", async () => {
+    stubAction(committeeMember, buildActionDetail({ status: "awaiting_verification" }));
+    renderApp(actionUrl);
+
+    await screen.findByRole("heading", { name: "What happens next" });
+    expect(moveButtons()).toEqual([]);
+    expect(screen.getByText("The fix is waiting for an auditor to verify it.")).toBeTruthy();
+  });
+
+  it("when a facilities lead sends for verification without a note, then it is refused beside the note and nothing is sent", async () => {
+    const { calls } = stubAction(facilitiesLead, buildActionDetail({ status: "in_progress" }));
+    const { user } = renderApp(actionUrl);
+
+    await user.click(await screen.findByRole("button", { name: "Send for verification" }));
+
+    const note = screen.getByLabelText("Note for the auditor");
+    expect(note.getAttribute("aria-invalid")).toBe("true");
+    expect(screen.getByText("Say what was done or seen, in a few words.")).toBeTruthy();
+    expect(calls.some((call) => call.method === "POST")).toBe(false);
+  });
+
+  it("when the server says a photo of this attempt is needed, then the message is beside the photo control and the note is kept", async () => {
+    const proofMessage = "Add a photo of the fix for this attempt before sending it.";
+    const { calls } = stubAction(facilitiesLead, buildActionDetail({ status: "in_progress" }), {
+      [`POST /api/actions/${actionId}/verification-request`]: () =>
+        errorResponse(400, "validation_failed", "A photo is needed.", { proof: proofMessage }),
+    });
+    const { user } = renderApp(actionUrl);
+
+    const note = await screen.findByLabelText("Note for the auditor");
+    await user.type(note, "New chair fixed to the wall and labelled.");
+    await user.click(screen.getByRole("button", { name: "Send for verification" }));
+
+    const photo = screen.getByLabelText("Add a photo of the fix");
+    const message = await screen.findByText(proofMessage);
+    expect(photo.getAttribute("aria-describedby")).toContain(message.id);
+    expect(photo.getAttribute("aria-invalid")).toBe("true");
+    expect((note as HTMLTextAreaElement).value).toBe("New chair fixed to the wall and labelled.");
+    expect(calls.find((call) => call.method === "POST")?.body).toEqual({
+      note: "New chair fixed to the wall and labelled.",
+    });
+  });
+
+  it("when an auditor verifies with a note, then the action comes back closed and the timeline has the move", async () => {
+    let detail = buildActionDetail({ status: "awaiting_verification" });
+    const { calls } = stubAction(siteAuditor, detail, {
+      [`GET /api/actions/${actionId}`]: () => jsonResponse(detail),
+      [`POST /api/actions/${actionId}/verify`]: () => {
+        detail = buildActionDetail(
+          { status: "closed", closedAt: "2026-03-31T07:00:00.000Z", daysToClose: 1 },
+          {
+            timeline: [
+              ...detail.timeline,
+              {
+                id: "6f708192-a3b4-4fc0-9b32-5d6e7f8091a2",
+                at: "2026-03-31T07:00:00.000Z",
+                kind: "verified",
+                actorName: siteAuditor.user.name,
+                fromStatus: "awaiting_verification",
+                toStatus: "closed",
+                text: "Chair in place and labelled.",
+              },
+            ],
+          },
+        );
+        return jsonResponse(detail);
+      },
+      [`GET /api/sites/${tamsinGeneral.id}/actions`]: () => jsonResponse({ actions: [] }),
+      "GET /api/my/actions": () => jsonResponse({ actions: [] }),
+    });
+    const { user } = renderApp(actionUrl);
+
+    await user.type(
+      await screen.findByLabelText("Verification note"),
+      "Chair in place and labelled.",
+    );
+    await user.click(screen.getByRole("button", { name: "Verify and close" }));
+
+    expect(await screen.findByText("Verified and closed.")).toBeTruthy();
+    expect(screen.getByRole("button", { name: "Reopen" })).toBeTruthy();
+    const timeline = screen.getByRole("list", { name: "Every move" });
+    expect(timeline.textContent).toContain("Chair in place and labelled.");
+    expect(calls.find((call) => call.method === "POST")?.body).toEqual({
+      note: "Chair in place and labelled.",
+    });
+  });
+
+  it("when a photo of the fix is chosen, then it is uploaded as the photo field", async () => {
+    let detail = buildActionDetail({ status: "in_progress" });
+    const { calls } = stubAction(facilitiesLead, detail, {
+      [`GET /api/actions/${actionId}`]: () => jsonResponse(detail),
+      [`POST /api/actions/${actionId}/proofs`]: () => {
+        detail = buildActionDetail(
+          { status: "in_progress" },
+          {
+            proofs: [
+              {
+                id: "70819293-b4c5-4d01-8c43-6e7f8091a2b3",
+                imageId: "8192a3b4-c5d6-4e12-9d54-7f8091a2b3c4",
+                uploadedBy: facilitiesLead.user.name,
+                createdAt: "2026-03-30T12:00:00.000Z",
+                current: true,
+              },
+            ],
+          },
+        );
+        return jsonResponse(detail, 201);
+      },
+    });
+    const { user } = renderApp(actionUrl);
+
+    const file = new File([new Uint8Array([0xff, 0xd8, 0xff])], "fix.jpg", { type: "image/jpeg" });
+    await user.upload(await screen.findByLabelText("Add a photo of the fix"), file);
+
+    expect(await screen.findByRole("img", { name: "Proof of this attempt, photo 1" })).toBeTruthy();
+    const upload = calls.find((call) => call.method === "POST");
+    expect(upload?.body).toBeInstanceOf(FormData);
+    expect((upload?.body as FormData).get("photo")).toBeInstanceOf(File);
+  });
+});
