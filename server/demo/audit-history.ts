@@ -16,7 +16,7 @@ import {
 import type { DemoSiteKey } from "./people";
 
 /** A small seeded generator, so every fresh demo database tells the same story. */
-function mulberry32(seed: number) {
+export function mulberry32(seed: number) {
   let state = seed >>> 0;
   return () => {
     state = (state + 0x6d2b79f5) >>> 0;

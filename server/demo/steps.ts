@@ -6,6 +6,7 @@ import { hashPassword } from "../auth/password";
 import { networks, roleGrants, sites, users } from "../db/schema/index";
 import { recordChange } from "../lib/change-log";
 import { createDemoAuditHistory } from "./audit-history";
+import { createDemoCorrectiveActions } from "./corrective-actions";
 import { createDemoFloor, type DemoFloorPlan } from "./floor-plans";
 import { demoNetworkName, demoPassword, demoPeople, demoSites, type DemoSiteKey } from "./people";
 import type { DemoStep } from "./run-demo-steps";
@@ -175,5 +176,30 @@ const auditHistory: DemoStep = {
   },
 };
 
+const correctiveActionsHistory: DemoStep = {
+  id: "2026-12-02-corrective-actions",
+  description:
+    "findings and corrective actions from the audit history, with a year of work on them",
+  async run(tx, context) {
+    const siteRows = await tx
+      .select({ id: sites.id, name: sites.name })
+      .from(sites)
+      .innerJoin(networks, eq(networks.id, sites.networkId))
+      .where(eq(networks.name, demoNetworkName));
+    const siteIds = {} as Record<DemoSiteKey, string>;
+    for (const key of Object.keys(demoSites) as DemoSiteKey[]) {
+      const site = siteRows.find((row) => row.name === demoSites[key].name);
+      if (!site) return;
+      siteIds[key] = site.id;
+    }
+    await createDemoCorrectiveActions(tx, context.storage, siteIds);
+  },
+};
+
 /** In release order; append new steps, never reorder or rename released ones. */
-export const demoStepList: DemoStep[] = [networkSitesPeople, floorPlans, auditHistory];
+export const demoStepList: DemoStep[] = [
+  networkSitesPeople,
+  floorPlans,
+  auditHistory,
+  correctiveActionsHistory,
+];

@@ -1,9 +1,14 @@
-import { count, eq, inArray, min } from "drizzle-orm";
+import { and, count, eq, inArray, min, sql } from "drizzle-orm";
 import { describe, expect, it } from "vitest";
 
 import {
+  auditAnswers,
   audits,
+  changeLog,
+  correctiveActions,
   demoSteps,
+  findings,
+  floors,
   networks,
   roleGrants,
   sites,
@@ -133,5 +138,164 @@ describe("demo data", () => {
       const earliest = Math.min(...mine.map((row) => row.first!.getTime()));
       expect(Date.now() - earliest, site).toBeGreaterThan(300 * 24 * 60 * 60 * 1000);
     }
+  });
+
+  const demoSiteNames = [
+    "Tamsin Bay General Hospital",
+    "Orchard Hill Community Hospital",
+    "Wexley Rehabilitation Centre",
+  ];
+
+  async function demoActions() {
+    const { db, logger, storage } = testApp().deps;
+    await runDemoSteps(db, logger, demoStepList, { storage });
+    const siteRows = await db
+      .select({ id: sites.id, name: sites.name })
+      .from(sites)
+      .innerJoin(networks, eq(networks.id, sites.networkId))
+      .where(eq(networks.name, "Tamsin Bay Health"));
+    const siteIds = siteRows.map((site) => site.id);
+    const actions = await db
+      .select({
+        id: correctiveActions.id,
+        site: sites.name,
+        spaceId: correctiveActions.spaceId,
+        itemKey: correctiveActions.itemKey,
+        status: correctiveActions.status,
+        dueAt: correctiveActions.dueAt,
+        openedAt: correctiveActions.openedAt,
+        closedAt: correctiveActions.closedAt,
+        daysToClose: correctiveActions.daysToClose,
+        assignee: users.email,
+        planImageId: floors.planImageId,
+      })
+      .from(correctiveActions)
+      .innerJoin(sites, eq(sites.id, correctiveActions.siteId))
+      .innerJoin(floors, eq(floors.id, correctiveActions.floorId))
+      .leftJoin(users, eq(users.id, correctiveActions.assigneeId))
+      .where(inArray(correctiveActions.siteId, siteIds));
+    return { db, siteIds, actions };
+  }
+
+  it("when the demo actions are loaded, then every site has work in each state and some overdue", async () => {
+    const { actions } = await demoActions();
+    const now = Date.now();
+    for (const site of demoSiteNames) {
+      const mine = actions.filter((action) => action.site === site);
+      expect(new Set(mine.map((action) => action.status)), site).toEqual(
+        new Set(["open", "in_progress", "awaiting_verification", "closed"]),
+      );
+      const overdue = mine.filter(
+        (action) => action.status !== "closed" && action.dueAt.getTime() < now,
+      );
+      expect(overdue.length, site).toBeGreaterThan(0);
+    }
+    // What the browser tests look for: overdue work of the General's facilities lead, on a plan.
+    expect(
+      actions.some(
+        (action) =>
+          action.site === "Tamsin Bay General Hospital" &&
+          action.status !== "closed" &&
+          action.dueAt.getTime() < now &&
+          action.assignee === "facilities.general@example.org" &&
+          action.planImageId !== null,
+      ),
+    ).toBe(true);
+
+    const unclosed = actions.filter((action) => action.status !== "closed");
+    const keys = unclosed.map((action) => `${action.spaceId}|${action.itemKey}`);
+    expect(new Set(keys).size).toBe(keys.length);
+  });
+
+  it("when the demo actions are loaded, then each closed one was verified and knows its days to close", async () => {
+    const { db, siteIds, actions } = await demoActions();
+    const verified = await db
+      .select({ id: changeLog.entityId, at: changeLog.occurredAt })
+      .from(changeLog)
+      .where(
+        and(
+          eq(changeLog.entity, "corrective_action"),
+          eq(changeLog.action, "action.verified"),
+          inArray(changeLog.siteId, siteIds),
+        ),
+      );
+    const lastVerified = new Map<string, number>();
+    for (const row of verified)
+      lastVerified.set(row.id!, Math.max(lastVerified.get(row.id!) ?? 0, row.at.getTime()));
+    const closed = actions.filter((action) => action.status === "closed");
+    expect(closed.length).toBeGreaterThan(100);
+    for (const action of closed) {
+      expect(lastVerified.get(action.id), action.id).toBe(action.closedAt?.getTime());
+      expect(action.daysToClose, action.id).toBeCloseTo(
+        (action.closedAt!.getTime() - action.openedAt.getTime()) / (24 * 60 * 60 * 1000),
+        0,
+      );
+    }
+    for (const action of actions.filter((a) => a.status !== "closed")) {
+      expect(action.closedAt).toBeNull();
+      expect(action.daysToClose).toBeNull();
+    }
+  });
+
+  it("when the demo actions are loaded, then every failed answer is a finding of an action in its space", async () => {
+    const { db, siteIds } = await demoActions();
+    const rows = await db
+      .select({
+        findingId: findings.id,
+        outcome: auditAnswers.outcome,
+        findingSpace: findings.spaceId,
+        auditSpace: audits.spaceId,
+        actionSpace: correctiveActions.spaceId,
+        findingKey: findings.itemKey,
+        actionKey: correctiveActions.itemKey,
+      })
+      .from(findings)
+      .innerJoin(correctiveActions, eq(correctiveActions.id, findings.actionId))
+      .innerJoin(audits, eq(audits.id, findings.auditId))
+      .leftJoin(
+        auditAnswers,
+        and(eq(auditAnswers.auditId, findings.auditId), eq(auditAnswers.itemId, findings.itemId)),
+      )
+      .where(inArray(findings.siteId, siteIds));
+    expect(rows.length).toBeGreaterThan(100);
+    for (const row of rows) {
+      expect(row.outcome, row.findingId).toBe("fail");
+      expect(row.findingSpace, row.findingId).toBe(row.actionSpace);
+      expect(row.auditSpace, row.findingId).toBe(row.actionSpace);
+      expect(row.findingKey, row.findingId).toBe(row.actionKey);
+    }
+    const [failed] = await db
+      .select({ n: count() })
+      .from(auditAnswers)
+      .innerJoin(audits, eq(audits.id, auditAnswers.auditId))
+      .where(
+        and(
+          inArray(audits.siteId, siteIds),
+          eq(audits.status, "submitted"),
+          eq(auditAnswers.outcome, "fail"),
+        ),
+      );
+    expect(rows.length).toBe(failed!.n);
+    // Every action began with a finding and an "opened" entry at the time it opened.
+    const [orphans] = await db
+      .select({ n: count() })
+      .from(correctiveActions)
+      .where(
+        and(
+          inArray(correctiveActions.siteId, siteIds),
+          sql`not exists (select 1 from ${findings} where ${findings.actionId} = ${correctiveActions.id})`,
+        ),
+      );
+    expect(orphans!.n).toBe(0);
+    const [unopened] = await db
+      .select({ n: count() })
+      .from(correctiveActions)
+      .where(
+        and(
+          inArray(correctiveActions.siteId, siteIds),
+          sql`not exists (select 1 from ${changeLog} where ${changeLog.entityId} = ${correctiveActions.id} and ${changeLog.action} = 'action.opened' and ${changeLog.occurredAt} = ${correctiveActions.openedAt})`,
+        ),
+      );
+    expect(unopened!.n).toBe(0);
   });
 });
