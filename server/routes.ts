@@ -2,6 +2,7 @@ import { actionRoutes } from "./modules/actions/actions.router";
 import { accountRoutes } from "./modules/accounts/accounts.router";
 import { authRoutes } from "./modules/auth/auth.router";
 import { auditRoutes } from "./modules/audits/audits.router";
+import { committeeRoutes } from "./modules/committee/committee.router";
 import { checklistRoutes } from "./modules/checklists/checklists.router";
 import { floorRoutes } from "./modules/floors/floors.router";
 import { imageRoutes } from "./modules/images/images.router";
@@ -23,4 +24,5 @@ export const apiRoutes = [
   ...checklistRoutes,
   ...auditRoutes,
   ...actionRoutes,
+  ...committeeRoutes,
 ];

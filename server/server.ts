@@ -11,6 +11,7 @@ import { createLogger } from "./lib/logger";
 import { createMailer } from "./lib/mailer";
 import { reconcileStorage } from "./lib/images";
 import { createStorage } from "./lib/storage";
+import { prepareMonthStats } from "./modules/committee/committee.service";
 import { createActionScheduler } from "./modules/actions/actions.scheduler";
 import { createOutboxWorker } from "./outbox/outbox-worker";
 
@@ -35,6 +36,7 @@ export async function startServer(env: Env): Promise<RunningServer> {
   const reconcileTimer = setInterval(() => void reconcile(), 10 * 60 * 1000);
   reconcileTimer.unref();
   if (env.LINTEL_DEMO === "1") await runDemoSteps(database.db, logger, demoStepList, { storage });
+  await prepareMonthStats(database.db);
 
   const mailer = createMailer(env);
   const worker =

@@ -341,6 +341,37 @@ const samples: Record<string, Sample> = {
     allowed: admins,
     hidden: notAtA,
   },
+  "GET /committee/comparison": {
+    prepare: () => ({ url: "/api/committee/comparison?from=2026-01&to=2026-12" }),
+    ok: 200,
+    allowed: everyone,
+  },
+  "GET /committee/trends": {
+    prepare: () => ({ url: "/api/committee/trends?from=2026-01&to=2026-12" }),
+    ok: 200,
+    allowed: everyone,
+  },
+  "GET /committee/sites/:siteId": {
+    prepare: (w) => ({ url: `/api/committee/sites/${w.siteA}?from=2026-01&to=2026-12` }),
+    ok: 200,
+    allowed: readers,
+    hidden: notAtA,
+  },
+  "GET /committee/comparison/export": {
+    prepare: () => ({ url: "/api/committee/comparison/export?from=2026-01&to=2026-12" }),
+    ok: 200,
+    allowed: everyone,
+  },
+  "GET /committee/audits/export": {
+    prepare: () => ({ url: "/api/committee/audits/export?from=2026-01&to=2026-12" }),
+    ok: 200,
+    allowed: everyone,
+  },
+  "GET /committee/report": {
+    prepare: () => ({ url: "/api/committee/report?from=2026-01&to=2026-12" }),
+    ok: 200,
+    allowed: everyone,
+  },
   "GET /checklists": { prepare: () => ({ url: "/api/checklists" }), ok: 200, allowed: everyone },
   "PUT /checklists/:zoneType/draft": {
     prepare: () => ({

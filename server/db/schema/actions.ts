@@ -82,6 +82,7 @@ export const correctiveActions = pgTable(
     index("corrective_actions_site_idx").on(table.siteId, table.status, table.dueAt),
     index("corrective_actions_assignee_idx").on(table.assigneeId, table.status),
     index("corrective_actions_floor_idx").on(table.floorId, table.status),
+    index("corrective_actions_closed_idx").on(table.siteId, table.closedAt),
   ],
 );
 

@@ -12,3 +12,4 @@ export * from "./images";
 export * from "./audits";
 export * from "./checklists";
 export * from "./actions";
+export * from "./committee";

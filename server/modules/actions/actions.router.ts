@@ -14,6 +14,7 @@ import {
 import { siteParamsSchema } from "@shared/schemas/site";
 import { zoneTypeLabels } from "@shared/zones";
 
+import { asCell, csvPreamble } from "../../lib/csv";
 import { readUpload } from "../../lib/images";
 import { defineRoute, type Access } from "../../lib/routes";
 import * as actions from "./actions.service";
@@ -29,9 +30,6 @@ const atSite = (permission: Permission): Access => ({
   permission,
   siteOf: async (params) => params.siteId!,
 });
-
-/** A spreadsheet would run a cell that starts like a formula; such cells are kept as text. */
-const asCell = (value: string) => (/^[=+\-@\t\r]/.test(value) ? `'${value}` : value);
 
 export const actionRoutes = [
   defineRoute({
@@ -75,7 +73,7 @@ export const actionRoutes = [
             row.daysToClose ?? "",
             row.findingCount,
             actions.actionLink(deps.env, row.id),
-          ].map((cell) => asCell(String(cell))),
+          ].map(asCell),
         ),
         {
           header: true,
@@ -105,7 +103,7 @@ export const actionRoutes = [
         .status(200)
         .type("text/csv; charset=utf-8")
         .attachment(`corrective-actions-${day}.csv`)
-        .send(`\uFEFF${csv}`);
+        .send(`${csvPreamble}${csv}`);
     },
   }),
   defineRoute({

@@ -27,6 +27,7 @@ import {
   latestPublishedVersion,
 } from "../checklists/checklists.service";
 import { recordFindings } from "../actions/actions.service";
+import { countAmendment, countSubmittedAudit } from "../committee/committee.service";
 import { listSitesFor } from "../sites/sites.service";
 import * as repo from "./audits.repository";
 
@@ -348,6 +349,16 @@ export async function submitAudit(
       siteId: current.siteId,
       after: { verdict, score },
     });
+    await countSubmittedAudit(tx, {
+      siteId: current.siteId,
+      zoneType: current.zoneType,
+      submittedAt,
+      verdict,
+      answers: detail.items.map((item) => ({
+        key: item.key,
+        outcome: answers.get(item.id)!.outcome,
+      })),
+    });
     return recordFindings(tx, deps.env, current, failed, actor, submittedAt);
   });
   if (queued > 0) deps.notifyOutbox();
@@ -413,6 +424,16 @@ export async function amendAudit(
         verdict,
       },
       reason: body.reason,
+    });
+    await countAmendment(tx, {
+      siteId: detail.audit.siteId,
+      zoneType: detail.audit.zoneType,
+      submittedAt: new Date(detail.audit.submittedAt!),
+      verdictBefore: detail.audit.verdict,
+      verdictAfter: verdict,
+      key: item.key,
+      outcomeBefore: before.outcome,
+      outcomeAfter: body.outcome,
     });
     // A correction to "fail" is a finding like any other; one away from "fail" leaves the action
     // to be closed by an auditor's verification, so nothing is closed silently.

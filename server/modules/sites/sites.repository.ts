@@ -3,7 +3,7 @@ import { and, asc, eq, inArray } from "drizzle-orm";
 import type { Site } from "@shared/schemas/site";
 
 import type { DbOrTx } from "../../db/client";
-import { sites } from "../../db/schema/index";
+import { networks, sites } from "../../db/schema/index";
 
 const siteColumns = {
   id: sites.id,
@@ -79,4 +79,12 @@ export async function updateSite(
     .where(eq(sites.id, siteId))
     .returning(siteColumns);
   return row!;
+}
+
+export async function findNetworkName(db: DbOrTx, networkId: string): Promise<string | null> {
+  const [row] = await db
+    .select({ name: networks.name })
+    .from(networks)
+    .where(eq(networks.id, networkId));
+  return row?.name ?? null;
 }

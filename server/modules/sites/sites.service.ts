@@ -22,6 +22,11 @@ export function listSitesFor(
   return repo.listSites(db, networkId, networkWide ? null : ids);
 }
 
+/** The network's name, as reports print it. */
+export async function networkName(db: Database, networkId: string): Promise<string> {
+  return (await repo.findNetworkName(db, networkId)) ?? "";
+}
+
 export async function siteIdIfExists(
   db: Database,
   networkId: string,

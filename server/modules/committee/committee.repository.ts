@@ -1,0 +1,360 @@
+import { sql } from "drizzle-orm";
+
+import { categorisedKeys } from "@shared/checklists/categories";
+import type { Severity, Verdict } from "@shared/calc/verdict";
+import type { ZoneType } from "@shared/zones";
+
+import type { DbOrTx } from "../../db/client";
+
+/** The first day of `month` (YYYY-MM) as a date literal. */
+const firstDay = (month: string) => `${month}-01`;
+
+export interface Period {
+  from: string;
+  to: string;
+  zoneType?: ZoneType;
+}
+
+const zoneFilter = (zoneType: ZoneType | undefined, column = sql.raw("zone_type")) =>
+  zoneType ? sql`and ${column} = ${zoneType}` : sql``;
+
+const siteArray = (siteIds: readonly string[]) => sql`${`{${siteIds.join(",")}}`}::uuid[]`;
+
+/** Writes the shared item groups into the database, for SQL that groups answers. */
+export async function syncItemCategories(db: DbOrTx) {
+  if (categorisedKeys.length === 0) return;
+  const values = sql.join(
+    categorisedKeys.map(([key, category]) => sql`(${key}, ${category})`),
+    sql`, `,
+  );
+  await db.execute(sql`
+    insert into item_category_keys (key, category) values ${values}
+    on conflict (key) do update set category = excluded.category`);
+}
+
+export interface VerdictDelta {
+  audits: number;
+  ready: number;
+  withConditions: number;
+  notReady: number;
+}
+
+export function verdictDelta(verdict: Verdict, sign: 1 | -1, counted: 0 | 1 = 1): VerdictDelta {
+  return {
+    audits: sign * counted,
+    ready: verdict === "ready" ? sign : 0,
+    withConditions: verdict === "ready_with_conditions" ? sign : 0,
+    notReady: verdict === "not_ready" ? sign : 0,
+  };
+}
+
+/** Adds to a site's month (on the site's clock) the audit counts in `delta`. */
+export async function addAuditCounts(
+  db: DbOrTx,
+  input: { siteId: string; zoneType: ZoneType; at: Date; delta: VerdictDelta },
+) {
+  const { audits, ready, withConditions, notReady } = input.delta;
+  await db.execute(sql`
+    insert into audit_month_stats (site_id, zone_type, month, audits, ready, with_conditions, not_ready)
+    select s.id, ${input.zoneType}, date_trunc('month', ${input.at.toISOString()}::timestamptz at time zone s.time_zone)::date,
+           ${audits}, ${ready}, ${withConditions}, ${notReady}
+      from sites s where s.id = ${input.siteId}
+    on conflict (site_id, zone_type, month) do update set
+      audits = audit_month_stats.audits + excluded.audits,
+      ready = audit_month_stats.ready + excluded.ready,
+      with_conditions = audit_month_stats.with_conditions + excluded.with_conditions,
+      not_ready = audit_month_stats.not_ready + excluded.not_ready`);
+}
+
+/** Adds answer counts by item group to a site's month. */
+export async function addAnswerCounts(
+  db: DbOrTx,
+  input: {
+    siteId: string;
+    zoneType: ZoneType;
+    at: Date;
+    counts: { category: string; applicable: number; passed: number }[];
+  },
+) {
+  if (input.counts.length === 0) return;
+  const values = sql.join(
+    input.counts.map(
+      (row) => sql`(${row.category}::varchar, ${row.applicable}::int, ${row.passed}::int)`,
+    ),
+    sql`, `,
+  );
+  await db.execute(sql`
+    insert into answer_month_stats (site_id, zone_type, month, category, applicable, passed)
+    select s.id, ${input.zoneType}, date_trunc('month', ${input.at.toISOString()}::timestamptz at time zone s.time_zone)::date,
+           v.category, v.applicable, v.passed
+      from sites s, (values ${values}) as v(category, applicable, passed)
+     where s.id = ${input.siteId}
+    on conflict (site_id, zone_type, month, category) do update set
+      applicable = answer_month_stats.applicable + excluded.applicable,
+      passed = answer_month_stats.passed + excluded.passed`);
+}
+
+/** Recounts the monthly totals of the given sites from their audits (demo data, benchmarks). */
+export async function rebuildMonthStats(db: DbOrTx, siteIds: readonly string[]) {
+  if (siteIds.length === 0) return;
+  const ids = siteArray(siteIds);
+  await db.execute(sql`delete from audit_month_stats where site_id = any(${ids})`);
+  await db.execute(sql`delete from answer_month_stats where site_id = any(${ids})`);
+  await db.execute(sql`
+    insert into audit_month_stats (site_id, zone_type, month, audits, ready, with_conditions, not_ready)
+    select a.site_id, sp.zone_type, date_trunc('month', a.submitted_at at time zone s.time_zone)::date,
+           count(*), count(*) filter (where a.verdict = 'ready'),
+           count(*) filter (where a.verdict = 'ready_with_conditions'),
+           count(*) filter (where a.verdict = 'not_ready')
+      from audits a
+      join spaces sp on sp.id = a.space_id
+      join sites s on s.id = a.site_id
+     where a.status = 'submitted' and a.site_id = any(${ids})
+     group by 1, 2, 3`);
+  await db.execute(sql`
+    insert into answer_month_stats (site_id, zone_type, month, category, applicable, passed)
+    select a.site_id, sp.zone_type, date_trunc('month', a.submitted_at at time zone s.time_zone)::date,
+           coalesce(k.category, 'other'),
+           count(*) filter (where aa.outcome in ('pass', 'fail')),
+           count(*) filter (where aa.outcome = 'pass')
+      from audits a
+      join audit_answers aa on aa.audit_id = a.id
+      join checklist_items ci on ci.id = aa.item_id
+      left join item_category_keys k on k.key = ci.key
+      join spaces sp on sp.id = a.space_id
+      join sites s on s.id = a.site_id
+     where a.status = 'submitted' and a.site_id = any(${ids})
+     group by 1, 2, 3, 4`);
+}
+
+export async function hasMonthStats(db: DbOrTx) {
+  const result = await db.execute<{ any: boolean }>(
+    sql`select exists (select 1 from audit_month_stats) as any`,
+  );
+  return result.rows[0]?.any ?? false;
+}
+
+export async function sitesWithSubmittedAudits(db: DbOrTx) {
+  const result = await db.execute<{ site_id: string }>(
+    sql`select distinct site_id from audits where status = 'submitted'`,
+  );
+  return result.rows.map((row) => row.site_id);
+}
+
+export async function readinessBySite(db: DbOrTx, siteIds: readonly string[], period: Period) {
+  const result = await db.execute<{
+    site_id: string;
+    audits: number;
+    ready: number;
+    with_conditions: number;
+    not_ready: number;
+  }>(sql`
+    select site_id, sum(audits)::int as audits, sum(ready)::int as ready,
+           sum(with_conditions)::int as with_conditions, sum(not_ready)::int as not_ready
+      from audit_month_stats
+     where site_id = any(${siteArray(siteIds)})
+       and month between ${firstDay(period.from)}::date and ${firstDay(period.to)}::date
+       ${zoneFilter(period.zoneType)}
+     group by site_id`);
+  return result.rows;
+}
+
+export async function categoriesBySite(db: DbOrTx, siteIds: readonly string[], period: Period) {
+  const result = await db.execute<{
+    site_id: string;
+    category: string;
+    applicable: number;
+    passed: number;
+  }>(sql`
+    select site_id, category, sum(applicable)::int as applicable, sum(passed)::int as passed
+      from answer_month_stats
+     where site_id = any(${siteArray(siteIds)})
+       and month between ${firstDay(period.from)}::date and ${firstDay(period.to)}::date
+       ${zoneFilter(period.zoneType)}
+     group by site_id, category`);
+  return result.rows;
+}
+
+export async function readinessByMonth(db: DbOrTx, siteIds: readonly string[], period: Period) {
+  const result = await db.execute<{
+    site_id: string;
+    month: string;
+    audits: number;
+    ready: number;
+  }>(sql`
+    select site_id, to_char(month, 'YYYY-MM') as month, sum(audits)::int as audits,
+           sum(ready)::int as ready
+      from audit_month_stats
+     where site_id = any(${siteArray(siteIds)})
+       and month between ${firstDay(period.from)}::date and ${firstDay(period.to)}::date
+       ${zoneFilter(period.zoneType)}
+     group by site_id, month
+    having sum(audits) > 0
+     order by site_id, month`);
+  return result.rows;
+}
+
+const agingSql = (from: "opened_at" | "due_at") => {
+  const age = sql.raw(`extract(epoch from (now() - ca.${from})) / 86400`);
+  return sql`
+    count(*) filter (where ${age} <= 7)::int as "0-7",
+    count(*) filter (where ${age} > 7 and ${age} <= 30)::int as "8-30",
+    count(*) filter (where ${age} > 30 and ${age} <= 90)::int as "31-90",
+    count(*) filter (where ${age} > 90)::int as "90+"`;
+};
+
+type Buckets = { "0-7": number; "8-30": number; "31-90": number; "90+": number };
+
+/** Unclosed actions aged since opening, and overdue ones since their due time, as of now. */
+export async function actionAging(db: DbOrTx, siteIds: readonly string[], zoneType?: ZoneType) {
+  const zone = zoneType ? sql`and sp.zone_type = ${zoneType}` : sql``;
+  const open = await db.execute<Buckets & { site_id: string }>(sql`
+    select ca.site_id, ${agingSql("opened_at")}
+      from corrective_actions ca join spaces sp on sp.id = ca.space_id
+     where ca.site_id = any(${siteArray(siteIds)}) and ca.status <> 'closed' ${zone}
+     group by ca.site_id`);
+  const overdue = await db.execute<Buckets & { site_id: string }>(sql`
+    select ca.site_id, ${agingSql("due_at")}
+      from corrective_actions ca join spaces sp on sp.id = ca.space_id
+     where ca.site_id = any(${siteArray(siteIds)}) and ca.status <> 'closed'
+       and ca.due_at < now() ${zone}
+     group by ca.site_id`);
+  return { open: open.rows, overdue: overdue.rows };
+}
+
+/** Median days to close by site and severity, for actions closed within the period. */
+export async function closeTimes(db: DbOrTx, siteIds: readonly string[], period: Period) {
+  const zone = period.zoneType ? sql`and sp.zone_type = ${period.zoneType}` : sql``;
+  const result = await db.execute<{
+    site_id: string;
+    severity: Severity;
+    closed: number;
+    median_days: number;
+  }>(sql`
+    select ca.site_id, ca.severity, count(*)::int as closed,
+           percentile_cont(0.5) within group (order by ca.days_to_close) as median_days
+      from corrective_actions ca
+      join sites s on s.id = ca.site_id
+      join spaces sp on sp.id = ca.space_id
+     where ca.site_id = any(${siteArray(siteIds)}) and ca.status = 'closed'
+       and ca.closed_at >= (${firstDay(period.from)}::date::timestamp at time zone s.time_zone)
+       and ca.closed_at < ((${firstDay(period.to)}::date + interval '1 month')::timestamp at time zone s.time_zone)
+       ${zone}
+     group by ca.site_id, ca.severity`);
+  return result.rows;
+}
+
+/** Each space of a site with its audits in the period, its latest verdict and its open work. */
+export async function spacesOfSite(db: DbOrTx, siteId: string, period: Period) {
+  const zone = period.zoneType ? sql`and sp.zone_type = ${period.zoneType}` : sql``;
+  const result = await db.execute<{
+    space_id: string;
+    space_name: string;
+    zone_type: ZoneType;
+    floor_id: string;
+    floor_name: string;
+    audits: number;
+    ready: number;
+    last_verdict: Verdict | null;
+    last_audit_at: Date | null;
+    open_actions: number;
+    overdue_actions: number;
+  }>(sql`
+    with bounds as (
+      select (${firstDay(period.from)}::date::timestamp at time zone s.time_zone) as starts,
+             ((${firstDay(period.to)}::date + interval '1 month')::timestamp at time zone s.time_zone) as ends
+        from sites s where s.id = ${siteId}
+    )
+    select sp.id as space_id, sp.name as space_name, sp.zone_type, f.id as floor_id,
+           f.name as floor_name,
+           coalesce(stats.audits, 0)::int as audits, coalesce(stats.ready, 0)::int as ready,
+           latest.verdict as last_verdict, latest.submitted_at as last_audit_at,
+           coalesce(work.open_actions, 0)::int as open_actions,
+           coalesce(work.overdue_actions, 0)::int as overdue_actions
+      from spaces sp
+      join floors f on f.id = sp.floor_id
+      cross join bounds
+      left join lateral (
+        select count(*) as audits, count(*) filter (where a.verdict = 'ready') as ready
+          from audits a
+         where a.space_id = sp.id and a.status = 'submitted'
+           and a.submitted_at >= bounds.starts and a.submitted_at < bounds.ends
+      ) stats on true
+      left join lateral (
+        select a.verdict, a.submitted_at from audits a
+         where a.space_id = sp.id and a.status = 'submitted' and a.submitted_at is not null
+         order by a.submitted_at desc limit 1
+      ) latest on true
+      left join lateral (
+        select count(*) as open_actions, count(*) filter (where ca.due_at < now()) as overdue_actions
+          from corrective_actions ca where ca.space_id = sp.id and ca.status <> 'closed'
+      ) work on true
+     where sp.site_id = ${siteId} ${zone}
+     order by f.level, f.name, sp.name`);
+  return result.rows;
+}
+
+/** Submitted audits in the period, oldest first, in pages (for the CSV of underlying rows). */
+export async function auditRowsPage(
+  db: DbOrTx,
+  siteIds: readonly string[],
+  period: Period,
+  after: { submittedAt: Date; id: string } | null,
+  limit: number,
+) {
+  const zone = period.zoneType ? sql`and sp.zone_type = ${period.zoneType}` : sql``;
+  const cursor = after
+    ? sql`and (a.submitted_at, a.id) > (${after.submittedAt.toISOString()}::timestamptz, ${after.id}::uuid)`
+    : sql``;
+  const result = await db.execute<{
+    id: string;
+    site_name: string;
+    floor_name: string;
+    space_name: string;
+    zone_type: ZoneType;
+    auditor_name: string;
+    submitted_at: Date;
+    verdict: Verdict;
+    score: number | null;
+    time_zone: string;
+  }>(sql`
+    select a.id, s.name as site_name, f.name as floor_name, sp.name as space_name, sp.zone_type,
+           u.display_name as auditor_name, a.submitted_at, a.verdict, a.score, s.time_zone
+      from audits a
+      join sites s on s.id = a.site_id
+      join spaces sp on sp.id = a.space_id
+      join floors f on f.id = sp.floor_id
+      join users u on u.id = a.auditor_id
+     where a.site_id = any(${siteArray(siteIds)}) and a.status = 'submitted'
+       and a.submitted_at >= (${firstDay(period.from)}::date::timestamp at time zone s.time_zone)
+       and a.submitted_at < ((${firstDay(period.to)}::date + interval '1 month')::timestamp at time zone s.time_zone)
+       ${zone} ${cursor}
+     order by a.submitted_at, a.id
+     limit ${limit}`);
+  return result.rows.map((row) => ({ ...row, submitted_at: new Date(row.submitted_at) }));
+}
+
+/** Overdue unclosed actions at the sites, most overdue first (for the report). */
+export async function overdueActions(db: DbOrTx, siteIds: readonly string[], limit: number) {
+  const result = await db.execute<{
+    id: string;
+    site_name: string;
+    space_name: string;
+    title: string;
+    severity: Severity;
+    status: string;
+    due_at: Date;
+    owner: string | null;
+    time_zone: string;
+  }>(sql`
+    select ca.id, s.name as site_name, sp.name as space_name, ca.title, ca.severity, ca.status,
+           ca.due_at, u.display_name as owner, s.time_zone
+      from corrective_actions ca
+      join sites s on s.id = ca.site_id
+      join spaces sp on sp.id = ca.space_id
+      left join users u on u.id = ca.assignee_id
+     where ca.site_id = any(${siteArray(siteIds)}) and ca.status <> 'closed' and ca.due_at < now()
+     order by ca.due_at
+     limit ${limit}`);
+  return result.rows.map((row) => ({ ...row, due_at: new Date(row.due_at) }));
+}

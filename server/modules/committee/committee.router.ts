@@ -1,0 +1,190 @@
+import { stringify } from "csv-stringify/sync";
+
+import { itemCategoryLabels } from "@shared/checklists/categories";
+import { formatInZone } from "@shared/calc/due";
+import { verdictLabels } from "@shared/calc/verdict";
+import { committeeQuerySchema, committeeSiteParamsSchema } from "@shared/schemas/committee";
+import { zoneTypeLabels } from "@shared/zones";
+
+import { notFound } from "../../lib/app-error";
+import { asCell, csvPreamble } from "../../lib/csv";
+import { defineRoute, type Access } from "../../lib/routes";
+import { requireSite } from "../sites/sites.service";
+import { buildMonthlyReport } from "./committee.report";
+import * as committee from "./committee.service";
+import { auditRowsPage } from "./committee.repository";
+
+const anyReadableSite: Access = { kind: "any-site", permission: "read:site:site" };
+
+const fixed = (value: number | null | undefined) =>
+  value === null || value === undefined ? "" : value.toFixed(4);
+
+const fileStamp = (query: { from: string; to: string }) => `${query.from}-to-${query.to}`;
+
+export const committeeRoutes = [
+  defineRoute({
+    method: "get",
+    path: "/committee/comparison",
+    summary:
+      "Readiness and compliance by item group per site, with 95% Wilson intervals; a chosen pair's difference with Newcombe's interval",
+    access: anyReadableSite,
+    query: committeeQuerySchema,
+    async handle({ res, deps, auth, query }) {
+      res.json(await committee.comparison(deps.db, auth!.user.networkId, auth!.grants, query));
+    },
+  }),
+  defineRoute({
+    method: "get",
+    path: "/committee/trends",
+    summary:
+      "Monthly readiness p-charts per site, unclosed and overdue actions by age, median days to close",
+    access: anyReadableSite,
+    query: committeeQuerySchema,
+    async handle({ res, deps, auth, query }) {
+      res.json(await committee.trends(deps.db, auth!.user.networkId, auth!.grants, query));
+    },
+  }),
+  defineRoute({
+    method: "get",
+    path: "/committee/sites/:siteId",
+    summary: "One site's spaces: readiness in the period, latest verdict, open and overdue actions",
+    access: {
+      kind: "site",
+      permission: "read:site:site",
+      siteOf: async (params) => params.siteId!,
+    },
+    params: committeeSiteParamsSchema,
+    query: committeeQuerySchema,
+    async handle({ res, deps, auth, params, query }) {
+      const site = await requireSite(deps.db, auth!.user.networkId, params.siteId);
+      res.json(await committee.siteDrillDown(deps.db, site.id, site.name, query));
+    },
+  }),
+  defineRoute({
+    method: "get",
+    path: "/committee/comparison/export",
+    summary: "The comparison as CSV: one row per site and item group",
+    access: anyReadableSite,
+    query: committeeQuerySchema,
+    async handle({ res, deps, auth, query }) {
+      const result = await committee.comparison(deps.db, auth!.user.networkId, auth!.grants, query);
+      const rows: unknown[][] = [];
+      for (const site of result.sites) {
+        const measures = [
+          { measure: "Readiness (audits ready)", ...site.readiness },
+          ...site.categories.map((c) => ({
+            measure: `Compliance: ${itemCategoryLabels[c.category]}`,
+            ...c,
+          })),
+        ];
+        for (const m of measures) {
+          rows.push([
+            site.siteName,
+            m.measure,
+            m.successes,
+            m.n,
+            fixed(m.rate),
+            fixed(m.interval?.lower),
+            fixed(m.interval?.upper),
+            m.smallSample ? "yes" : "no",
+            m.measure.startsWith("Readiness") ? (site.rank ?? "") : "",
+          ]);
+        }
+      }
+      const csv = stringify(
+        rows.map((row) => row.map(asCell)),
+        {
+          header: true,
+          columns: [
+            "site",
+            "measure",
+            "successes",
+            "n",
+            "rate",
+            "95% lower",
+            "95% upper",
+            `small sample (n < ${result.minimumRankedSample})`,
+            "rank",
+          ],
+        },
+      );
+      res
+        .type("text/csv; charset=utf-8")
+        .attachment(`site-comparison-${fileStamp(query)}.csv`)
+        .send(`${csvPreamble}${csv}`);
+    },
+  }),
+  defineRoute({
+    method: "get",
+    path: "/committee/audits/export",
+    summary: "The submitted audits behind the comparison as CSV, streamed",
+    access: anyReadableSite,
+    query: committeeQuerySchema,
+    async handle({ res, deps, auth, query }) {
+      const sites = await committee.readableSites(deps.db, auth!.user.networkId, auth!.grants);
+      const ids = sites.map((site) => site.id);
+      res.type("text/csv; charset=utf-8").attachment(`audits-${fileStamp(query)}.csv`);
+      res.write(
+        `${csvPreamble}${stringify([["audit id", "site", "floor", "space", "zone type", "auditor", "submitted (UTC)", "submitted (site time)", "verdict", "score"]])}`,
+      );
+      // Keyset pages keep memory flat however many audits the period holds.
+      let after: { submittedAt: Date; id: string } | null = null;
+      for (;;) {
+        const page = await auditRowsPage(deps.db, ids, query, after, 2000);
+        if (page.length === 0) break;
+        const chunk = stringify(
+          page.map((row) =>
+            [
+              row.id,
+              row.site_name,
+              row.floor_name,
+              row.space_name,
+              zoneTypeLabels[row.zone_type],
+              row.auditor_name,
+              row.submitted_at.toISOString(),
+              formatInZone(row.submitted_at, row.time_zone),
+              verdictLabels[row.verdict],
+              fixed(row.score),
+            ].map(asCell),
+          ),
+        );
+        if (!res.write(chunk)) await new Promise((resolve) => res.once("drain", resolve));
+        const last = page.at(-1)!;
+        after = { submittedAt: last.submitted_at, id: last.id };
+      }
+      res.end();
+    },
+  }),
+  defineRoute({
+    method: "get",
+    path: "/committee/report",
+    summary: "The monthly committee report as PDF: comparison, charts, overdue actions, cautions",
+    access: anyReadableSite,
+    query: committeeQuerySchema,
+    async handle({ res, deps, auth, query }) {
+      const networkId = auth!.user.networkId;
+      const [comparison, trends] = await Promise.all([
+        committee.comparison(deps.db, networkId, auth!.grants, query),
+        committee.trends(deps.db, networkId, auth!.grants, query),
+      ]);
+      const sites = await committee.readableSites(deps.db, networkId, auth!.grants);
+      if (sites.length === 0) throw notFound("A site to report on");
+      const overdue = await committee.overdueForReport(
+        deps.db,
+        sites.map((site) => site.id),
+      );
+      const pdf = await buildMonthlyReport({
+        comparison,
+        trends,
+        overdue,
+        generatedAt: new Date(),
+      });
+      res
+        .status(200)
+        .type("application/pdf")
+        .set("Content-Length", String(pdf.length))
+        .attachment(`committee-report-${fileStamp(query)}.pdf`)
+        .send(pdf);
+    },
+  }),
+];

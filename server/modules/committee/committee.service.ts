@@ -1,0 +1,318 @@
+import { sql } from "drizzle-orm";
+
+import { itemCategories, categoryOfItem } from "@shared/checklists/categories";
+import { pChart, proportionDifferenceInterval, wilsonInterval } from "@shared/calc/statistics";
+import type { Outcome, Verdict } from "@shared/calc/verdict";
+import type { RoleGrant } from "@shared/roles";
+import {
+  ageBuckets,
+  minimumRankedSample,
+  type CommitteeQuery,
+  type ComparisonResponse,
+  type Proportion,
+  type SiteDrillDown,
+  type TrendsResponse,
+} from "@shared/schemas/committee";
+import type { ZoneType } from "@shared/zones";
+
+import type { Database, DbOrTx } from "../../db/client";
+import { AppError } from "../../lib/app-error";
+import { listSitesFor, networkName } from "../sites/sites.service";
+import * as repo from "./committee.repository";
+
+const confidence = 0.95;
+
+export function proportion(successes: number, n: number): Proportion {
+  return {
+    n,
+    successes,
+    rate: n === 0 ? null : successes / n,
+    interval: n === 0 ? null : wilsonInterval(successes, n, confidence),
+    smallSample: n < minimumRankedSample,
+  };
+}
+
+/** The sites the person may read, in name order. */
+export async function readableSites(db: Database, networkId: string, grants: readonly RoleGrant[]) {
+  return (await listSitesFor(db, networkId, grants)).map((site) => ({
+    id: site.id,
+    name: site.name,
+  }));
+}
+
+export async function comparison(
+  db: Database,
+  networkId: string,
+  grants: readonly RoleGrant[],
+  query: CommitteeQuery,
+): Promise<ComparisonResponse> {
+  const sites = await readableSites(db, networkId, grants);
+  const ids = sites.map((site) => site.id);
+  const [readiness, categories, name] = await Promise.all([
+    repo.readinessBySite(db, ids, query),
+    repo.categoriesBySite(db, ids, query),
+    networkName(db, networkId),
+  ]);
+  const rows = sites.map((site) => {
+    const counts = readiness.find((row) => row.site_id === site.id);
+    const audits = counts?.audits ?? 0;
+    return {
+      siteId: site.id,
+      siteName: site.name,
+      readiness: proportion(counts?.ready ?? 0, audits),
+      verdicts: {
+        ready: counts?.ready ?? 0,
+        ready_with_conditions: counts?.with_conditions ?? 0,
+        not_ready: counts?.not_ready ?? 0,
+      },
+      categories: itemCategories.flatMap((category) => {
+        const row = categories.find((c) => c.site_id === site.id && c.category === category);
+        return row && row.applicable > 0
+          ? [{ category, ...proportion(row.passed, row.applicable) }]
+          : [];
+      }),
+      rank: null as number | null,
+    };
+  });
+  // Only sites with enough audits are ranked; the others keep their interval and a flag.
+  const ranked = rows
+    .filter((row) => !row.readiness.smallSample)
+    .sort((a, b) => b.readiness.rate! - a.readiness.rate!);
+  ranked.forEach((row, index) => {
+    row.rank = index + 1;
+  });
+  const total = rows.reduce((sum, row) => sum + row.readiness.n, 0);
+  const ready = rows.reduce((sum, row) => sum + row.readiness.successes, 0);
+
+  let difference: ComparisonResponse["difference"] = null;
+  if (query.siteA && query.siteB) {
+    const a = rows.find((row) => row.siteId === query.siteA);
+    const b = rows.find((row) => row.siteId === query.siteB);
+    if (!a || !b) {
+      const field = a ? "siteB" : "siteA";
+      throw new AppError("validation_failed", 400, "Choose two sites you can read.", {
+        fields: { [field]: "Not one of the sites you can read." },
+      });
+    }
+    if (a.readiness.n > 0 && b.readiness.n > 0) {
+      const interval = proportionDifferenceInterval(
+        a.readiness.successes,
+        a.readiness.n,
+        b.readiness.successes,
+        b.readiness.n,
+        confidence,
+      );
+      difference = {
+        siteA: a.siteId,
+        siteB: b.siteId,
+        difference: a.readiness.rate! - b.readiness.rate!,
+        interval,
+        excludesZero: interval.lower > 0 || interval.upper < 0,
+      };
+    }
+  }
+  return {
+    networkName: name,
+    from: query.from,
+    to: query.to,
+    zoneType: query.zoneType ?? null,
+    confidence,
+    minimumRankedSample,
+    network: proportion(ready, total),
+    sites: rows,
+    difference,
+  };
+}
+
+const emptyBuckets = () =>
+  Object.fromEntries(ageBuckets.map((bucket) => [bucket, 0])) as Record<
+    (typeof ageBuckets)[number],
+    number
+  >;
+
+export async function trends(
+  db: Database,
+  networkId: string,
+  grants: readonly RoleGrant[],
+  query: CommitteeQuery,
+): Promise<TrendsResponse> {
+  const sites = await readableSites(db, networkId, grants);
+  const ids = sites.map((site) => site.id);
+  const [months, aging, closes] = await Promise.all([
+    repo.readinessByMonth(db, ids, query),
+    repo.actionAging(db, ids, query.zoneType),
+    repo.closeTimes(db, ids, query),
+  ]);
+  return {
+    from: query.from,
+    to: query.to,
+    zoneType: query.zoneType ?? null,
+    sites: sites.map((site) => {
+      // Months without audits are absent from the rollup query, so they are left out of the chart.
+      const own = months.filter((row) => row.site_id === site.id);
+      if (own.length === 0)
+        return { siteId: site.id, siteName: site.name, centre: null, points: [] };
+      const chart = pChart(own.map((row) => ({ defects: row.ready, n: row.audits })));
+      return {
+        siteId: site.id,
+        siteName: site.name,
+        centre: chart.centre,
+        points: chart.points.map((point, index) => ({
+          month: own[index]!.month,
+          audits: own[index]!.audits,
+          ready: own[index]!.ready,
+          ...point,
+        })),
+      };
+    }),
+    aging: sites.map((site) => {
+      const pick = (rows: typeof aging.open) => {
+        const row = rows.find((candidate) => candidate.site_id === site.id);
+        const buckets = emptyBuckets();
+        for (const bucket of ageBuckets) buckets[bucket] = row?.[bucket] ?? 0;
+        return buckets;
+      };
+      return {
+        siteId: site.id,
+        siteName: site.name,
+        open: pick(aging.open),
+        overdue: pick(aging.overdue),
+      };
+    }),
+    closeTimes: closes
+      .map((row) => ({
+        siteId: row.site_id,
+        siteName: sites.find((site) => site.id === row.site_id)!.name,
+        severity: row.severity,
+        closed: row.closed,
+        medianDays: Math.round(Number(row.median_days) * 10) / 10,
+      }))
+      .sort(
+        (a, b) =>
+          a.siteName.localeCompare(b.siteName) ||
+          ["critical", "major", "minor"].indexOf(a.severity) -
+            ["critical", "major", "minor"].indexOf(b.severity),
+      ),
+  };
+}
+
+export async function siteDrillDown(
+  db: Database,
+  siteId: string,
+  siteName: string,
+  query: CommitteeQuery,
+): Promise<SiteDrillDown> {
+  const rows = await repo.spacesOfSite(db, siteId, query);
+  return {
+    siteId,
+    siteName,
+    from: query.from,
+    to: query.to,
+    spaces: rows.map((row) => ({
+      spaceId: row.space_id,
+      spaceName: row.space_name,
+      zoneType: row.zone_type,
+      floorId: row.floor_id,
+      floorName: row.floor_name,
+      readiness: proportion(row.ready, row.audits),
+      lastVerdict: row.last_verdict,
+      lastAuditAt: row.last_audit_at ? new Date(row.last_audit_at).toISOString() : null,
+      openActions: row.open_actions,
+      overdueActions: row.overdue_actions,
+    })),
+  };
+}
+
+/** Answer counts by item group, for the monthly totals. */
+function answerCounts(answers: readonly { key: string; outcome: Outcome | null }[], sign: 1 | -1) {
+  const byCategory = new Map<string, { applicable: number; passed: number }>();
+  for (const answer of answers) {
+    if (answer.outcome !== "pass" && answer.outcome !== "fail") continue;
+    const category = categoryOfItem(answer.key);
+    const counts = byCategory.get(category) ?? { applicable: 0, passed: 0 };
+    counts.applicable += sign;
+    if (answer.outcome === "pass") counts.passed += sign;
+    byCategory.set(category, counts);
+  }
+  return [...byCategory].map(([category, counts]) => ({ category, ...counts }));
+}
+
+/** Counts a submitted audit into its site's month; call in the submit's transaction. */
+export async function countSubmittedAudit(
+  tx: DbOrTx,
+  audit: {
+    siteId: string;
+    zoneType: ZoneType;
+    submittedAt: Date;
+    verdict: Verdict;
+    answers: readonly { key: string; outcome: Outcome | null }[];
+  },
+) {
+  const where = { siteId: audit.siteId, zoneType: audit.zoneType, at: audit.submittedAt };
+  await repo.addAuditCounts(tx, { ...where, delta: repo.verdictDelta(audit.verdict, 1) });
+  await repo.addAnswerCounts(tx, { ...where, counts: answerCounts(audit.answers, 1) });
+}
+
+/** Moves an amended answer and verdict from their old counts to their new ones. */
+export async function countAmendment(
+  tx: DbOrTx,
+  change: {
+    siteId: string;
+    zoneType: ZoneType;
+    submittedAt: Date;
+    verdictBefore: Verdict | null;
+    verdictAfter: Verdict;
+    key: string;
+    outcomeBefore: Outcome | null;
+    outcomeAfter: Outcome;
+  },
+) {
+  const where = { siteId: change.siteId, zoneType: change.zoneType, at: change.submittedAt };
+  if (change.verdictBefore && change.verdictBefore !== change.verdictAfter) {
+    const out = repo.verdictDelta(change.verdictBefore, -1, 0);
+    const into = repo.verdictDelta(change.verdictAfter, 1, 0);
+    await repo.addAuditCounts(tx, {
+      ...where,
+      delta: {
+        audits: 0,
+        ready: out.ready + into.ready,
+        withConditions: out.withConditions + into.withConditions,
+        notReady: out.notReady + into.notReady,
+      },
+    });
+  }
+  const removed = answerCounts([{ key: change.key, outcome: change.outcomeBefore }], -1);
+  const added = answerCounts([{ key: change.key, outcome: change.outcomeAfter }], 1);
+  const merged = new Map<string, { applicable: number; passed: number }>();
+  for (const row of [...removed, ...added]) {
+    const counts = merged.get(row.category) ?? { applicable: 0, passed: 0 };
+    counts.applicable += row.applicable;
+    counts.passed += row.passed;
+    merged.set(row.category, counts);
+  }
+  await repo.addAnswerCounts(tx, {
+    ...where,
+    counts: [...merged].map(([category, counts]) => ({ category, ...counts })),
+  });
+}
+
+/**
+ * At start-up: the item groups into the database, and monthly totals counted once for a database
+ * whose audits predate them.
+ */
+export async function prepareMonthStats(db: Database) {
+  await repo.syncItemCategories(db);
+  await db.transaction(async (tx) => {
+    await tx.execute(sqlLock);
+    if (await repo.hasMonthStats(tx)) return;
+    await repo.rebuildMonthStats(tx, await repo.sitesWithSubmittedAudits(tx));
+  });
+}
+
+const sqlLock = sql`select pg_advisory_xact_lock(hashtext('lintel-month-stats'))`;
+
+export const rebuildMonthStats = repo.rebuildMonthStats;
+
+/** The overdue actions a report lists, most overdue first (at most 200). */
+export const overdueForReport = (db: Database, siteIds: readonly string[]) =>
+  repo.overdueActions(db, siteIds, 200);
