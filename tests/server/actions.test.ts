@@ -564,14 +564,12 @@ describe("corrective actions", () => {
     const wipes = detail.items.find((i: { text: string }) =>
       i.text.startsWith("Disinfectant wipes"),
     );
-    const amended = await as(admin)
-      .post(`/api/audits/${auditId}/amendments`)
-      .send({
-        itemId: wipes.id,
-        outcome: "fail",
-        note: "No wipes",
-        reason: "Entered as pass by mistake",
-      });
+    const amended = await as(admin).post(`/api/audits/${auditId}/amendments`).send({
+      itemId: wipes.id,
+      outcome: "fail",
+      note: "No wipes",
+      reason: "Entered as pass by mistake",
+    });
     expect(amended.status).toBe(200);
     const [action] = await actionsOf(space.id);
     expect(action).toMatchObject({ status: "open", severity: "major", findingCount: 1 });

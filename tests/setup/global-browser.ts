@@ -39,6 +39,7 @@ export default async function setup() {
       SMTP_PORT: String(catcher.port),
       LINTEL_DEV_MAILBOX_DIR: mailboxDir,
       LINTEL_OUTBOX_POLL_MS: "100",
+      LINTEL_ACTION_NOTICE_MS: "300",
       S3_ENDPOINT: s3.endpoint,
     }),
   );
