@@ -4,9 +4,10 @@ import PDFDocument from "pdfkit";
 
 import { itemCategoryLabels } from "@shared/checklists/categories";
 import { formatInZone } from "@shared/calc/due";
-import type { Severity } from "@shared/calc/verdict";
 import type { ComparisonResponse, TrendsResponse } from "@shared/schemas/committee";
 import { zoneTypeLabels } from "@shared/zones";
+
+import type { overdueActions } from "./committee.repository";
 
 const require = createRequire(import.meta.url);
 const fonts = {
@@ -17,16 +18,7 @@ const fonts = {
 export const reportCaution =
   "Lintel supports an infection prevention programme; it does not replace it. Ventilation figures are the auditors' readings, not a certification: defer to the facility's engineers, local codes and the authority having jurisdiction. Readiness verdicts and scores are Lintel's own rules, not a published standard.";
 
-export interface OverdueRow {
-  site_name: string;
-  space_name: string;
-  title: string;
-  severity: Severity;
-  status: string;
-  due_at: Date;
-  owner: string | null;
-  time_zone: string;
-}
+export type OverdueRow = Awaited<ReturnType<typeof overdueActions>>[number];
 
 export interface ReportInput {
   comparison: ComparisonResponse;

@@ -17,6 +17,7 @@ import { Link } from "react-router-dom";
 
 import { Button } from "@/components/ui/button";
 import { SelectField } from "@/components/ui/select-field";
+import { SortableTableHead } from "@/components/ui/sortable-table-head";
 import { linkStyles } from "@/components/ui/text-link";
 import { cn } from "@/lib/cn";
 
@@ -235,41 +236,7 @@ export function ActionsTable({
         // Explicit roles keep the table's meaning for screen readers while phones restyle it.
         <div className="md:overflow-x-auto md:rounded-card md:border md:border-surface-line md:bg-surface">
           <table role="table" aria-label="Corrective actions" className="block w-full md:table">
-            <thead role="rowgroup" className="sr-only md:not-sr-only md:table-header-group">
-              {table.getHeaderGroups().map((group) => (
-                <tr role="row" key={group.id}>
-                  {group.headers.map((header) => {
-                    const sorted = header.column.getIsSorted();
-                    return (
-                      <th
-                        role="columnheader"
-                        key={header.id}
-                        scope="col"
-                        aria-sort={
-                          sorted === "asc"
-                            ? "ascending"
-                            : sorted === "desc"
-                              ? "descending"
-                              : undefined
-                        }
-                        className="border-b-2 border-surface-line px-3 py-2 text-left text-sm font-semibold whitespace-nowrap text-ink-muted"
-                      >
-                        <button
-                          type="button"
-                          onClick={header.column.getToggleSortingHandler()}
-                          className="inline-flex min-h-tap items-center gap-1 rounded font-semibold hover:text-ink"
-                        >
-                          {flexRender(header.column.columnDef.header, header.getContext())}
-                          <span aria-hidden="true" className="w-3">
-                            {sorted === "asc" ? "▲" : sorted === "desc" ? "▼" : ""}
-                          </span>
-                        </button>
-                      </th>
-                    );
-                  })}
-                </tr>
-              ))}
-            </thead>
+            <SortableTableHead table={table} cellClassName="whitespace-nowrap" />
             <tbody role="rowgroup" className="flex flex-col gap-3 md:table-row-group">
               {rows.map((row) => (
                 <tr
