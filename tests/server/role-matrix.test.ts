@@ -863,6 +863,22 @@ describe("role matrix: every registered route, as every role, another site's mem
     expect(Object.keys(samples).sort()).toEqual(registered);
   });
 
+  it("when a committee member calls any write that is not about their own account, then it is refused with 403", () => {
+    // Each of these rows is also called for real below, as every caller.
+    const ownAccount = ["/auth/", "/invitations/"];
+    const writes = apiRoutes.filter(
+      (route) => route.method !== "get" && !ownAccount.some((p) => route.path.startsWith(p)),
+    );
+    expect(writes.length).toBeGreaterThan(30);
+    for (const committee of ["committee member (network)", "committee member @A"] as const) {
+      for (const route of writes) {
+        const sample = samples[routeKey(route)]!;
+        expect(sample.allowed, routeKey(route)).not.toContain(committee);
+        expect(sample.hidden ?? [], routeKey(route)).not.toContain(committee);
+      }
+    }
+  });
+
   for (const route of apiRoutes) {
     const key = routeKey(route);
     describe(key, () => {
