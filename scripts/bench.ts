@@ -12,6 +12,7 @@ import { processImage } from "../server/lib/images";
 import { startServer } from "../server/server";
 import { prepareCluster } from "./lib/postgres";
 import { freePort } from "./lib/process";
+import { benchCommittee } from "./bench-committee";
 import { clientBundleReport } from "./lib/bundle-size";
 
 /**
@@ -240,6 +241,9 @@ async function main() {
 
     console.log("\nJavaScript the screens load first (gzip):");
     for (const line of await clientBundleReport()) console.log(`  ${line}`);
+
+    console.log("\nCommittee view at network scale:");
+    await benchCommittee(cluster, s3.endpoint);
   } finally {
     await server.close();
     await s3.stop();

@@ -141,59 +141,6 @@ export async function sitesWithSubmittedAudits(db: DbOrTx) {
   return result.rows.map((row) => row.site_id);
 }
 
-export async function readinessBySite(db: DbOrTx, siteIds: readonly string[], period: Period) {
-  const result = await db.execute<{
-    site_id: string;
-    audits: number;
-    ready: number;
-    with_conditions: number;
-    not_ready: number;
-  }>(sql`
-    select site_id, sum(audits)::int as audits, sum(ready)::int as ready,
-           sum(with_conditions)::int as with_conditions, sum(not_ready)::int as not_ready
-      from audit_month_stats
-     where site_id = any(${siteArray(siteIds)})
-       and month between ${firstDay(period.from)}::date and ${firstDay(period.to)}::date
-       ${zoneFilter(period.zoneType)}
-     group by site_id`);
-  return result.rows;
-}
-
-export async function categoriesBySite(db: DbOrTx, siteIds: readonly string[], period: Period) {
-  const result = await db.execute<{
-    site_id: string;
-    category: string;
-    applicable: number;
-    passed: number;
-  }>(sql`
-    select site_id, category, sum(applicable)::int as applicable, sum(passed)::int as passed
-      from answer_month_stats
-     where site_id = any(${siteArray(siteIds)})
-       and month between ${firstDay(period.from)}::date and ${firstDay(period.to)}::date
-       ${zoneFilter(period.zoneType)}
-     group by site_id, category`);
-  return result.rows;
-}
-
-export async function readinessByMonth(db: DbOrTx, siteIds: readonly string[], period: Period) {
-  const result = await db.execute<{
-    site_id: string;
-    month: string;
-    audits: number;
-    ready: number;
-  }>(sql`
-    select site_id, to_char(month, 'YYYY-MM') as month, sum(audits)::int as audits,
-           sum(ready)::int as ready
-      from audit_month_stats
-     where site_id = any(${siteArray(siteIds)})
-       and month between ${firstDay(period.from)}::date and ${firstDay(period.to)}::date
-       ${zoneFilter(period.zoneType)}
-     group by site_id, month
-    having sum(audits) > 0
-     order by site_id, month`);
-  return result.rows;
-}
-
 const agingSql = (from: "opened_at" | "due_at") => {
   const age = sql.raw(`extract(epoch from (now() - ca.${from})) / 86400`);
   return sql`
@@ -203,34 +150,49 @@ const agingSql = (from: "opened_at" | "due_at") => {
     count(*) filter (where ${age} > 90)::int as "90+"`;
 };
 
-type Buckets = { "0-7": number; "8-30": number; "31-90": number; "90+": number };
-
-/** Unclosed actions aged since opening, and overdue ones since their due time, as of now. */
-export async function actionAging(db: DbOrTx, siteIds: readonly string[], zoneType?: ZoneType) {
-  const zone = zoneType ? sql`and sp.zone_type = ${zoneType}` : sql``;
-  const open = await db.execute<Buckets & { site_id: string }>(sql`
+/**
+ * The aggregates behind the comparison and the trends, as SQL of their own so the benchmark can
+ * time exactly these statements in psql beside the endpoints that run them.
+ */
+export const committeeQueries = {
+  readinessBySite: (siteIds: readonly string[], period: Period) => sql`
+    select site_id, sum(audits)::int as audits, sum(ready)::int as ready,
+           sum(with_conditions)::int as with_conditions, sum(not_ready)::int as not_ready
+      from audit_month_stats
+     where site_id = any(${siteArray(siteIds)})
+       and month between ${firstDay(period.from)}::date and ${firstDay(period.to)}::date
+       ${zoneFilter(period.zoneType)}
+     group by site_id`,
+  categoriesBySite: (siteIds: readonly string[], period: Period) => sql`
+    select site_id, category, sum(applicable)::int as applicable, sum(passed)::int as passed
+      from answer_month_stats
+     where site_id = any(${siteArray(siteIds)})
+       and month between ${firstDay(period.from)}::date and ${firstDay(period.to)}::date
+       ${zoneFilter(period.zoneType)}
+     group by site_id, category`,
+  readinessByMonth: (siteIds: readonly string[], period: Period) => sql`
+    select site_id, to_char(month, 'YYYY-MM') as month, sum(audits)::int as audits,
+           sum(ready)::int as ready
+      from audit_month_stats
+     where site_id = any(${siteArray(siteIds)})
+       and month between ${firstDay(period.from)}::date and ${firstDay(period.to)}::date
+       ${zoneFilter(period.zoneType)}
+     group by site_id, month
+    having sum(audits) > 0
+     order by site_id, month`,
+  agingOpen: (siteIds: readonly string[], zoneType?: ZoneType) => sql`
     select ca.site_id, ${agingSql("opened_at")}
       from corrective_actions ca join spaces sp on sp.id = ca.space_id
-     where ca.site_id = any(${siteArray(siteIds)}) and ca.status <> 'closed' ${zone}
-     group by ca.site_id`);
-  const overdue = await db.execute<Buckets & { site_id: string }>(sql`
+     where ca.site_id = any(${siteArray(siteIds)}) and ca.status <> 'closed'
+       ${zoneFilter(zoneType, sql.raw("sp.zone_type"))}
+     group by ca.site_id`,
+  agingOverdue: (siteIds: readonly string[], zoneType?: ZoneType) => sql`
     select ca.site_id, ${agingSql("due_at")}
       from corrective_actions ca join spaces sp on sp.id = ca.space_id
      where ca.site_id = any(${siteArray(siteIds)}) and ca.status <> 'closed'
-       and ca.due_at < now() ${zone}
-     group by ca.site_id`);
-  return { open: open.rows, overdue: overdue.rows };
-}
-
-/** Median days to close by site and severity, for actions closed within the period. */
-export async function closeTimes(db: DbOrTx, siteIds: readonly string[], period: Period) {
-  const zone = period.zoneType ? sql`and sp.zone_type = ${period.zoneType}` : sql``;
-  const result = await db.execute<{
-    site_id: string;
-    severity: Severity;
-    closed: number;
-    median_days: number;
-  }>(sql`
+       and ca.due_at < now() ${zoneFilter(zoneType, sql.raw("sp.zone_type"))}
+     group by ca.site_id`,
+  closeTimes: (siteIds: readonly string[], period: Period) => sql`
     select ca.site_id, ca.severity, count(*)::int as closed,
            percentile_cont(0.5) within group (order by ca.days_to_close) as median_days
       from corrective_actions ca
@@ -239,8 +201,60 @@ export async function closeTimes(db: DbOrTx, siteIds: readonly string[], period:
      where ca.site_id = any(${siteArray(siteIds)}) and ca.status = 'closed'
        and ca.closed_at >= (${firstDay(period.from)}::date::timestamp at time zone s.time_zone)
        and ca.closed_at < ((${firstDay(period.to)}::date + interval '1 month')::timestamp at time zone s.time_zone)
-       ${zone}
-     group by ca.site_id, ca.severity`);
+       ${zoneFilter(period.zoneType, sql.raw("sp.zone_type"))}
+     group by ca.site_id, ca.severity`,
+};
+
+export async function readinessBySite(db: DbOrTx, siteIds: readonly string[], period: Period) {
+  const result = await db.execute<{
+    site_id: string;
+    audits: number;
+    ready: number;
+    with_conditions: number;
+    not_ready: number;
+  }>(committeeQueries.readinessBySite(siteIds, period));
+  return result.rows;
+}
+
+export async function categoriesBySite(db: DbOrTx, siteIds: readonly string[], period: Period) {
+  const result = await db.execute<{
+    site_id: string;
+    category: string;
+    applicable: number;
+    passed: number;
+  }>(committeeQueries.categoriesBySite(siteIds, period));
+  return result.rows;
+}
+
+export async function readinessByMonth(db: DbOrTx, siteIds: readonly string[], period: Period) {
+  const result = await db.execute<{
+    site_id: string;
+    month: string;
+    audits: number;
+    ready: number;
+  }>(committeeQueries.readinessByMonth(siteIds, period));
+  return result.rows;
+}
+
+type Buckets = { "0-7": number; "8-30": number; "31-90": number; "90+": number };
+
+/** Unclosed actions aged since opening, and overdue ones since their due time, as of now. */
+export async function actionAging(db: DbOrTx, siteIds: readonly string[], zoneType?: ZoneType) {
+  const [open, overdue] = await Promise.all([
+    db.execute<Buckets & { site_id: string }>(committeeQueries.agingOpen(siteIds, zoneType)),
+    db.execute<Buckets & { site_id: string }>(committeeQueries.agingOverdue(siteIds, zoneType)),
+  ]);
+  return { open: open.rows, overdue: overdue.rows };
+}
+
+/** Median days to close by site and severity, for actions closed within the period. */
+export async function closeTimes(db: DbOrTx, siteIds: readonly string[], period: Period) {
+  const result = await db.execute<{
+    site_id: string;
+    severity: Severity;
+    closed: number;
+    median_days: number;
+  }>(committeeQueries.closeTimes(siteIds, period));
   return result.rows;
 }
 
