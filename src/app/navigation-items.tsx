@@ -1,3 +1,4 @@
+import { can } from "@shared/permissions";
 import type { RoleGrant } from "@shared/roles";
 import { useMemo } from "react";
 
@@ -6,6 +7,7 @@ import {
   AccountIcon,
   ActionsIcon,
   ChecklistIcon,
+  CommitteeIcon,
   MailIcon,
   PeopleIcon,
   SitesIcon,
@@ -22,6 +24,13 @@ export const navigationItems: readonly NavigationItem[] = [
     icon: <SitesIcon />,
     end: true,
     alsoActiveOn: [paths.site.path, paths.spaceAudits.path],
+  },
+  {
+    label: "Committee",
+    to: paths.committee.getHref(),
+    icon: <CommitteeIcon />,
+    permission: "read:site:site",
+    alsoActiveOn: [paths.committeeSite.path],
   },
   {
     label: "Actions",
@@ -54,13 +63,26 @@ export const navigationItems: readonly NavigationItem[] = [
 /**
  * The entries for this person. The mailbox exists only while demo data is on, so the
  * installation is asked about it, and only when the person could read it at all.
+ * The committee view compares sites, so it is offered to those who read the whole network
+ * (committee members, administrators); anyone else may still open it for their own sites.
  */
 export function useNavigationItems(grants: readonly RoleGrant[]): readonly NavigationItem[] {
   const mayReadMailbox = canAnywhere(grants, "read:dev-mailbox:network");
   const appConfig = useAppConfig({ enabled: mayReadMailbox });
   const demoMailbox = mayReadMailbox && appConfig.data?.demoMailbox === true;
+  const readsNetwork = readsEverySite(grants);
   return useMemo(
-    () => navigationItems.filter((item) => demoMailbox || item.to !== paths.mailbox.getHref()),
-    [demoMailbox],
+    () =>
+      navigationItems.filter(
+        (item) =>
+          (demoMailbox || item.to !== paths.mailbox.getHref()) &&
+          (readsNetwork || item.to !== paths.committee.getHref()),
+      ),
+    [demoMailbox, readsNetwork],
   );
+}
+
+/** A network-wide grant that reads sites: `can` without a site counts only those. */
+function readsEverySite(grants: readonly RoleGrant[]): boolean {
+  return canAnywhere(grants, "read:site:site") && can(grants, "read:site:site");
 }

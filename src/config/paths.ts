@@ -1,3 +1,8 @@
+function withSearch(path: string, search?: URLSearchParams | string): string {
+  const query = search ? String(search).replace(/^\?/, "") : "";
+  return query ? `${path}?${query}` : path;
+}
+
 /** Route paths and the builders that make links to them; nothing else spells a URL. */
 export const paths = {
   home: {
@@ -62,6 +67,15 @@ export const paths = {
   action: {
     path: "/actions/:actionId",
     getHref: (actionId: string) => `/actions/${encodeURIComponent(actionId)}`,
+  },
+  committee: {
+    path: "/committee",
+    getHref: (search?: URLSearchParams | string) => withSearch("/committee", search),
+  },
+  committeeSite: {
+    path: "/committee/sites/:siteId",
+    getHref: (siteId: string, search?: URLSearchParams | string) =>
+      withSearch(`/committee/sites/${encodeURIComponent(siteId)}`, search),
   },
   checklists: {
     path: "/admin/checklists",

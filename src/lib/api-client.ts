@@ -81,6 +81,11 @@ function errorFromReply(response: Response, body: unknown): ApiError {
   });
 }
 
+/** The error a failed reply carries, for callers that read a reply's body themselves (downloads). */
+export async function readApiError(response: Response): Promise<ApiError> {
+  return errorFromReply(response, await readJson(response));
+}
+
 /** The one way the client talks to the API: same-origin, session cookie, envelope-aware. */
 export async function apiRequest<TSchema extends z.ZodType | undefined = undefined>(
   path: string,

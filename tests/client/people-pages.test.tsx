@@ -59,7 +59,14 @@ describe("who sees people and the mailbox", () => {
 
     await screen.findByRole("heading", { level: 1, name: "My sites" });
     await vi.waitFor(() =>
-      expect(navigationLinks()).toEqual(["Sites", "People", "Checklists", "Mailbox", "Account"]),
+      expect(navigationLinks()).toEqual([
+        "Sites",
+        "Committee",
+        "People",
+        "Checklists",
+        "Mailbox",
+        "Account",
+      ]),
     );
     expect(screen.getByRole("link", { name: "People" }).getAttribute("href")).toBe("/admin/people");
   });
@@ -70,7 +77,7 @@ describe("who sees people and the mailbox", () => {
 
     await screen.findByRole("heading", { level: 1, name: "My sites" });
     await vi.waitFor(() =>
-      expect(navigationLinks()).toEqual(["Sites", "People", "Checklists", "Account"]),
+      expect(navigationLinks()).toEqual(["Sites", "Committee", "People", "Checklists", "Account"]),
     );
   });
 

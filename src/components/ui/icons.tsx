@@ -134,3 +134,17 @@ export function ActionsIcon({ className }: IconProps) {
     </OutlineIcon>
   );
 }
+
+/** Dots with whiskers over a baseline: sites compared with their intervals. */
+export function CommitteeIcon({ className }: IconProps) {
+  return (
+    <OutlineIcon className={className}>
+      <path d="M3 20.5h18" />
+      <path d="M7 8v8M12 5v8M17 10v7" />
+      <path d="M6 8h2M6 16h2M11 5h2M11 13h2M16 10h2M16 17h2" />
+      <circle cx="7" cy="12" r="1.4" />
+      <circle cx="12" cy="9" r="1.4" />
+      <circle cx="17" cy="13.5" r="1.4" />
+    </OutlineIcon>
+  );
+}
