@@ -136,6 +136,23 @@ export function createRoutes(queryClient: QueryClient): RouteObject[] {
               },
             },
             {
+              path: paths.committee.path,
+              errorElement: <RouteError />,
+              lazy: async () => {
+                const { CommitteeRoute, committeeLoader } = await import("./routes/committee");
+                return { Component: CommitteeRoute, loader: committeeLoader(queryClient) };
+              },
+            },
+            {
+              path: paths.committeeSite.path,
+              errorElement: <RouteError />,
+              lazy: async () => {
+                const { CommitteeSiteRoute, committeeSiteLoader } =
+                  await import("./routes/committee-site");
+                return { Component: CommitteeSiteRoute, loader: committeeSiteLoader(queryClient) };
+              },
+            },
+            {
               path: paths.checklists.path,
               errorElement: <RouteError />,
               lazy: async () => {

@@ -1,0 +1,44 @@
+import type { QueryClient } from "@tanstack/react-query";
+import { useCallback, useMemo } from "react";
+import { type LoaderFunctionArgs, useSearchParams } from "react-router-dom";
+
+import { comparisonQueryOptions } from "@/features/committee/api/get-comparison";
+import { trendsQueryOptions } from "@/features/committee/api/get-trends";
+import { CommitteeOverview } from "@/features/committee/components/committee-overview";
+import {
+  type CommitteeView,
+  periodOf,
+  viewErrors,
+  viewFromSearch,
+  viewToSearch,
+} from "@/features/committee/lib/committee-view";
+
+import { isSignedIn } from "../session";
+
+export function committeeLoader(queryClient: QueryClient) {
+  return async ({ request }: LoaderFunctionArgs) => {
+    const view = viewFromSearch(new URL(request.url).searchParams);
+    if (Object.keys(viewErrors(view)).length === 0 && (await isSignedIn(queryClient))) {
+      void queryClient.prefetchQuery(comparisonQueryOptions(view));
+      void queryClient.prefetchQuery(trendsQueryOptions(periodOf(view)));
+    }
+    return null;
+  };
+}
+
+/** The committee view; period, zone type and the pair of sites live in the address. */
+export function CommitteeRoute() {
+  const [search, setSearch] = useSearchParams();
+  const view = useMemo(() => viewFromSearch(search), [search]);
+  const changeView = useCallback(
+    (next: CommitteeView, options?: { replace?: boolean }) =>
+      setSearch(viewToSearch(next), { replace: options?.replace ?? false }),
+    [setSearch],
+  );
+  return (
+    <>
+      <title>Committee view · Lintel</title>
+      <CommitteeOverview view={view} onViewChange={changeView} />
+    </>
+  );
+}

@@ -1,0 +1,91 @@
+import { type ZoneType, zoneTypeLabels, zoneTypes } from "@shared/zones";
+import { useState } from "react";
+
+import { SelectField } from "@/components/ui/select-field";
+import { TextField } from "@/components/ui/text-field";
+
+import { type CommitteeView, isMonth, viewErrors } from "../lib/committee-view";
+
+export interface CommitteeFiltersProps {
+  view: CommitteeView;
+  /** The sites the person can read, once known. */
+  sites: readonly { id: string; name: string }[];
+  onChange: (view: CommitteeView) => void;
+}
+
+const zoneOptions = zoneTypes.map((zoneType) => ({
+  value: zoneType,
+  label: zoneTypeLabels[zoneType],
+}));
+
+/**
+ * Period, zone type and the pair of sites. A month field may be half typed; only a whole month
+ * changes the view, and the field keeps what was typed until then.
+ */
+export function CommitteeFilters({ view, sites, onChange }: CommitteeFiltersProps) {
+  const [draft, setDraft] = useState<{ from?: string; to?: string }>({});
+  const errors = viewErrors(view);
+  const siteOptions = sites.map((site) => ({ value: site.id, label: site.name }));
+
+  const changeMonth = (field: "from" | "to", value: string) => {
+    if (isMonth(value)) {
+      setDraft((current) => ({ ...current, [field]: undefined }));
+      onChange({ ...view, [field]: value });
+    } else {
+      setDraft((current) => ({ ...current, [field]: value }));
+    }
+  };
+
+  return (
+    <div
+      role="search"
+      aria-label="Choose what the committee view shows"
+      className="grid grid-cols-2 items-start gap-3 rounded-card border border-surface-line bg-surface p-4 md:grid-cols-3 lg:grid-cols-5 print:hidden"
+    >
+      <TextField
+        label="From"
+        type="month"
+        value={draft.from ?? view.from}
+        max={view.to}
+        error={draft.from !== undefined ? "A month such as 2026-03." : errors.from}
+        onChange={(event) => changeMonth("from", event.target.value)}
+      />
+      <TextField
+        label="To"
+        type="month"
+        value={draft.to ?? view.to}
+        min={view.from}
+        error={draft.to !== undefined ? "A month such as 2026-03." : errors.to}
+        onChange={(event) => changeMonth("to", event.target.value)}
+      />
+      <SelectField
+        label="Zone type"
+        className="col-span-2 md:col-span-1"
+        placeholder="All zone types"
+        options={zoneOptions}
+        value={view.zoneType ?? ""}
+        onChange={(event) => {
+          const { zoneType: _dropped, ...rest } = view;
+          const value = event.target.value as ZoneType | "";
+          onChange(value ? { ...rest, zoneType: value } : rest);
+        }}
+      />
+      <SelectField
+        label="Site A"
+        options={siteOptions}
+        value={view.siteA ?? ""}
+        disabled={siteOptions.length < 2}
+        error={errors.siteA}
+        onChange={(event) => onChange({ ...view, siteA: event.target.value })}
+      />
+      <SelectField
+        label="Site B"
+        options={siteOptions}
+        value={view.siteB ?? ""}
+        disabled={siteOptions.length < 2}
+        error={errors.siteB}
+        onChange={(event) => onChange({ ...view, siteB: event.target.value })}
+      />
+    </div>
+  );
+}

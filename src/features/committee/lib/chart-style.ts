@@ -1,0 +1,38 @@
+import type { Severity } from "@shared/calc/verdict";
+import type { AgeBucket } from "@shared/schemas/committee";
+
+/** The design tokens the charts draw with (SVG attributes cannot take Tailwind classes). */
+export const chartColours = {
+  brand: "#1a4a4d",
+  brandSoft: "#6fb0b2",
+  clay: "#9a4f22",
+  ink: "#17212b",
+  inkMuted: "#4a5866",
+  grid: "#d7dde2",
+} as const;
+
+/** Lighter to darker with age; the oldest in the warm accent so it stands out. */
+export const ageBucketColours: Record<AgeBucket, string> = {
+  "0-7": "#a7d0d1",
+  "8-30": "#3f8d90",
+  "31-90": "#163b3d",
+  "90+": "#9a4f22",
+};
+
+export const severityColours: Record<Severity, string> = {
+  critical: "#a3212b",
+  major: "#8a5a00",
+  minor: "#3f8d90",
+};
+
+export const axisTick = { fill: chartColours.inkMuted, fontSize: 12 } as const;
+
+export const tableStyles = {
+  frame:
+    "overflow-x-auto rounded-card border border-surface-line bg-surface print:overflow-visible",
+  table: "committee-table w-full border-collapse text-left text-sm",
+  caption: "px-3 pt-3 pb-1 text-left font-semibold text-ink",
+  head: "border-b-2 border-surface-line px-3 py-2 font-semibold whitespace-nowrap text-ink-muted",
+  cell: "border-b border-surface-line px-3 py-2 align-top",
+  number: "border-b border-surface-line px-3 py-2 text-right align-top tabular-nums",
+} as const;
