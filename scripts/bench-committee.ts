@@ -344,6 +344,7 @@ export async function benchCommittee(cluster: Cluster, s3Endpoint: string): Prom
         "psql p50".padStart(9),
         "psql p95".padStart(9),
         "p95/psql".padStart(9),
+        "(p50−me)/psql".padStart(14),
       ].join(" "),
     );
     for (const scale of results) {
@@ -364,6 +365,22 @@ export async function benchCommittee(cluster: Cluster, s3Endpoint: string): Prom
         );
       }
     }
+    const exportStarted = performance.now();
+    const exported = await fetch(`${origin}/api/committee/audits/export?${query}`, {
+      headers: { cookie, origin },
+    });
+    const csv = await exported.text();
+    console.log(
+      `  audits CSV for the period: ${(csv.split("\n").length - 2).toLocaleString("en-GB")} rows, ${(csv.length / 1024 / 1024).toFixed(1)} MB in ${((performance.now() - exportStarted) / 1000).toFixed(1)} s`,
+    );
+    const reportStarted = performance.now();
+    const report = await fetch(`${origin}/api/committee/report?${query}`, {
+      headers: { cookie, origin },
+    });
+    const pdf = await report.arrayBuffer();
+    console.log(
+      `  monthly report PDF: ${(pdf.byteLength / 1024).toFixed(0)} kB in ${((performance.now() - reportStarted) / 1000).toFixed(1)} s`,
+    );
     const [small, large] = results as [ScaleResult, ScaleResult];
     for (const name of Object.keys(large.endpoints)) {
       const growth = large.endpoints[name]!.p95 / small.endpoints[name]!.p95;

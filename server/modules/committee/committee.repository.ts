@@ -1,4 +1,4 @@
-import { sql } from "drizzle-orm";
+import { type SQL, sql } from "drizzle-orm";
 
 import { categorisedKeys } from "@shared/checklists/categories";
 import type { Severity, Verdict } from "@shared/calc/verdict";
@@ -17,6 +17,10 @@ export interface Period {
 
 const zoneFilter = (zoneType: ZoneType | undefined, column = sql.raw("zone_type")) =>
   zoneType ? sql`and ${column} = ${zoneType}` : sql``;
+
+/** Joins the action's space only when a zone type narrows the figures. */
+const zoneJoin = (zoneType: ZoneType | undefined) =>
+  zoneType ? sql`join spaces sp on sp.id = ca.space_id and sp.zone_type = ${zoneType}` : sql``;
 
 const siteArray = (siteIds: readonly string[]) => sql`${`{${siteIds.join(",")}}`}::uuid[]`;
 
@@ -141,14 +145,16 @@ export async function sitesWithSubmittedAudits(db: DbOrTx) {
   return result.rows.map((row) => row.site_id);
 }
 
-const agingSql = (from: "opened_at" | "due_at") => {
-  const age = sql.raw(`extract(epoch from (now() - ca.${from})) / 86400`);
-  return sql`
-    count(*) filter (where ${age} <= 7)::int as "0-7",
-    count(*) filter (where ${age} > 7 and ${age} <= 30)::int as "8-30",
-    count(*) filter (where ${age} > 30 and ${age} <= 90)::int as "31-90",
-    count(*) filter (where ${age} > 90)::int as "90+"`;
-};
+/** Counts actions by age in days since `from`, in the four buckets, per site. */
+const agedBuckets = (from: "opened_at" | "due_at", where: SQL) => sql`
+    select site_id,
+           count(*) filter (where age <= 7)::int as "0-7",
+           count(*) filter (where age > 7 and age <= 30)::int as "8-30",
+           count(*) filter (where age > 30 and age <= 90)::int as "31-90",
+           count(*) filter (where age > 90)::int as "90+"
+      from (select ca.site_id, extract(epoch from (now() - ca.${sql.raw(from)})) / 86400 as age
+              ${where}) aged
+     group by site_id`;
 
 /**
  * The aggregates behind the comparison and the trends, as SQL of their own so the benchmark can
@@ -180,28 +186,34 @@ export const committeeQueries = {
      group by site_id, month
     having sum(audits) > 0
      order by site_id, month`,
-  agingOpen: (siteIds: readonly string[], zoneType?: ZoneType) => sql`
-    select ca.site_id, ${agingSql("opened_at")}
-      from corrective_actions ca join spaces sp on sp.id = ca.space_id
-     where ca.site_id = any(${siteArray(siteIds)}) and ca.status <> 'closed'
-       ${zoneFilter(zoneType, sql.raw("sp.zone_type"))}
-     group by ca.site_id`,
-  agingOverdue: (siteIds: readonly string[], zoneType?: ZoneType) => sql`
-    select ca.site_id, ${agingSql("due_at")}
-      from corrective_actions ca join spaces sp on sp.id = ca.space_id
-     where ca.site_id = any(${siteArray(siteIds)}) and ca.status <> 'closed'
-       and ca.due_at < now() ${zoneFilter(zoneType, sql.raw("sp.zone_type"))}
-     group by ca.site_id`,
+  agingOpen: (siteIds: readonly string[], zoneType?: ZoneType) =>
+    agedBuckets(
+      "opened_at",
+      sql`from corrective_actions ca ${zoneJoin(zoneType)}
+          where ca.site_id = any(${siteArray(siteIds)}) and ca.status <> 'closed'`,
+    ),
+  agingOverdue: (siteIds: readonly string[], zoneType?: ZoneType) =>
+    agedBuckets(
+      "due_at",
+      sql`from corrective_actions ca ${zoneJoin(zoneType)}
+          where ca.site_id = any(${siteArray(siteIds)}) and ca.status <> 'closed'
+            and ca.due_at < now()`,
+    ),
+  // The period's bounds are worked out once per site (its own clock), not once per action.
   closeTimes: (siteIds: readonly string[], period: Period) => sql`
+    with bounds as (
+      select s.id,
+             (${firstDay(period.from)}::date::timestamp at time zone s.time_zone) as starts,
+             ((${firstDay(period.to)}::date + interval '1 month')::timestamp at time zone s.time_zone) as ends
+        from sites s where s.id = any(${siteArray(siteIds)})
+    )
     select ca.site_id, ca.severity, count(*)::int as closed,
            percentile_cont(0.5) within group (order by ca.days_to_close) as median_days
-      from corrective_actions ca
-      join sites s on s.id = ca.site_id
-      join spaces sp on sp.id = ca.space_id
-     where ca.site_id = any(${siteArray(siteIds)}) and ca.status = 'closed'
-       and ca.closed_at >= (${firstDay(period.from)}::date::timestamp at time zone s.time_zone)
-       and ca.closed_at < ((${firstDay(period.to)}::date + interval '1 month')::timestamp at time zone s.time_zone)
-       ${zoneFilter(period.zoneType, sql.raw("sp.zone_type"))}
+      from bounds b
+      join corrective_actions ca
+        on ca.site_id = b.id and ca.closed_at >= b.starts and ca.closed_at < b.ends
+      ${zoneJoin(period.zoneType)}
+     where ca.status = 'closed'
      group by ca.site_id, ca.severity`,
 };
 
@@ -332,16 +344,22 @@ export async function auditRowsPage(
     score: number | null;
     time_zone: string;
   }>(sql`
-    select a.id, s.name as site_name, f.name as floor_name, sp.name as space_name, sp.zone_type,
-           u.display_name as auditor_name, a.submitted_at, a.verdict, a.score, s.time_zone
+    with bounds as (
+      select s.id, s.name, s.time_zone,
+             (${firstDay(period.from)}::date::timestamp at time zone s.time_zone) as starts,
+             ((${firstDay(period.to)}::date + interval '1 month')::timestamp at time zone s.time_zone) as ends
+        from sites s where s.id = any(${siteArray(siteIds)})
+    )
+    select a.id, b.name as site_name, f.name as floor_name, sp.name as space_name, sp.zone_type,
+           u.display_name as auditor_name, a.submitted_at, a.verdict, a.score, b.time_zone
       from audits a
-      join sites s on s.id = a.site_id
+      join bounds b on b.id = a.site_id
       join spaces sp on sp.id = a.space_id
       join floors f on f.id = sp.floor_id
       join users u on u.id = a.auditor_id
-     where a.site_id = any(${siteArray(siteIds)}) and a.status = 'submitted'
-       and a.submitted_at >= (${firstDay(period.from)}::date::timestamp at time zone s.time_zone)
-       and a.submitted_at < ((${firstDay(period.to)}::date + interval '1 month')::timestamp at time zone s.time_zone)
+     where a.status = 'submitted'
+       and a.submitted_at >= (select min(starts) from bounds)
+       and a.submitted_at >= b.starts and a.submitted_at < b.ends
        ${zone} ${cursor}
      order by a.submitted_at, a.id
      limit ${limit}`);

@@ -1,0 +1,1 @@
+CREATE INDEX "audits_submitted_idx" ON "audits" USING btree ("submitted_at","id") WHERE status = 'submitted';
