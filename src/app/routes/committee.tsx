@@ -30,9 +30,12 @@ export function committeeLoader(queryClient: QueryClient) {
 export function CommitteeRoute() {
   const [search, setSearch] = useSearchParams();
   const view = useMemo(() => viewFromSearch(search), [search]);
+  // Merged into the address as it is now, not as this render saw it, so quick changes add up.
   const changeView = useCallback(
-    (next: CommitteeView, options?: { replace?: boolean }) =>
-      setSearch(viewToSearch(next), { replace: options?.replace ?? false }),
+    (change: Partial<CommitteeView>, options?: { replace?: boolean }) =>
+      setSearch((current) => viewToSearch({ ...viewFromSearch(current), ...change }), {
+        replace: options?.replace ?? false,
+      }),
     [setSearch],
   );
   return (

@@ -95,6 +95,7 @@ function AgingChart({ aging, measure }: { aging: Aging; measure: Measure }) {
                 name={ageBucketLabels[bucket]}
                 stackId="age"
                 fill={ageBucketColours[bucket]}
+                maxBarSize={32}
                 stroke="white"
                 isAnimationActive={false}
               />

@@ -108,6 +108,7 @@ export function CloseTimes({ closeTimes }: { closeTimes: CloseTimes }) {
               dataKey={severity}
               name={severityLabels[severity]}
               fill={severityColours[severity]}
+              maxBarSize={48}
               isAnimationActive={false}
             />
           ))}

@@ -10,7 +10,8 @@ export interface CommitteeFiltersProps {
   view: CommitteeView;
   /** The sites the person can read, once known. */
   sites: readonly { id: string; name: string }[];
-  onChange: (view: CommitteeView) => void;
+  /** Only the fields that changed; an undefined one is cleared. */
+  onChange: (change: Partial<CommitteeView>) => void;
 }
 
 const zoneOptions = zoneTypes.map((zoneType) => ({
@@ -30,7 +31,7 @@ export function CommitteeFilters({ view, sites, onChange }: CommitteeFiltersProp
   const changeMonth = (field: "from" | "to", value: string) => {
     if (isMonth(value)) {
       setDraft((current) => ({ ...current, [field]: undefined }));
-      onChange({ ...view, [field]: value });
+      onChange({ [field]: value });
     } else {
       setDraft((current) => ({ ...current, [field]: value }));
     }
@@ -64,11 +65,9 @@ export function CommitteeFilters({ view, sites, onChange }: CommitteeFiltersProp
         placeholder="All zone types"
         options={zoneOptions}
         value={view.zoneType ?? ""}
-        onChange={(event) => {
-          const { zoneType: _dropped, ...rest } = view;
-          const value = event.target.value as ZoneType | "";
-          onChange(value ? { ...rest, zoneType: value } : rest);
-        }}
+        onChange={(event) =>
+          onChange({ zoneType: (event.target.value as ZoneType | "") || undefined })
+        }
       />
       <SelectField
         label="Site A"
@@ -76,7 +75,7 @@ export function CommitteeFilters({ view, sites, onChange }: CommitteeFiltersProp
         value={view.siteA ?? ""}
         disabled={siteOptions.length < 2}
         error={errors.siteA}
-        onChange={(event) => onChange({ ...view, siteA: event.target.value })}
+        onChange={(event) => onChange({ siteA: event.target.value })}
       />
       <SelectField
         label="Site B"
@@ -84,7 +83,7 @@ export function CommitteeFilters({ view, sites, onChange }: CommitteeFiltersProp
         value={view.siteB ?? ""}
         disabled={siteOptions.length < 2}
         error={errors.siteB}
-        onChange={(event) => onChange({ ...view, siteB: event.target.value })}
+        onChange={(event) => onChange({ siteB: event.target.value })}
       />
     </div>
   );

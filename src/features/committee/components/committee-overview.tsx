@@ -24,8 +24,11 @@ import { PChart } from "./p-chart";
 
 export interface CommitteeOverviewProps {
   view: CommitteeView;
-  /** Puts the view in the page address; `replace` when it only fills in defaults. */
-  onViewChange: (view: CommitteeView, options?: { replace?: boolean }) => void;
+  /**
+   * Puts a change to the view in the page address (fields left undefined are cleared);
+   * `replace` when it only fills in defaults.
+   */
+  onViewChange: (change: Partial<CommitteeView>, options?: { replace?: boolean }) => void;
 }
 
 function LoadFailed({
@@ -60,8 +63,8 @@ export function CommitteeOverview({ view, onViewChange }: CommitteeOverviewProps
 
   // The chosen pair goes into the address too, so a copied link shows the same comparison.
   useEffect(() => {
-    if (pairA && pairB) onViewChange({ ...view, siteA: pairA, siteB: pairB }, { replace: true });
-  }, [pairA, pairB, view, onViewChange]);
+    if (pairA && pairB) onViewChange({ siteA: pairA, siteB: pairB }, { replace: true });
+  }, [pairA, pairB, onViewChange]);
 
   const siteSearch = viewToSearch(period);
   const siteHref = (siteId: string) => paths.committeeSite.getHref(siteId, siteSearch);
@@ -77,7 +80,7 @@ export function CommitteeOverview({ view, onViewChange }: CommitteeOverviewProps
         </p>
       </div>
       <CautionNote />
-      <CommitteeFilters view={view} sites={sites} onChange={(next) => onViewChange(next)} />
+      <CommitteeFilters view={view} sites={sites} onChange={onViewChange} />
 
       {!valid ? (
         <p className="text-ink-muted">Correct the period above to see the figures.</p>

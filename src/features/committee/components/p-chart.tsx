@@ -149,7 +149,13 @@ export function PChart({ site }: PChartProps) {
                 margin={{ top: 10, right: 16, bottom: 4, left: 0 }}
               >
                 <CartesianGrid stroke={chartColours.grid} vertical={false} />
-                <XAxis dataKey="month" tick={axisTick} interval="preserveStartEnd" minTickGap={8} />
+                <XAxis
+                  dataKey="month"
+                  tick={axisTick}
+                  interval="preserveStartEnd"
+                  minTickGap={8}
+                  padding={{ left: 28, right: 28 }}
+                />
                 <YAxis
                   domain={[0, 100]}
                   ticks={[0, 25, 50, 75, 100]}

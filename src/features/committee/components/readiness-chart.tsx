@@ -122,6 +122,7 @@ export function ReadinessChart({ comparison, table }: ReadinessChartProps) {
             dataKey="name"
             width={160}
             allowDuplicatedCategory={false}
+            reversed
             tick={<SiteNameTickLeft />}
             name="Site"
           />
