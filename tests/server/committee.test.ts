@@ -14,6 +14,7 @@ import {
   latestPublishedVersion,
 } from "../../server/modules/checklists/checklists.service";
 import {
+  exportAuditRows,
   rebuildMonthStats,
   syncItemCategories,
 } from "../../server/modules/committee/committee.repository";
@@ -394,6 +395,27 @@ describe("committee view", () => {
       .trim()
       .split("\n");
     expect(auditLines.length - 1).toBe(seeded.length + 1); // plus the one submitted over HTTP
+  });
+
+  it("when the audits are exported in small batches, then every audit comes once, oldest first", async () => {
+    const batches: number[] = [];
+    const seen: { id: string; at: number }[] = [];
+    await exportAuditRows(
+      testApp().deps.db,
+      siteIds,
+      { from, to },
+      async (rows) => {
+        batches.push(rows.length);
+        seen.push(...rows.map((row) => ({ id: row.id, at: row.submitted_at.getTime() })));
+      },
+      10,
+    );
+    expect(batches.length).toBeGreaterThan(8);
+    expect(batches.slice(0, -1).every((n) => n === 10)).toBe(true);
+    expect(new Set(seen.map((row) => row.id)).size).toBe(seen.length);
+    expect(seen.length).toBeGreaterThanOrEqual(seeded.length);
+    const times = seen.map((row) => row.at);
+    expect(times).toEqual([...times].sort((a, b) => a - b));
   });
 
   it("when the period is not a period, then 400 names the field", async () => {

@@ -4,7 +4,7 @@ import { categorisedKeys } from "@shared/checklists/categories";
 import type { Severity, Verdict } from "@shared/calc/verdict";
 import type { ZoneType } from "@shared/zones";
 
-import type { DbOrTx } from "../../db/client";
+import type { Database, DbOrTx } from "../../db/client";
 
 /** The first day of `month` (YYYY-MM) as a date literal. */
 const firstDay = (month: string) => `${month}-01`;
@@ -320,31 +320,34 @@ export async function spacesOfSite(db: DbOrTx, siteId: string, period: Period) {
   return result.rows;
 }
 
-/** Submitted audits in the period, oldest first, in pages (for the CSV of underlying rows). */
-export async function auditRowsPage(
-  db: DbOrTx,
+export type AuditExportRow = {
+  id: string;
+  site_name: string;
+  floor_name: string;
+  space_name: string;
+  zone_type: ZoneType;
+  auditor_name: string;
+  submitted_at: Date;
+  verdict: Verdict;
+  score: number | null;
+  time_zone: string;
+};
+
+/**
+ * Every submitted audit in the period, oldest first, handed over in batches from one cursor, so
+ * the database sorts once and memory stays flat however many audits the period holds.
+ */
+export async function exportAuditRows(
+  db: Database,
   siteIds: readonly string[],
   period: Period,
-  after: { submittedAt: Date; id: string } | null,
-  limit: number,
+  batch: (rows: AuditExportRow[]) => Promise<void>,
+  size = 2000,
 ) {
   const zone = period.zoneType ? sql`and sp.zone_type = ${period.zoneType}` : sql``;
-  const cursor = after
-    ? sql`and (a.submitted_at, a.id) > (${after.submittedAt.toISOString()}::timestamptz, ${after.id}::uuid)`
-    : sql``;
-  const result = await db.execute<{
-    id: string;
-    site_name: string;
-    floor_name: string;
-    space_name: string;
-    zone_type: ZoneType;
-    auditor_name: string;
-    submitted_at: Date;
-    verdict: Verdict;
-    score: number | null;
-    time_zone: string;
-  }>(sql`
-    with bounds as (
+  await db.transaction(async (tx) => {
+    await tx.execute(sql`declare audit_export no scroll cursor for
+        with bounds as (
       select s.id, s.name, s.time_zone,
              (${firstDay(period.from)}::date::timestamp at time zone s.time_zone) as starts,
              ((${firstDay(period.to)}::date + interval '1 month')::timestamp at time zone s.time_zone) as ends
@@ -360,10 +363,15 @@ export async function auditRowsPage(
      where a.status = 'submitted'
        and a.submitted_at >= (select min(starts) from bounds)
        and a.submitted_at >= b.starts and a.submitted_at < b.ends
-       ${zone} ${cursor}
+       ${zone}
      order by a.submitted_at, a.id
-     limit ${limit}`);
-  return result.rows.map((row) => ({ ...row, submitted_at: new Date(row.submitted_at) }));
+`);
+    for (;;) {
+      const result = await tx.execute<AuditExportRow>(sql.raw(`fetch ${size} from audit_export`));
+      if (result.rows.length === 0) break;
+      await batch(result.rows.map((row) => ({ ...row, submitted_at: new Date(row.submitted_at) })));
+    }
+  });
 }
 
 /** Overdue unclosed actions at the sites, most overdue first (for the report). */

@@ -12,7 +12,7 @@ import { defineRoute, type Access } from "../../lib/routes";
 import { requireSite } from "../sites/sites.service";
 import { buildMonthlyReport } from "./committee.report";
 import * as committee from "./committee.service";
-import { auditRowsPage } from "./committee.repository";
+import { exportAuditRows } from "./committee.repository";
 
 const anyReadableSite: Access = { kind: "any-site", permission: "read:site:site" };
 
@@ -127,11 +127,7 @@ export const committeeRoutes = [
       res.write(
         `${csvPreamble}${stringify([["audit id", "site", "floor", "space", "zone type", "auditor", "submitted (UTC)", "submitted (site time)", "verdict", "score"]])}`,
       );
-      // Keyset pages keep memory flat however many audits the period holds.
-      let after: { submittedAt: Date; id: string } | null = null;
-      for (;;) {
-        const page = await auditRowsPage(deps.db, ids, query, after, 2000);
-        if (page.length === 0) break;
+      await exportAuditRows(deps.db, ids, query, async (page) => {
         const chunk = stringify(
           page.map((row) =>
             [
@@ -149,9 +145,7 @@ export const committeeRoutes = [
           ),
         );
         if (!res.write(chunk)) await new Promise((resolve) => res.once("drain", resolve));
-        const last = page.at(-1)!;
-        after = { submittedAt: last.submitted_at, id: last.id };
-      }
+      });
       res.end();
     },
   }),
