@@ -96,12 +96,18 @@ export function daysToClose(openedAt: Date, closedAt: Date): number {
   return Math.round(((closedAt.getTime() - openedAt.getTime()) / day) * 10) / 10;
 }
 
+const zoneNameFormats = new Map<string, Intl.DateTimeFormat>();
+
 /** The due time as the site's clock shows it, e.g. "Tue 31 Mar 2026, 09:00 BST". */
 export function formatInZone(date: Date, timeZone: string): string {
   const local = format(new TZDate(date.getTime(), timeZone), "EEE d MMM yyyy, HH:mm");
+  // Making a formatter is costly and exports format many rows in few zones: keep one per zone.
+  let names = zoneNameFormats.get(timeZone);
+  if (!names) {
+    names = new Intl.DateTimeFormat("en-GB", { timeZone, timeZoneName: "short" });
+    zoneNameFormats.set(timeZone, names);
+  }
   const zoneName =
-    new Intl.DateTimeFormat("en-GB", { timeZone, timeZoneName: "short" })
-      .formatToParts(date)
-      .find((part) => part.type === "timeZoneName")?.value ?? timeZone;
+    names.formatToParts(date).find((part) => part.type === "timeZoneName")?.value ?? timeZone;
   return `${local} ${zoneName}`;
 }
