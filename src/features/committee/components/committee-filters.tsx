@@ -41,10 +41,11 @@ export function CommitteeFilters({ view, sites, onChange }: CommitteeFiltersProp
     <div
       role="search"
       aria-label="Choose what the committee view shows"
-      className="grid grid-cols-2 items-start gap-3 rounded-card border border-surface-line bg-surface p-4 md:grid-cols-3 lg:grid-cols-5 print:hidden"
+      className="grid grid-cols-2 items-start gap-3 rounded-card border border-surface-line bg-surface p-4 md:grid-cols-6 print:hidden"
     >
       <TextField
         label="From"
+        className="md:col-span-2"
         type="month"
         value={draft.from ?? view.from}
         max={view.to}
@@ -53,6 +54,7 @@ export function CommitteeFilters({ view, sites, onChange }: CommitteeFiltersProp
       />
       <TextField
         label="To"
+        className="md:col-span-2"
         type="month"
         value={draft.to ?? view.to}
         min={view.from}
@@ -61,7 +63,7 @@ export function CommitteeFilters({ view, sites, onChange }: CommitteeFiltersProp
       />
       <SelectField
         label="Zone type"
-        className="col-span-2 md:col-span-1"
+        className="col-span-2"
         placeholder="All zone types"
         options={zoneOptions}
         value={view.zoneType ?? ""}
@@ -71,6 +73,7 @@ export function CommitteeFilters({ view, sites, onChange }: CommitteeFiltersProp
       />
       <SelectField
         label="Site A"
+        className="md:col-span-3"
         options={siteOptions}
         value={view.siteA ?? ""}
         disabled={siteOptions.length < 2}
@@ -79,6 +82,7 @@ export function CommitteeFilters({ view, sites, onChange }: CommitteeFiltersProp
       />
       <SelectField
         label="Site B"
+        className="md:col-span-3"
         options={siteOptions}
         value={view.siteB ?? ""}
         disabled={siteOptions.length < 2}

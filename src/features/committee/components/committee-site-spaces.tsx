@@ -29,9 +29,6 @@ function SpacesTable({ siteId, spaces }: { siteId: string; spaces: readonly Spac
             <th scope="col" className={tableStyles.head}>
               Space
             </th>
-            <th scope="col" className={tableStyles.head}>
-              Floor
-            </th>
             <th scope="col" className={cn(tableStyles.head, "text-right")}>
               Audits
             </th>
@@ -50,21 +47,31 @@ function SpacesTable({ siteId, spaces }: { siteId: string; spaces: readonly Spac
             <th scope="col" className={cn(tableStyles.head, "text-right")}>
               Overdue
             </th>
-            <th scope="col" className={tableStyles.head}>
-              Go to
-            </th>
           </tr>
         </thead>
         <tbody>
           {spaces.map((space) => (
             <tr key={space.spaceId}>
-              <th scope="row" className={cn(tableStyles.cell, "text-left")}>
+              <th scope="row" className={cn(tableStyles.cell, "text-left font-normal")}>
                 <span className="block font-semibold">{space.spaceName}</span>
-                <span className="block font-normal text-ink-muted">
-                  {zoneTypeLabels[space.zoneType]}
+                <span className="block text-ink-muted">
+                  {`${zoneTypeLabels[space.zoneType]} · ${space.floorName}`}
+                </span>
+                <span className="mt-1 flex flex-wrap gap-x-3 gap-y-1 print:hidden">
+                  <TextLink
+                    to={paths.spaceAudits.getHref(space.spaceId)}
+                    aria-label={`Audit history of ${space.spaceName}`}
+                  >
+                    Audit history
+                  </TextLink>
+                  <TextLink
+                    to={paths.floor.getHref(siteId, space.floorId)}
+                    aria-label={`${space.floorName} floor plan, for ${space.spaceName}`}
+                  >
+                    Floor plan
+                  </TextLink>
                 </span>
               </th>
-              <td className={tableStyles.cell}>{space.floorName}</td>
               <td className={tableStyles.number}>{space.readiness.n}</td>
               <td className={cn(tableStyles.number, "font-semibold")}>
                 {space.readiness.rate === null ? "—" : percentText(space.readiness.rate)}
@@ -96,22 +103,6 @@ function SpacesTable({ siteId, spaces }: { siteId: string; spaces: readonly Spac
                 )}
               >
                 {space.overdueActions}
-              </td>
-              <td className={tableStyles.cell}>
-                <span className="flex flex-col gap-1 whitespace-nowrap">
-                  <TextLink
-                    to={paths.spaceAudits.getHref(space.spaceId)}
-                    aria-label={`Audit history of ${space.spaceName}`}
-                  >
-                    Audit history
-                  </TextLink>
-                  <TextLink
-                    to={paths.floor.getHref(siteId, space.floorId)}
-                    aria-label={`${space.floorName} floor plan, for ${space.spaceName}`}
-                  >
-                    Floor plan
-                  </TextLink>
-                </span>
               </td>
             </tr>
           ))}

@@ -1,9 +1,11 @@
+import { verdictLabels } from "@shared/calc/verdict";
 import { itemCategoryLabels } from "@shared/checklists/categories";
 import type { ComparisonResponse, Proportion } from "@shared/schemas/committee";
 import { Link } from "react-router-dom";
 
 import { Badge } from "@/components/ui/badge";
 import { linkStyles } from "@/components/ui/text-link";
+import { VerdictIcon } from "@/components/ui/verdict-badge";
 import { cn } from "@/lib/cn";
 
 import { tableStyles } from "../lib/chart-style";
@@ -40,7 +42,42 @@ function ReadinessCells({ proportion }: { proportion: Proportion }) {
   );
 }
 
+type VerdictTally = ComparisonResponse["sites"][number]["verdicts"];
+
+const verdictOrder = ["ready", "ready_with_conditions", "not_ready"] as const;
+const verdictTones = {
+  ready: "text-verdict-ready",
+  ready_with_conditions: "text-verdict-conditions",
+  not_ready: "text-verdict-not-ready",
+} as const;
+
+/**
+ * The three verdict counts, one per line, each behind the verdict's own shape (the word is there
+ * for screen readers and on hover) so the column stays narrow on a tablet.
+ */
+function VerdictCounts({ verdicts }: { verdicts: VerdictTally }) {
+  return (
+    <ul className="whitespace-nowrap">
+      {verdictOrder.map((verdict) => (
+        <li key={verdict} title={verdictLabels[verdict]} className="flex items-center gap-1.5">
+          <VerdictIcon verdict={verdict} className={verdictTones[verdict]} />
+          <span className="sr-only">{`${verdictLabels[verdict]}: `}</span>
+          <span className="tabular-nums">{verdicts[verdict].toLocaleString()}</span>
+        </li>
+      ))}
+    </ul>
+  );
+}
+
 function SiteTable({ comparison, siteHref }: ComparisonSectionProps) {
+  const totals = comparison.sites.reduce<VerdictTally>(
+    (sum, site) => ({
+      ready: sum.ready + site.verdicts.ready,
+      ready_with_conditions: sum.ready_with_conditions + site.verdicts.ready_with_conditions,
+      not_ready: sum.not_ready + site.verdicts.not_ready,
+    }),
+    { ready: 0, ready_with_conditions: 0, not_ready: 0 },
+  );
   return (
     <div className={tableStyles.frame}>
       <table className={tableStyles.table}>
@@ -62,14 +99,8 @@ function SiteTable({ comparison, siteHref }: ComparisonSectionProps) {
             <th scope="col" className={cn(tableStyles.head, "text-right")}>
               95% interval
             </th>
-            <th scope="col" className={cn(tableStyles.head, "text-right")}>
-              Ready
-            </th>
-            <th scope="col" className={cn(tableStyles.head, "text-right")}>
-              Ready with conditions
-            </th>
-            <th scope="col" className={cn(tableStyles.head, "text-right")}>
-              Not ready
+            <th scope="col" className={tableStyles.head}>
+              Verdicts
             </th>
           </tr>
         </thead>
@@ -91,11 +122,9 @@ function SiteTable({ comparison, siteHref }: ComparisonSectionProps) {
                 </Link>
               </th>
               <ReadinessCells proportion={site.readiness} />
-              <td className={tableStyles.number}>{site.verdicts.ready.toLocaleString()}</td>
-              <td className={tableStyles.number}>
-                {site.verdicts.ready_with_conditions.toLocaleString()}
+              <td className={tableStyles.cell}>
+                <VerdictCounts verdicts={site.verdicts} />
               </td>
-              <td className={tableStyles.number}>{site.verdicts.not_ready.toLocaleString()}</td>
             </tr>
           ))}
         </tbody>
@@ -106,20 +135,8 @@ function SiteTable({ comparison, siteHref }: ComparisonSectionProps) {
               All sites together
             </th>
             <ReadinessCells proportion={comparison.network} />
-            <td className={tableStyles.number}>
-              {comparison.sites
-                .reduce((sum, site) => sum + site.verdicts.ready, 0)
-                .toLocaleString()}
-            </td>
-            <td className={tableStyles.number}>
-              {comparison.sites
-                .reduce((sum, site) => sum + site.verdicts.ready_with_conditions, 0)
-                .toLocaleString()}
-            </td>
-            <td className={tableStyles.number}>
-              {comparison.sites
-                .reduce((sum, site) => sum + site.verdicts.not_ready, 0)
-                .toLocaleString()}
+            <td className={tableStyles.cell}>
+              <VerdictCounts verdicts={totals} />
             </td>
           </tr>
         </tfoot>
@@ -207,6 +224,14 @@ export function ComparisonSection({ comparison, siteHref }: ComparisonSectionPro
         comparison={comparison}
         table={<SiteTable comparison={comparison} siteHref={siteHref} />}
       />
+      <ul aria-hidden="true" className="flex flex-wrap gap-x-4 gap-y-1 text-sm text-ink-muted">
+        {verdictOrder.map((verdict) => (
+          <li key={verdict} className="flex items-center gap-1.5">
+            <VerdictIcon verdict={verdict} className={verdictTones[verdict]} />
+            {verdictLabels[verdict]}
+          </li>
+        ))}
+      </ul>
       <p className="max-w-prose text-sm text-ink-muted">
         {`Sites with fewer than ${comparison.minimumRankedSample} audits in the period are flagged “small sample” rather than ranked: their interval is too wide for a place in a ranking to mean much. The threshold of ${comparison.minimumRankedSample} audits is Lintel's own rule.`}
       </p>

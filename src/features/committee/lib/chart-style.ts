@@ -31,8 +31,8 @@ export const tableStyles = {
   frame:
     "overflow-x-auto rounded-card border border-surface-line bg-surface print:overflow-visible",
   table: "committee-table w-full border-collapse text-left text-sm",
-  caption: "px-3 pt-3 pb-1 text-left font-semibold text-ink",
-  head: "border-b-2 border-surface-line px-3 py-2 font-semibold whitespace-nowrap text-ink-muted",
-  cell: "border-b border-surface-line px-3 py-2 align-top",
-  number: "border-b border-surface-line px-3 py-2 text-right align-top tabular-nums",
+  caption: "px-2.5 pt-3 pb-1 text-left font-semibold text-ink",
+  head: "border-b-2 border-surface-line px-2.5 py-2 align-bottom font-semibold text-ink-muted",
+  cell: "border-b border-surface-line px-2.5 py-2 align-top",
+  number: "border-b border-surface-line px-2.5 py-2 text-right align-top tabular-nums",
 } as const;
