@@ -1,5 +1,5 @@
 import type { ActionDetail } from "@shared/schemas/actions";
-import { screen, within } from "@testing-library/react";
+import { screen, waitFor, within } from "@testing-library/react";
 import { afterEach, describe, expect, it, vi } from "vitest";
 
 import {
@@ -246,5 +246,35 @@ describe("the action page", () => {
     const upload = calls.find((call) => call.method === "POST");
     expect(upload?.body).toBeInstanceOf(FormData);
     expect((upload?.body as FormData).get("photo")).toBeInstanceOf(File);
+  });
+  it("when a photo of the fix is still uploading, then sending for verification waits for it", async () => {
+    const detail = buildActionDetail({ status: "in_progress" });
+    let finish: (response: Response) => void = () => undefined;
+    stubAction(facilitiesLead, detail, {
+      [`GET /api/actions/${actionId}`]: () => jsonResponse(detail),
+      [`POST /api/actions/${actionId}/proofs`]: () =>
+        new Promise<Response>((resolve) => {
+          finish = resolve;
+        }),
+    });
+    const { user } = renderApp(actionUrl);
+    const send = await screen.findByRole("button", { name: "Send for verification" });
+    expect((send as HTMLButtonElement).disabled).toBe(false);
+
+    const file = new File([new Uint8Array([0xff, 0xd8, 0xff])], "fix.jpg", { type: "image/jpeg" });
+    await user.upload(screen.getByLabelText("Add a photo of the fix"), file);
+    await waitFor(() =>
+      expect(
+        (screen.getByRole("button", { name: "Send for verification" }) as HTMLButtonElement)
+          .disabled,
+      ).toBe(true),
+    );
+    finish(jsonResponse(detail, 201));
+    await waitFor(() =>
+      expect(
+        (screen.getByRole("button", { name: "Send for verification" }) as HTMLButtonElement)
+          .disabled,
+      ).toBe(false),
+    );
   });
 });

@@ -16,9 +16,13 @@ export function addProof(actionId: string, file: File): Promise<ActionDetail> {
   });
 }
 
+/** While a proof photo uploads, the page holds back sending for verification. */
+export const addProofMutationKey = (actionId: string) => ["actions", "proof", actionId] as const;
+
 export function useAddProof(actionId: string) {
   const queryClient = useQueryClient();
   return useMutation({
+    mutationKey: addProofMutationKey(actionId),
     mutationFn: (file: File) => addProof(actionId, file),
     onSuccess: (detail) => storeMovedAction(queryClient, detail),
   });

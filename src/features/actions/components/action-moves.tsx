@@ -3,6 +3,7 @@ import {
   actionNoteBodySchema,
   actionReasonBodySchema,
 } from "@shared/schemas/actions";
+import { useIsMutating } from "@tanstack/react-query";
 import { type ChangeEvent, type FormEvent, type ReactNode, useId, useRef, useState } from "react";
 
 import { Alert } from "@/components/ui/alert";
@@ -16,7 +17,7 @@ import { TextAreaField } from "@/components/ui/text-area-field";
 import { isApiError } from "@/lib/api-client";
 import { cn } from "@/lib/cn";
 
-import { useAddProof } from "../api/add-proof";
+import { addProofMutationKey, useAddProof } from "../api/add-proof";
 import { useAssignAction } from "../api/assign-action";
 import { useActionAssignees } from "../api/get-action-assignees";
 import { useRejectAction } from "../api/reject-action";
@@ -265,6 +266,7 @@ export function ActionMoves({ detail, mayWork, mayVerify, mayAssign }: ActionMov
   const { action, proofs } = detail;
   const start = useStartAction(action.id);
   const send = useRequestVerification(action.id);
+  const uploading = useIsMutating({ mutationKey: addProofMutationKey(action.id) }) > 0;
   const verify = useVerifyAction(action.id);
   const reject = useRejectAction(action.id);
   const reopen = useReopenAction(action.id);
@@ -324,7 +326,7 @@ export function ActionMoves({ detail, mayWork, mayVerify, mayAssign }: ActionMov
           hint="Say what was fixed and where, so the auditor knows what to look for."
           buttonLabel="Send for verification"
           field="note"
-          pending={send.isPending}
+          pending={send.isPending || uploading}
           error={send.error}
           otherFieldKeys={["proof"]}
           onSubmit={(note, clear) => {
