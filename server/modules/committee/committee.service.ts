@@ -46,12 +46,14 @@ export async function comparison(
   grants: readonly RoleGrant[],
   query: CommitteeQuery,
 ): Promise<ComparisonResponse> {
-  const sites = await readableSites(db, networkId, grants);
+  const [sites, name] = await Promise.all([
+    readableSites(db, networkId, grants),
+    networkName(db, networkId),
+  ]);
   const ids = sites.map((site) => site.id);
-  const [readiness, categories, name] = await Promise.all([
+  const [readiness, categories] = await Promise.all([
     repo.readinessBySite(db, ids, query),
     repo.categoriesBySite(db, ids, query),
-    networkName(db, networkId),
   ]);
   const rows = sites.map((site) => {
     const counts = readiness.find((row) => row.site_id === site.id);
