@@ -8,6 +8,7 @@ import type {
   ActionSummary,
   DuePolicyResponse,
   TimelineEntry,
+  TimelineKind,
 } from "@shared/schemas/actions";
 import { timelineKinds } from "@shared/schemas/actions";
 
@@ -257,11 +258,7 @@ export async function recordFindings(
         changes.proofRound = existing.proofRound + 1;
       }
       if (Object.keys(changes).length > 0) await repo.updateAction(tx, existing.id, changes);
-      await recordChange(tx, actor, {
-        action: "action.finding_added",
-        entity,
-        entityId: existing.id,
-        siteId: space.siteId,
+      await logMove(tx, actor, { id: existing.id, siteId: space.siteId }, "finding_added", {
         before: { status: existing.status },
         after: { status: changes.status ?? existing.status, auditId: audit.id },
         reason: item.note,
@@ -294,11 +291,7 @@ export async function recordFindings(
       note: item.note,
       ...position,
     });
-    await recordChange(tx, actor, {
-      action: "action.opened",
-      entity,
-      entityId: action.id,
-      siteId: space.siteId,
+    await logMove(tx, actor, { id: action.id, siteId: space.siteId }, "opened", {
       after: {
         status: "open",
         auditId: audit.id,
@@ -349,6 +342,23 @@ interface Move {
   requestId: string;
 }
 
+/** One move of an action into the change log, which is also the action's timeline. */
+function logMove(
+  tx: Tx,
+  actor: Actor,
+  action: { id: string; siteId: string },
+  kind: TimelineKind,
+  change: { before?: object; after: object; reason?: string | null },
+) {
+  return recordChange(tx, actor, {
+    action: `action.${kind}`,
+    entity,
+    entityId: action.id,
+    siteId: action.siteId,
+    ...change,
+  });
+}
+
 const actorOf = (move: Move): Actor => ({ userId: move.auth.user.id, requestId: move.requestId });
 
 async function finish(move: Move, queued: number): Promise<ActionDetail> {
@@ -361,11 +371,7 @@ export async function startAction(move: Move): Promise<ActionDetail> {
   await move.deps.db.transaction(async (tx) => {
     const action = await lockFor(tx, move.actionId, ["open"], "open");
     await repo.updateAction(tx, action.id, { status: "in_progress" });
-    await recordChange(tx, actorOf(move), {
-      action: "action.started",
-      entity,
-      entityId: action.id,
-      siteId: action.siteId,
+    await logMove(tx, actorOf(move), action, "started", {
       before: { status: action.status },
       after: { status: "in_progress" },
     });
@@ -393,11 +399,7 @@ export async function addProof(move: Move, buffer: Buffer): Promise<ActionDetail
       round: action.proofRound,
       uploadedBy: move.auth.user.id,
     });
-    await recordChange(tx, actorOf(move), {
-      action: "action.proof_added",
-      entity,
-      entityId: action.id,
-      siteId: action.siteId,
+    await logMove(tx, actorOf(move), action, "proof_added", {
       after: { status: action.status, proofId: proof.id, imageId: image.id },
     });
   });
@@ -415,11 +417,7 @@ export async function sendForVerification(move: Move, note: string): Promise<Act
       );
     }
     await repo.updateAction(tx, action.id, { status: "awaiting_verification" });
-    await recordChange(tx, actorOf(move), {
-      action: "action.sent_for_verification",
-      entity,
-      entityId: action.id,
-      siteId: action.siteId,
+    await logMove(tx, actorOf(move), action, "sent_for_verification", {
       before: { status: action.status },
       after: { status: "awaiting_verification" },
       reason: note,
@@ -453,11 +451,7 @@ export async function verifyAction(move: Move, note: string): Promise<ActionDeta
     const closedAt = new Date();
     const days = daysToClose(action.openedAt, closedAt);
     await repo.updateAction(tx, action.id, { status: "closed", closedAt, daysToClose: days });
-    await recordChange(tx, actorOf(move), {
-      action: "action.verified",
-      entity,
-      entityId: action.id,
-      siteId: action.siteId,
+    await logMove(tx, actorOf(move), action, "verified", {
       before: { status: action.status },
       after: { status: "closed", daysToClose: days },
       reason: note,
@@ -493,11 +487,7 @@ export async function rejectAction(move: Move, reason: string): Promise<ActionDe
       status: "in_progress",
       proofRound: action.proofRound + 1,
     });
-    await recordChange(tx, actorOf(move), {
-      action: "action.rejected",
-      entity,
-      entityId: action.id,
-      siteId: action.siteId,
+    await logMove(tx, actorOf(move), action, "rejected", {
       before: { status: action.status },
       after: { status: "in_progress" },
       reason,
@@ -525,11 +515,7 @@ export async function reopenAction(move: Move, reason: string): Promise<ActionDe
       daysToClose: null,
       proofRound: action.proofRound + 1,
     });
-    await recordChange(tx, actorOf(move), {
-      action: "action.reopened",
-      entity,
-      entityId: action.id,
-      siteId: action.siteId,
+    await logMove(tx, actorOf(move), action, "reopened", {
       before: { status: action.status, closedAt: action.closedAt?.toISOString() ?? null },
       after: { status: "in_progress" },
       reason,
@@ -555,11 +541,7 @@ export async function assignAction(move: Move, assigneeId: string): Promise<Acti
     }
     if (action.assigneeId === assigneeId) return 0;
     await repo.updateAction(tx, action.id, { assigneeId });
-    await recordChange(tx, actorOf(move), {
-      action: "action.assigned",
-      entity,
-      entityId: action.id,
-      siteId: action.siteId,
+    await logMove(tx, actorOf(move), action, "assigned", {
       before: { status: action.status, assigneeId: action.assigneeId },
       after: { status: action.status, assigneeId, assigneeName: assignee.name },
     });
