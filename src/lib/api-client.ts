@@ -86,6 +86,23 @@ export async function readApiError(response: Response): Promise<ApiError> {
   return errorFromReply(response, await readJson(response));
 }
 
+/**
+ * `fetch` to the API with the session cookie; a request that never reached the server becomes
+ * the same ApiError everywhere, and a cancelled one stays a cancellation.
+ */
+export async function fetchFromApi(path: string, init: RequestInit = {}): Promise<Response> {
+  try {
+    return await fetch(path, { ...init, credentials: "same-origin" });
+  } catch (error) {
+    if (init.signal?.aborted) throw error;
+    throw new ApiError({
+      status: 0,
+      code: "network_unavailable",
+      message: "No connection to Lintel. Check your network and try again.",
+    });
+  }
+}
+
 /** The one way the client talks to the API: same-origin, session cookie, envelope-aware. */
 export async function apiRequest<TSchema extends z.ZodType | undefined = undefined>(
   path: string,
@@ -96,23 +113,12 @@ export async function apiRequest<TSchema extends z.ZodType | undefined = undefin
   // The browser writes the multipart boundary into Content-Type itself.
   if (body !== undefined && !isForm) headers["Content-Type"] = "application/json";
 
-  let response: Response;
-  try {
-    response = await fetch(path, {
-      method,
-      headers,
-      body: body === undefined ? undefined : isForm ? body : JSON.stringify(body),
-      credentials: "same-origin",
-      signal,
-    });
-  } catch (error) {
-    if (signal?.aborted) throw error;
-    throw new ApiError({
-      status: 0,
-      code: "network_unavailable",
-      message: "No connection to Lintel. Check your network and try again.",
-    });
-  }
+  const response = await fetchFromApi(path, {
+    method,
+    headers,
+    body: body === undefined ? undefined : isForm ? body : JSON.stringify(body),
+    signal,
+  });
 
   const payload = await readJson(response);
   if (!response.ok) throw errorFromReply(response, payload);

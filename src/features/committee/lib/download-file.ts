@@ -1,4 +1,4 @@
-import { ApiError, readApiError } from "@/lib/api-client";
+import { fetchFromApi, readApiError } from "@/lib/api-client";
 
 export interface DownloadProgress {
   received: number;
@@ -52,17 +52,7 @@ export async function downloadFile(
   fallbackName: string,
   { onProgress, signal }: DownloadOptions = {},
 ): Promise<DownloadedFile> {
-  let response: Response;
-  try {
-    response = await fetch(path, { credentials: "same-origin", signal });
-  } catch (error) {
-    if (signal?.aborted) throw error;
-    throw new ApiError({
-      status: 0,
-      code: "network_unavailable",
-      message: "No connection to Lintel. Check your network and try again.",
-    });
-  }
+  const response = await fetchFromApi(path, { signal });
   if (!response.ok) throw await readApiError(response);
 
   const name = fileNameOf(response.headers.get("Content-Disposition"), fallbackName);
