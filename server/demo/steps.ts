@@ -9,6 +9,7 @@ import { createDemoAuditHistory } from "./audit-history";
 import { createDemoCorrectiveActions } from "./corrective-actions";
 import { createDemoFloor, type DemoFloorPlan } from "./floor-plans";
 import { demoNetworkName, demoPassword, demoPeople, demoSites, type DemoSiteKey } from "./people";
+import type { Tx } from "../db/client";
 import type { DemoStep } from "./run-demo-steps";
 
 const system = { userId: null, requestId: "demo-data" };
@@ -136,19 +137,40 @@ const demoFloors: Record<DemoSiteKey, DemoFloorPlan[]> = {
   ],
 };
 
+/** The demo network and the ids of those of its sites that exist, by key. */
+async function findDemoSites(tx: Tx) {
+  const [network] = await tx
+    .select({ id: networks.id })
+    .from(networks)
+    .where(eq(networks.name, demoNetworkName));
+  if (!network) return null;
+  const siteRows = await tx
+    .select({ id: sites.id, name: sites.name })
+    .from(sites)
+    .where(eq(sites.networkId, network.id));
+  const siteIds: Partial<Record<DemoSiteKey, string>> = {};
+  for (const key of Object.keys(demoSites) as DemoSiteKey[]) {
+    const site = siteRows.find((row) => row.name === demoSites[key].name);
+    if (site) siteIds[key] = site.id;
+  }
+  return { networkId: network.id, siteIds };
+}
+
+const hasEverySite = (
+  siteIds: Partial<Record<DemoSiteKey, string>>,
+): siteIds is Record<DemoSiteKey, string> =>
+  (Object.keys(demoSites) as DemoSiteKey[]).every((key) => siteIds[key] !== undefined);
+
 const floorPlans: DemoStep = {
   id: "2026-12-02-floor-plans-spaces-fixtures",
   description: "floor plans with isolation suites and fixtures for the three sites",
   async run(tx, context) {
-    const siteRows = await tx
-      .select({ id: sites.id, name: sites.name })
-      .from(sites)
-      .innerJoin(networks, eq(networks.id, sites.networkId))
-      .where(eq(networks.name, demoNetworkName));
+    const demo = await findDemoSites(tx);
+    if (!demo) return;
     for (const [key, plans] of Object.entries(demoFloors) as [DemoSiteKey, DemoFloorPlan[]][]) {
-      const site = siteRows.find((row) => row.name === demoSites[key].name);
-      if (!site) continue;
-      for (const plan of plans) await createDemoFloor(tx, context.storage, site.id, plan);
+      const siteId = demo.siteIds[key];
+      if (!siteId) continue;
+      for (const plan of plans) await createDemoFloor(tx, context.storage, siteId, plan);
     }
   },
 };
@@ -157,22 +179,9 @@ const auditHistory: DemoStep = {
   id: "2026-12-02-audit-history",
   description: "default checklists and about a year of audits at every demo space",
   async run(tx) {
-    const [network] = await tx
-      .select({ id: networks.id })
-      .from(networks)
-      .where(eq(networks.name, demoNetworkName));
-    if (!network) return;
-    const siteRows = await tx
-      .select({ id: sites.id, name: sites.name })
-      .from(sites)
-      .where(eq(sites.networkId, network.id));
-    const siteIds = Object.fromEntries(
-      (Object.keys(demoSites) as DemoSiteKey[]).map((key) => [
-        key,
-        siteRows.find((row) => row.name === demoSites[key].name)?.id,
-      ]),
-    ) as Record<DemoSiteKey, string>;
-    await createDemoAuditHistory(tx, network.id, siteIds);
+    const demo = await findDemoSites(tx);
+    if (!demo) return;
+    await createDemoAuditHistory(tx, demo.networkId, demo.siteIds as Record<DemoSiteKey, string>);
   },
 };
 
@@ -181,18 +190,9 @@ const correctiveActionsHistory: DemoStep = {
   description:
     "findings and corrective actions from the audit history, with a year of work on them",
   async run(tx, context) {
-    const siteRows = await tx
-      .select({ id: sites.id, name: sites.name })
-      .from(sites)
-      .innerJoin(networks, eq(networks.id, sites.networkId))
-      .where(eq(networks.name, demoNetworkName));
-    const siteIds = {} as Record<DemoSiteKey, string>;
-    for (const key of Object.keys(demoSites) as DemoSiteKey[]) {
-      const site = siteRows.find((row) => row.name === demoSites[key].name);
-      if (!site) return;
-      siteIds[key] = site.id;
-    }
-    await createDemoCorrectiveActions(tx, context.storage, siteIds);
+    const demo = await findDemoSites(tx);
+    if (!demo || !hasEverySite(demo.siteIds)) return;
+    await createDemoCorrectiveActions(tx, context.storage, demo.siteIds);
   },
 };
 
