@@ -164,26 +164,20 @@ export function PChart({ site }: PChartProps) {
                   width={48}
                 />
                 <ReferenceLine y={centre * 100} stroke={chartColours.inkMuted} strokeWidth={2} />
-                <Line
-                  dataKey="upper"
-                  type="step"
-                  stroke={chartColours.clay}
-                  strokeDasharray="5 3"
-                  strokeWidth={1.5}
-                  dot={false}
-                  activeDot={false}
-                  isAnimationActive={false}
-                />
-                <Line
-                  dataKey="lower"
-                  type="step"
-                  stroke={chartColours.clay}
-                  strokeDasharray="5 3"
-                  strokeWidth={1.5}
-                  dot={false}
-                  activeDot={false}
-                  isAnimationActive={false}
-                />
+                {/* The 3-sigma limits, stepping with each month's number of audits. */}
+                {(["upper", "lower"] as const).map((limit) => (
+                  <Line
+                    key={limit}
+                    dataKey={limit}
+                    type="step"
+                    stroke={chartColours.clay}
+                    strokeDasharray="5 3"
+                    strokeWidth={1.5}
+                    dot={false}
+                    activeDot={false}
+                    isAnimationActive={false}
+                  />
+                ))}
                 <Line
                   dataKey="p"
                   type="linear"
