@@ -3,6 +3,7 @@ import type { ErrorRequestHandler, RequestHandler } from "express";
 import type { ApiErrorEnvelope } from "@shared/api-error";
 
 import { AppError } from "../lib/app-error";
+import { appErrorFromDatabase } from "../lib/database-errors";
 
 interface HttpLikeError {
   status?: number;
@@ -32,15 +33,6 @@ function fromParserError(err: HttpLikeError): AppError | null {
   }
 }
 
-/** A race that slipped past a service's own check still answers 409, not 500. */
-function fromDatabaseError(err: { code?: unknown }): AppError | null {
-  if (err.code === "23505")
-    return new AppError("conflict", 409, "That would duplicate an existing record.");
-  if (err.code === "23503")
-    return new AppError("conflict", 409, "That refers to a record that no longer exists.");
-  return null;
-}
-
 export const apiNotFound: RequestHandler = (req, _res, next) => {
   next(new AppError("not_found", 404, `There is no API route ${req.method} ${req.originalUrl}.`));
 };
@@ -50,7 +42,7 @@ export const errorHandler: ErrorRequestHandler = (err, req, res, _next) => {
   const known =
     err instanceof AppError
       ? err
-      : (fromParserError(err as HttpLikeError) ?? fromDatabaseError(err as { code?: unknown }));
+      : (fromParserError(err as HttpLikeError) ?? appErrorFromDatabase(err));
   const error =
     known ?? new AppError("internal", 500, "Something went wrong on our side. Try again.");
   if (!known) req.log.error({ err }, "unhandled error");

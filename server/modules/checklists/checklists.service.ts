@@ -10,6 +10,7 @@ import { zoneTypes, type ZoneType } from "@shared/zones";
 
 import type { Database, DbOrTx } from "../../db/client";
 import { AppError, notFound } from "../../lib/app-error";
+import { databaseCodeOf } from "../../lib/database-errors";
 import { recordChange, type Actor } from "../../lib/change-log";
 import * as repo from "./checklists.repository";
 
@@ -48,7 +49,7 @@ export async function ensureDefaultChecklists(db: DbOrTx, networkId: string): Pr
       });
     } catch (error) {
       // Another request published it at the same moment: theirs stands.
-      if ((error as { cause?: { code?: string } }).cause?.code !== "23505") throw error;
+      if (databaseCodeOf(error) !== "23505") throw error;
     }
   }
 }
