@@ -117,20 +117,47 @@ export const paths = {
 
 const probeOrigin = "https://lintel.invalid";
 
+/** C0 controls, space, DEL and the Unicode spaces a browser may strip or fold away in a URL. */
+const unsafeCharacter =
+  /[\u0000-\u0020\u007f-\u00a0\u1680\u180e\u2000-\u200f\u2028\u2029\u202f\u205f\u3000\ufeff\\]/;
+
+/** Whether a browser, reading `value` against this app's page, would leave this app's origin. */
+function leavesOrigin(value: string): boolean {
+  if (!value.startsWith("/") || value.startsWith("//") || unsafeCharacter.test(value)) return true;
+  let decoded: string;
+  try {
+    decoded = decodeURIComponent(value);
+  } catch {
+    return true;
+  }
+  // `/%2F%2Fhost` or `/%5Chost` is harmless to a browser but not to every router or proxy after it.
+  return decoded.startsWith("//") || unsafeCharacter.test(decoded);
+}
+
 /**
- * Where to go after signing in: only a path inside this app, never another origin
- * (`//host`, `/\host`, `https:` …) and never back to the sign-in page. Anything else → home.
+ * Where to go after signing in: only a path inside this app, never anything a browser would
+ * resolve to another origin (`//host`, `/\host`, `https:`, `/.//host` once dot segments are
+ * removed, encoded slashes, stripped whitespace …) and never back to the sign-in page. Anything
+ * else → home. The answer is checked after normalising, and must normalise to itself.
  */
 export function safeNextPath(next: string | null | undefined): string {
-  if (!next || !next.startsWith("/") || next.startsWith("//") || next.includes("\\")) {
-    return paths.home.path;
-  }
+  if (typeof next !== "string" || next.length > 2048 || leavesOrigin(next)) return paths.home.path;
   let url: URL;
   try {
     url = new URL(next, probeOrigin);
   } catch {
     return paths.home.path;
   }
-  if (url.origin !== probeOrigin || url.pathname === paths.signIn.path) return paths.home.path;
-  return `${url.pathname}${url.search}${url.hash}`;
+  if (url.origin !== probeOrigin) return paths.home.path;
+  const normalised = `${url.pathname}${url.search}${url.hash}`;
+  if (leavesOrigin(normalised)) return paths.home.path;
+  const again = new URL(normalised, probeOrigin);
+  if (
+    again.origin !== probeOrigin ||
+    `${again.pathname}${again.search}${again.hash}` !== normalised
+  )
+    return paths.home.path;
+  const page = url.pathname.replace(/\/+$/, "").toLowerCase();
+  if (page === paths.signIn.path) return paths.home.path;
+  return normalised;
 }

@@ -39,6 +39,30 @@ describe("signing in on a phone (390×844)", () => {
     await page.context().close();
   });
 
+  it("when a signed-in person opens sign-in with a next that collapses to another host, then they stay in the app", async () => {
+    const { page, problems } = await phonePage(browser);
+    await page.goto(`${baseUrl()}/sign-in`);
+    await page.getByLabel("E-mail").fill("admin@example.org");
+    await page.getByLabel("Password").fill("lintel-demo-2026");
+    await page.getByRole("button", { name: "Sign in" }).click();
+    await page.getByRole("heading", { level: 1, name: "My sites" }).waitFor();
+    const origin = new URL(baseUrl()).origin;
+
+    for (const next of [
+      "/.//elsewhere.invalid/x",
+      "/..//elsewhere.invalid/x",
+      "/%2e%2e//elsewhere.invalid",
+    ]) {
+      await page.goto(`${baseUrl()}/sign-in?next=${encodeURIComponent(next)}`);
+      await page.getByRole("heading", { level: 1, name: "My sites" }).waitFor();
+      const url = new URL(page.url());
+      expect(url.origin).toBe(origin);
+      expect(url.pathname).toBe("/");
+    }
+    expect(problems).toEqual([]);
+    await page.context().close();
+  });
+
   it("when the password is wrong, then an error is shown and the person stays on the sign-in page", async () => {
     const { page, problems } = await phonePage(browser);
     await page.goto(`${baseUrl()}/sign-in`);
