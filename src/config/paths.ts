@@ -119,7 +119,7 @@ const probeOrigin = "https://lintel.invalid";
 
 /** C0 controls, space, DEL and the Unicode spaces a browser may strip or fold away in a URL. */
 const unsafeCharacter =
-// eslint-disable-next-line no-control-regex -- matching control characters is the point
+  // eslint-disable-next-line no-control-regex -- matching control characters is the point
   /[\u0000-\u0020\u007f-\u00a0\u1680\u180e\u2000-\u200f\u2028\u2029\u202f\u205f\u3000\ufeff\\]/;
 
 /** Whether a browser, reading `value` against this app's page, would leave this app's origin. */
