@@ -817,9 +817,8 @@ describe("role matrix: every registered route, as every role, another site's mem
   let matrixApp: TestApp;
 
   beforeAll(async () => {
-    matrixApp = createTestApp({
-      LINTEL_DEMO: "1",
-      LINTEL_DEV_MAILBOX_DIR: mkdtempSync(path.join(os.tmpdir(), "lintel-mailbox-")),
+    matrixApp = createTestApp({ LINTEL_DEMO: "1" }, undefined, {
+      mailCatcherDir: mkdtempSync(path.join(os.tmpdir(), "lintel-mailbox-")),
     });
     const { db } = testApp().deps;
     const network = await insertNetwork(db);
@@ -855,7 +854,7 @@ describe("role matrix: every registered route, as every role, another site's mem
   });
   afterAll(async () => {
     await matrixApp.database.close();
-    rmSync(matrixApp.deps.env.LINTEL_DEV_MAILBOX_DIR!, { recursive: true, force: true });
+    rmSync(matrixApp.deps.mailCatcherDir!, { recursive: true, force: true });
   });
 
   it("when a route is registered, then the matrix has a designed answer for it", () => {
