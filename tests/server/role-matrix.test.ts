@@ -17,6 +17,7 @@ import {
   checklistVersions,
   fixtures,
   floors,
+  outbox,
   spaces,
   users,
 } from "../../server/db/schema/index";
@@ -250,6 +251,21 @@ const samples: Record<string, Sample> = {
     hidden: notAtA,
   },
   "GET /my/actions": { prepare: () => ({ url: "/api/my/actions" }), ok: 200, allowed: everyone },
+  "GET /my/verifications": {
+    prepare: () => ({ url: "/api/my/verifications" }),
+    ok: 200,
+    allowed: everyone,
+  },
+  "GET /mail/undelivered": {
+    prepare: () => ({ url: "/api/mail/undelivered" }),
+    ok: 200,
+    allowed: ["administrator (network)"],
+  },
+  "POST /mail/:mailId/resend": {
+    prepare: async (w) => ({ url: `/api/mail/${await uncertainMailTo(w.leadA)}/resend`, body: {} }),
+    ok: 200,
+    allowed: ["administrator (network)"],
+  },
   "GET /actions/:actionId": {
     prepare: async (w) => ({ url: `/api/actions/${await actionAtA(w, "open")}` }),
     ok: 200,
@@ -806,6 +822,24 @@ const samples: Record<string, Sample> = {
     hidden: ["administrator @B"],
   },
 };
+
+/** An e-mail to a person of the matrix network whose sending was interrupted. */
+async function uncertainMailTo(userId: string): Promise<string> {
+  const { db } = testApp().deps;
+  const [person] = await db.select({ email: users.email }).from(users).where(eq(users.id, userId));
+  const [row] = await db
+    .insert(outbox)
+    .values({
+      topic: "action_assigned",
+      recipient: person!.email,
+      subject: "Corrective action for you",
+      textBody: "Open the action",
+      status: "uncertain",
+      attempts: 1,
+    })
+    .returning({ id: outbox.id });
+  return row!.id;
+}
 
 const routeKey = (route: (typeof apiRoutes)[number]) =>
   `${route.method.toUpperCase()} ${route.path}`;
