@@ -44,6 +44,7 @@ export const navigationItems: readonly NavigationItem[] = [
     to: paths.people.getHref(),
     icon: <PeopleIcon />,
     permission: "manage:people:site",
+    alsoActiveOn: [paths.undeliveredMail.path],
   },
   {
     label: "Checklists",
