@@ -16,6 +16,8 @@ export interface ActionsToVerifyProps {
  * Fixes a facilities lead has sent for verification at the auditor's sites: the home page shows
  * them whether or not the e-mail that announced them arrived.
  */
+const firstFew = 6;
+
 export function ActionsToVerify({ actionHref }: ActionsToVerifyProps) {
   const { data, isPending, isError, refetch } = useMyVerifications();
   return (
@@ -42,7 +44,7 @@ export function ActionsToVerify({ actionHref }: ActionsToVerifyProps) {
         </Card>
       ) : (
         <ul aria-label="Fixes to verify" className="mt-3 grid gap-3 md:grid-cols-2">
-          {data.map((action) => (
+          {data.slice(0, firstFew).map((action) => (
             <li key={action.id} aria-label={action.title}>
               <Link
                 to={actionHref(action.id)}
@@ -69,6 +71,11 @@ export function ActionsToVerify({ actionHref }: ActionsToVerifyProps) {
           ))}
         </ul>
       )}
+      {data && data.length > firstFew ? (
+        <p className="mt-2 text-sm text-ink-muted">
+          And {data.length - firstFew} more in each site&apos;s action list.
+        </p>
+      ) : null}
     </section>
   );
 }
