@@ -18,6 +18,7 @@ async function main() {
   let server: RunningServer | null = null;
   let mailCatcher: MailCatcher | null = null;
   let s3: S3Fake | null = null;
+  let mailCatcherDir: string | undefined;
   let stopping = false;
 
   const stop = async (reason: string) => {
@@ -62,7 +63,7 @@ async function main() {
       mailCatcher = await startMailCatcher({ dir });
       process.env.SMTP_HOST = "127.0.0.1";
       process.env.SMTP_PORT = String(mailCatcher.port);
-      process.env.LINTEL_DEV_MAILBOX_DIR ??= dir;
+      mailCatcherDir = dir;
       console.log(`Local mail catcher on 127.0.0.1:${mailCatcher.port} (messages in ${dir}).`);
     }
 
@@ -80,7 +81,7 @@ async function main() {
     process.env.LINTEL_CLIENT_DIR ??= clientDir;
 
     const env = parseEnv();
-    server = await startServer(env);
+    server = await startServer(env, { mailCatcherDir });
     console.log(`\nLintel is ready: ${server.url}`);
     if (env.HOST === "0.0.0.0") console.log("Listening on every network interface (HOST=0.0.0.0).");
     if (env.LINTEL_DEMO === "1") {

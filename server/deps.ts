@@ -16,6 +16,7 @@ export function buildDeps(
   logger: Logger,
   storage: Storage,
   notifyOutbox: () => void = () => undefined,
+  options: { mailCatcherDir?: string | null } = {},
 ): AppDeps {
   return {
     db: database.db,
@@ -40,5 +41,6 @@ export function buildDeps(
       (await siteIdIfExists(database.db, networkId, siteId)) !== null,
     loadGrants: (userId) => loadGrants(database, userId),
     notifyOutbox,
+    mailCatcherDir: options.mailCatcherDir ?? null,
   };
 }

@@ -43,8 +43,6 @@ const envSchema = z.object({
   LINTEL_ACTION_NOTICES: z.enum(["0", "1"]).default("1"),
   LINTEL_INVITATION_DAYS: positiveInt(7),
   LINTEL_PASSWORD_RESET_MINUTES: positiveInt(60),
-  /** Folder where the local mail catcher keeps what it received (demo and development only). */
-  LINTEL_DEV_MAILBOX_DIR: z.string().optional(),
   /** Object storage for images: any S3-compatible store. Without an endpoint, AWS S3 itself.
    *  The default keys are the ones the local store accepts. */
   S3_ENDPOINT: z.url().optional(),

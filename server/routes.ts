@@ -8,6 +8,7 @@ import { floorRoutes } from "./modules/floors/floors.router";
 import { imageRoutes } from "./modules/images/images.router";
 import { devMailboxRoutes } from "./modules/dev-mailbox/dev-mailbox.router";
 import { healthRoutes } from "./modules/health/health.router";
+import { mailRoutes } from "./modules/mail/mail.router";
 import { peopleRoutes } from "./modules/people/people.router";
 import { siteRoutes } from "./modules/sites/sites.router";
 
@@ -19,6 +20,7 @@ export const apiRoutes = [
   ...accountRoutes,
   ...siteRoutes,
   ...peopleRoutes,
+  ...mailRoutes,
   ...floorRoutes,
   ...imageRoutes,
   ...checklistRoutes,

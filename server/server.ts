@@ -20,8 +20,13 @@ export interface RunningServer {
   close: () => Promise<void>;
 }
 
+export interface StartOptions {
+  /** Given only by a process that runs the local mail catcher: its inbox becomes the demo mailbox. */
+  mailCatcherDir?: string;
+}
+
 /** Migrates, loads demo data when asked, and listens. `close` stops accepting and drains. */
-export async function startServer(env: Env): Promise<RunningServer> {
+export async function startServer(env: Env, options: StartOptions = {}): Promise<RunningServer> {
   const logger = createLogger(env.LOG_LEVEL);
   await migrateDatabase(env.DATABASE_URL);
   const database = connectDatabase(env.DATABASE_URL);
@@ -65,7 +70,11 @@ export async function startServer(env: Env): Promise<RunningServer> {
       : null;
   scheduler?.start();
 
-  const app = createApp(buildDeps(env, database, logger, storage, () => worker?.nudge()));
+  const app = createApp(
+    buildDeps(env, database, logger, storage, () => worker?.nudge(), {
+      mailCatcherDir: options.mailCatcherDir ?? null,
+    }),
+  );
   const server = createServer(app);
   await new Promise<void>((resolve, reject) => {
     server.once("error", reject);

@@ -12,6 +12,8 @@ export const permissions = [
   "read:change-log:site",
   "manage:people:site",
   "read:dev-mailbox:network",
+  /** E-mail that may not have arrived: list it and send it again. */
+  "resend:mail:network",
   "upload:image:site",
   "conduct:audit:site",
   "manage:checklists:network",
@@ -32,6 +34,7 @@ export const rolePermissions: Record<Role, readonly Permission[]> = {
     "read:change-log:site",
     "manage:people:site",
     "read:dev-mailbox:network",
+    "resend:mail:network",
     "upload:image:site",
     "manage:checklists:network",
     "assign:action:site",

@@ -27,6 +27,11 @@ export interface AppDeps {
   loadGrants: (userId: string) => Promise<RoleGrant[]>;
   /** Tells the e-mail worker that new mail is waiting (after the transaction commits). */
   notifyOutbox: () => void;
+  /**
+   * The folder of the local mail catcher when the process that started it runs this app
+   * (`npm start`, the browser tests); null otherwise, and always null from `server/index.ts`.
+   */
+  mailCatcherDir: string | null;
 }
 
 export interface SignedIn {
@@ -83,6 +88,8 @@ export interface RouteDefinition {
   // eslint-disable-next-line @typescript-eslint/no-explicit-any
   handle: (ctx: RouteContext<any, any, any>) => Promise<unknown> | unknown;
   input: { params?: z.ZodType; query?: z.ZodType; body?: z.ZodType };
+  /** A route that exists only in some installations; unmounted, it answers like any unknown route. */
+  mountedWhen?: (deps: AppDeps) => boolean;
 }
 
 /** Declares a route with typed input; the registry is the list of these. */
@@ -98,6 +105,7 @@ export function defineRoute<
   params?: P;
   query?: Q;
   body?: B;
+  mountedWhen?: (deps: AppDeps) => boolean;
   handle: (ctx: RouteContext<z.output<P>, z.output<Q>, z.output<B>>) => Promise<unknown> | unknown;
 }): RouteDefinition {
   if (route.access.kind === "network" && scopeOf(route.access.permission) !== "network") {
@@ -112,6 +120,7 @@ export function defineRoute<
     summary: route.summary,
     handle: route.handle,
     input: { params: route.params, query: route.query, body: route.body },
+    mountedWhen: route.mountedWhen,
   };
 }
 
@@ -122,6 +131,7 @@ export function mountRoutes(
   deps: AppDeps,
 ): void {
   for (const route of routes) {
+    if (route.mountedWhen && !route.mountedWhen(deps)) continue;
     const handler: RequestHandler = async (req, res) => {
       const auth = (res.locals.auth as SignedIn | null | undefined) ?? null;
       if (route.access.kind !== "public" && auth === null) throw unauthenticated();

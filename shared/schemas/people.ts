@@ -108,7 +108,7 @@ export const changePasswordBodySchema = z.strictObject({
 export type ChangePasswordBody = z.infer<typeof changePasswordBodySchema>;
 
 export const appConfigSchema = z.object({
-  /** The demo network is loaded and the local mail catcher's inbox can be read by administrators. */
+  /** The local mail catcher runs beside this app, so administrators can read its inbox. */
   demoMailbox: z.boolean(),
 });
 export type AppConfig = z.infer<typeof appConfigSchema>;

@@ -44,6 +44,7 @@ export const navigationItems: readonly NavigationItem[] = [
     to: paths.people.getHref(),
     icon: <PeopleIcon />,
     permission: "manage:people:site",
+    alsoActiveOn: [paths.undeliveredMail.path],
   },
   {
     label: "Checklists",
@@ -61,8 +62,8 @@ export const navigationItems: readonly NavigationItem[] = [
 ];
 
 /**
- * The entries for this person. The mailbox exists only while demo data is on, so the
- * installation is asked about it, and only when the person could read it at all.
+ * The entries for this person. The mailbox exists only where the local mail catcher runs, so
+ * the installation is asked about it, and only when the person could read it at all.
  * The committee view compares sites, so it is offered to those who read the whole network
  * (committee members, administrators); anyone else may still open it for their own sites.
  */

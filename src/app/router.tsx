@@ -209,6 +209,18 @@ export function createRoutes(queryClient: QueryClient): RouteObject[] {
                 return { Component: MailboxRoute, loader: mailboxLoader(queryClient) };
               },
             },
+            {
+              path: paths.undeliveredMail.path,
+              errorElement: <RouteError />,
+              lazy: async () => {
+                const { UndeliveredMailRoute, undeliveredMailLoader } =
+                  await import("./routes/undelivered-mail");
+                return {
+                  Component: UndeliveredMailRoute,
+                  loader: undeliveredMailLoader(queryClient),
+                };
+              },
+            },
           ],
         },
         {

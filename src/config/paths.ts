@@ -101,6 +101,10 @@ export const paths = {
     path: "/admin/mail",
     getHref: () => "/admin/mail",
   },
+  undeliveredMail: {
+    path: "/admin/undelivered-mail",
+    getHref: () => "/admin/undelivered-mail",
+  },
   welcome: {
     path: "/welcome/:token",
     getHref: (token: string) => `/welcome/${encodeURIComponent(token)}`,

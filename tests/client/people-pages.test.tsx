@@ -53,7 +53,7 @@ describe("who sees people and the mailbox", () => {
     expect(calls.some((call) => call.path === "/api/app-config")).toBe(false);
   });
 
-  it("when a network administrator is signed in with demo data on, then People and Mailbox are shown", async () => {
+  it("when a network administrator is signed in where the local mail catcher runs, then People and Mailbox are shown", async () => {
     stubApi(signedInAsAdministrator());
     renderApp("/");
 
@@ -71,7 +71,7 @@ describe("who sees people and the mailbox", () => {
     expect(screen.getByRole("link", { name: "People" }).getAttribute("href")).toBe("/admin/people");
   });
 
-  it("when demo data is off, then the administrator sees People but no Mailbox", async () => {
+  it("when the local mail catcher does not run, then the administrator sees People but no Mailbox", async () => {
     stubApi(signedInAsAdministrator({ demoMailbox: false }));
     renderApp("/");
 
@@ -91,7 +91,7 @@ describe("who sees people and the mailbox", () => {
     expect(calls.some((call) => call.path.startsWith("/api/people"))).toBe(false);
   });
 
-  it("when demo data is off and the mailbox is opened directly, then it is not available", async () => {
+  it("when the local mail catcher does not run and the mailbox is opened directly, then it is not available", async () => {
     const { calls } = stubApi(signedInAsAdministrator({ demoMailbox: false }));
     renderApp("/admin/mail");
 

@@ -23,6 +23,7 @@ let shared: TestApp | undefined;
 export function createTestApp(
   overrides?: Record<string, string>,
   notifyOutbox?: () => void,
+  options: { mailCatcherDir?: string } = {},
 ): TestApp {
   const env = testEnv(overrides);
   const database = connectDatabase(env.DATABASE_URL, { max: 4 });
@@ -32,6 +33,7 @@ export function createTestApp(
     createLogger(env.LOG_LEVEL),
     createStorage(env),
     notifyOutbox,
+    options,
   );
   return { app: createApp(deps), deps, database };
 }

@@ -18,12 +18,14 @@ export interface MailTestApp extends TestApp {
 
 /**
  * An app on a database of its own whose e-mail goes through a real outbox worker to a real local
- * SMTP server, so what the catcher receives is exactly what this app sent.
+ * SMTP server, so what the catcher receives is exactly what this app sent. With `mailCatcherDir`
+ * the catcher also keeps files there and the app serves them as its demo mailbox.
  */
 export async function createMailTestApp(
   overrides: Record<string, string> = {},
+  options: { mailCatcherDir?: string } = {},
 ): Promise<MailTestApp> {
-  const catcher = await startMailCatcher();
+  const catcher = await startMailCatcher({ dir: options.mailCatcherDir });
   const databaseUrl = await createIsolatedDatabase();
   // The app is built before its worker; the nudge reaches the worker once it exists.
   const current: { worker?: OutboxWorker } = {};
@@ -36,6 +38,7 @@ export async function createMailTestApp(
       ...overrides,
     },
     () => current.worker?.nudge(),
+    options,
   );
   const { env, db, logger } = app.deps;
   const mailer = createMailer(env);

@@ -17,6 +17,7 @@ import {
   checklistVersions,
   fixtures,
   floors,
+  outbox,
   spaces,
   users,
 } from "../../server/db/schema/index";
@@ -250,6 +251,21 @@ const samples: Record<string, Sample> = {
     hidden: notAtA,
   },
   "GET /my/actions": { prepare: () => ({ url: "/api/my/actions" }), ok: 200, allowed: everyone },
+  "GET /my/verifications": {
+    prepare: () => ({ url: "/api/my/verifications" }),
+    ok: 200,
+    allowed: everyone,
+  },
+  "GET /mail/undelivered": {
+    prepare: () => ({ url: "/api/mail/undelivered" }),
+    ok: 200,
+    allowed: ["administrator (network)"],
+  },
+  "POST /mail/:mailId/resend": {
+    prepare: async (w) => ({ url: `/api/mail/${await uncertainMailTo(w.leadA)}/resend`, body: {} }),
+    ok: 200,
+    allowed: ["administrator (network)"],
+  },
   "GET /actions/:actionId": {
     prepare: async (w) => ({ url: `/api/actions/${await actionAtA(w, "open")}` }),
     ok: 200,
@@ -807,6 +823,24 @@ const samples: Record<string, Sample> = {
   },
 };
 
+/** An e-mail to a person of the matrix network whose sending was interrupted. */
+async function uncertainMailTo(userId: string): Promise<string> {
+  const { db } = testApp().deps;
+  const [person] = await db.select({ email: users.email }).from(users).where(eq(users.id, userId));
+  const [row] = await db
+    .insert(outbox)
+    .values({
+      topic: "action_assigned",
+      recipient: person!.email,
+      subject: "Corrective action for you",
+      textBody: "Open the action",
+      status: "uncertain",
+      attempts: 1,
+    })
+    .returning({ id: outbox.id });
+  return row!.id;
+}
+
 const routeKey = (route: (typeof apiRoutes)[number]) =>
   `${route.method.toUpperCase()} ${route.path}`;
 
@@ -817,9 +851,8 @@ describe("role matrix: every registered route, as every role, another site's mem
   let matrixApp: TestApp;
 
   beforeAll(async () => {
-    matrixApp = createTestApp({
-      LINTEL_DEMO: "1",
-      LINTEL_DEV_MAILBOX_DIR: mkdtempSync(path.join(os.tmpdir(), "lintel-mailbox-")),
+    matrixApp = createTestApp({ LINTEL_DEMO: "1" }, undefined, {
+      mailCatcherDir: mkdtempSync(path.join(os.tmpdir(), "lintel-mailbox-")),
     });
     const { db } = testApp().deps;
     const network = await insertNetwork(db);
@@ -855,7 +888,7 @@ describe("role matrix: every registered route, as every role, another site's mem
   });
   afterAll(async () => {
     await matrixApp.database.close();
-    rmSync(matrixApp.deps.env.LINTEL_DEV_MAILBOX_DIR!, { recursive: true, force: true });
+    rmSync(matrixApp.deps.mailCatcherDir!, { recursive: true, force: true });
   });
 
   it("when a route is registered, then the matrix has a designed answer for it", () => {

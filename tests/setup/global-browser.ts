@@ -37,11 +37,11 @@ export default async function setup() {
       LINTEL_DEMO: "1",
       LINTEL_CLIENT_DIR: clientDir,
       SMTP_PORT: String(catcher.port),
-      LINTEL_DEV_MAILBOX_DIR: mailboxDir,
       LINTEL_OUTBOX_POLL_MS: "100",
       LINTEL_ACTION_NOTICE_MS: "300",
       S3_ENDPOINT: s3.endpoint,
     }),
+    { mailCatcherDir: mailboxDir },
   );
   process.env.LINTEL_E2E_URL = server.url;
   process.env.LINTEL_E2E_CHROMIUM = chromium;

@@ -133,6 +133,23 @@ export async function actionsAssignedTo(db: DbOrTx, userId: string): Promise<Act
     .orderBy(asc(correctiveActions.dueAt));
 }
 
+/** Fixes waiting for an auditor at the given sites (every site of the network when null). */
+export async function actionsAwaitingVerification(
+  db: DbOrTx,
+  networkId: string,
+  siteIds: string[] | null,
+): Promise<ActionRow[]> {
+  if (siteIds !== null && siteIds.length === 0) return [];
+  const conditions = [
+    eq(correctiveActions.status, "awaiting_verification"),
+    eq(sites.networkId, networkId),
+  ];
+  if (siteIds !== null) conditions.push(inArray(correctiveActions.siteId, siteIds));
+  return actionQuery(db)
+    .where(and(...conditions))
+    .orderBy(asc(correctiveActions.dueAt));
+}
+
 export async function lockAction(db: DbOrTx, actionId: string) {
   const [row] = await db
     .select()

@@ -117,6 +117,15 @@ export const actionRoutes = [
   }),
   defineRoute({
     method: "get",
+    path: "/my/verifications",
+    summary: "Fixes awaiting verification at the sites where the person verifies",
+    access: { kind: "signed-in" },
+    async handle({ res, deps, auth }) {
+      res.json({ actions: await actions.myVerifications(deps.db, auth!) });
+    },
+  }),
+  defineRoute({
+    method: "get",
     path: "/actions/:actionId",
     summary: "A corrective action with its findings, photos, proof, plan position and timeline",
     access: viaAction("read:site:site"),

@@ -1,5 +1,6 @@
 import { daysToClose, defaultDuePolicy, dueAt, isOverdue, type DuePolicy } from "@shared/calc/due";
 import { polygonCentroid } from "@shared/calc/plan-geometry";
+import { rolePermissions } from "@shared/permissions";
 import { severities, type Severity } from "@shared/calc/verdict";
 import type {
   ActionDetail,
@@ -88,6 +89,24 @@ export async function myActions(db: Database, auth: SignedIn) {
   const now = new Date();
   return (await repo.actionsAssignedTo(db, auth.user.id))
     .filter((row) => auth.grants.some((g) => g.siteId === null || g.siteId === row.siteId))
+    .map((row) => toSummary(row, now))
+    .sort(byUrgency);
+}
+
+/**
+ * Fixes sent for verification at the sites where the person may verify: what the verification
+ * e-mail tells them, shown on their home page whether or not the e-mail arrived.
+ */
+export async function myVerifications(db: Database, auth: SignedIn) {
+  const now = new Date();
+  const verifying = auth.grants.filter((grant) =>
+    rolePermissions[grant.role].includes("verify:action:site"),
+  );
+  if (verifying.length === 0) return [];
+  const siteIds = verifying.some((grant) => grant.siteId === null)
+    ? null
+    : verifying.map((grant) => grant.siteId!);
+  return (await repo.actionsAwaitingVerification(db, auth.user.networkId, siteIds))
     .map((row) => toSummary(row, now))
     .sort(byUrgency);
 }

@@ -3,25 +3,45 @@ import path from "node:path";
 
 import { mailboxMessageSchema, type MailboxMessage } from "@shared/schemas/people";
 
-import type { Env } from "../../env";
-import { notFound } from "../../lib/app-error";
+import type { AppDeps } from "../../lib/routes";
 import { defineRoute } from "../../lib/routes";
+import { addressesOfNetwork } from "./dev-mailbox.repository";
 
-/** The local mail catcher's inbox is shown only on demo installs that run one. */
-export const devMailboxEnabled = (env: Env) =>
-  env.LINTEL_DEMO === "1" && Boolean(env.LINTEL_DEV_MAILBOX_DIR);
+/** The catcher's inbox exists only where the process running this app also runs the catcher. */
+const mailCatcherRuns = (deps: AppDeps) => deps.mailCatcherDir !== null;
 
-async function readMailbox(dir: string, limit: number): Promise<MailboxMessage[]> {
+/** A file the catcher is still writing reads as nothing. */
+function parseJson(raw: string): unknown {
+  try {
+    return JSON.parse(raw);
+  } catch {
+    return null;
+  }
+}
+
+/**
+ * The newest `limit` messages whose every recipient is one of `addresses`. An e-mail address
+ * belongs to one person, and a person to one network, so a network's administrators read only
+ * what was sent to their own people.
+ */
+async function readMailbox(
+  dir: string,
+  addresses: ReadonlySet<string>,
+  limit: number,
+): Promise<MailboxMessage[]> {
   const files = (await readdir(dir).catch(() => [] as string[]))
     .filter((name) => name.endsWith(".json"))
     .sort()
     .reverse();
   const messages: MailboxMessage[] = [];
-  for (const file of files.slice(0, limit)) {
-    const parsed = mailboxMessageSchema.safeParse(
-      JSON.parse(await readFile(path.join(dir, file), "utf8")),
-    );
-    if (parsed.success) messages.push(parsed.data);
+  for (const file of files) {
+    if (messages.length >= limit) break;
+    const raw = await readFile(path.join(dir, file), "utf8").catch(() => "");
+    const parsed = mailboxMessageSchema.safeParse(parseJson(raw));
+    if (!parsed.success) continue;
+    const { to } = parsed.data;
+    if (to.length > 0 && to.every((address) => addresses.has(address.toLowerCase())))
+      messages.push(parsed.data);
   }
   return messages;
 }
@@ -33,17 +53,18 @@ export const devMailboxRoutes = [
     summary: "What this install offers (demo mailbox)",
     access: { kind: "public" },
     handle({ res, deps }) {
-      res.json({ demoMailbox: devMailboxEnabled(deps.env) });
+      res.json({ demoMailbox: mailCatcherRuns(deps) });
     },
   }),
   defineRoute({
     method: "get",
     path: "/dev/mailbox",
-    summary: "Mail received by the local mail catcher (demo installs only)",
+    summary: "Mail the local mail catcher received for the caller's network (only where it runs)",
     access: { kind: "network", permission: "read:dev-mailbox:network" },
-    async handle({ res, deps }) {
-      if (!devMailboxEnabled(deps.env)) throw notFound("The demo mailbox");
-      res.json({ messages: await readMailbox(deps.env.LINTEL_DEV_MAILBOX_DIR!, 200) });
+    mountedWhen: mailCatcherRuns,
+    async handle({ res, deps, auth }) {
+      const addresses = await addressesOfNetwork(deps.db, auth!.user.networkId);
+      res.json({ messages: await readMailbox(deps.mailCatcherDir!, addresses, 200) });
     },
   }),
 ];

@@ -4,7 +4,9 @@ import { Link } from "react-router-dom";
 import { buttonStyles } from "@/components/ui/button";
 import { paths } from "@/config/paths";
 
+import { ActionsToVerify } from "@/features/actions/components/actions-to-verify";
 import { MyActions } from "@/features/actions/components/my-actions";
+import { UndeliveredMailNotice } from "@/features/admin/components/undelivered-mail-notice";
 import { sitesQueryOptions } from "@/features/sites/api/get-sites";
 import { SitesList } from "@/features/sites/components/sites-list";
 import { MyDueAudits } from "@/features/walkthroughs/components/my-due-audits";
@@ -43,7 +45,13 @@ export function HomeRoute() {
           </Link>
         ) : null}
       </div>
+      {can("resend:mail:network") ? (
+        <UndeliveredMailNotice href={paths.undeliveredMail.getHref()} />
+      ) : null}
       {canAnywhere("work:action:site") ? <MyActions actionHref={paths.action.getHref} /> : null}
+      {canAnywhere("verify:action:site") ? (
+        <ActionsToVerify actionHref={paths.action.getHref} />
+      ) : null}
       {canAnywhere("conduct:audit:site") ? (
         <MyDueAudits startHref={(spaceId) => paths.startAudit.getHref(spaceId)} />
       ) : null}

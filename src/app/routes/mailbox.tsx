@@ -21,8 +21,8 @@ export function mailboxLoader(queryClient: QueryClient) {
   };
 }
 
-const onlyWithDemoData =
-  "The mailbox exists only while Lintel runs with demo data. Real installations send mail to real inboxes.";
+const onlyWithMailCatcher =
+  "The mailbox exists only while Lintel runs its local mail catcher (npm start without an SMTP server). Real installations send mail to real inboxes.";
 
 function MailboxPage() {
   const appConfig = useAppConfig();
@@ -38,14 +38,14 @@ function MailboxPage() {
       </Alert>
     );
   }
-  if (!appConfig.data.demoMailbox) return <NotAvailable description={onlyWithDemoData} />;
+  if (!appConfig.data.demoMailbox) return <NotAvailable description={onlyWithMailCatcher} />;
 
   return (
     <>
       <title>Mailbox · Lintel</title>
       <h1 className="text-2xl font-bold tracking-tight md:text-3xl">Mailbox</h1>
       <p className="mt-2 mb-6 text-ink-muted">
-        This is the local mail catcher used while demo data is on: every e-mail Lintel sends lands
+        This is the local mail catcher: e-mail Lintel sends to the people of your network lands
         here, so nothing leaves this machine.
       </p>
       <Mailbox />

@@ -42,6 +42,7 @@ function PeopleList() {
 
 function PeoplePage() {
   const people = usePeople();
+  const { can } = useAuthorization();
   if (isApiError(people.error) && people.error.status === 403) return <NotAvailable />;
 
   return (
@@ -55,9 +56,19 @@ function PeoplePage() {
             accounts that should no longer sign in.
           </p>
         </div>
-        <Link to={paths.invitePerson.getHref()} className={buttonStyles()}>
-          Invite someone
-        </Link>
+        <div className="flex flex-wrap gap-3">
+          {can("resend:mail:network") ? (
+            <Link
+              to={paths.undeliveredMail.getHref()}
+              className={buttonStyles({ variant: "secondary" })}
+            >
+              E-mail that may not have arrived
+            </Link>
+          ) : null}
+          <Link to={paths.invitePerson.getHref()} className={buttonStyles()}>
+            Invite someone
+          </Link>
+        </div>
       </div>
       <div className="mt-6">
         <PeopleList />

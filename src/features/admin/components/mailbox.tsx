@@ -56,7 +56,7 @@ function MessageItem({ message }: { message: MailboxMessage }) {
   );
 }
 
-/** What Lintel has "sent" while demo data is on, caught before it could leave the machine. */
+/** What Lintel has "sent" to the network's people, caught by the local mail catcher before it could leave the machine. */
 export function Mailbox() {
   const mailbox = useMailbox();
 

@@ -1,0 +1,28 @@
+import { type UndeliveredMail, undeliveredMailListSchema } from "@shared/schemas/mail";
+import { queryOptions, useQuery } from "@tanstack/react-query";
+
+import { apiRequest } from "@/lib/api-client";
+
+export const undeliveredMailQueryKey = ["undelivered-mails", "list"] as const;
+
+/** E-mail to the network's people that may not have arrived, newest first. */
+export async function getUndeliveredMail({ signal }: { signal?: AbortSignal } = {}): Promise<
+  UndeliveredMail[]
+> {
+  const { mail } = await apiRequest("/api/mail/undelivered", {
+    schema: undeliveredMailListSchema,
+    signal,
+  });
+  return mail;
+}
+
+export function undeliveredMailQueryOptions() {
+  return queryOptions({
+    queryKey: undeliveredMailQueryKey,
+    queryFn: ({ signal }) => getUndeliveredMail({ signal }),
+  });
+}
+
+export function useUndeliveredMail({ enabled = true }: { enabled?: boolean } = {}) {
+  return useQuery({ ...undeliveredMailQueryOptions(), enabled });
+}
