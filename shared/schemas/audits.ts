@@ -20,6 +20,13 @@ export const startAuditBodySchema = z.strictObject({
   startedAt: z.iso.datetime({ offset: true, message: "A date and time with its offset." }),
 });
 
+/** The text fields of a multipart audit photo (the file itself is `photo`). */
+export const auditPhotoFieldsSchema = z.strictObject({
+  /** Made by the device; the same photo sent twice is stored once. */
+  id: uuidSchema,
+  itemId: uuidSchema.nullable().optional(),
+});
+
 export const answerBodySchema = z.strictObject({
   /** Made by the device; the same answer sent twice is stored once. */
   id: uuidSchema,

@@ -2,6 +2,7 @@ import { count, eq } from "drizzle-orm";
 import { beforeAll, describe, expect, it } from "vitest";
 
 import { sites } from "../../server/db/schema/index";
+import { insertFloor, insertSpace } from "../factories/audits";
 import { buildSite, insertNetwork, insertSite } from "../factories/records";
 import { api, testApp } from "../helpers/app";
 import { signInAs, type SignedInPerson } from "../helpers/auth";
@@ -67,5 +68,24 @@ describe("request validation", () => {
       .send(raw);
     expect(response.status, JSON.stringify(response.body)).toBe(400);
     expect(response.body.error.fields).toEqual({ "critical.__proto__": "Unknown field." });
+  });
+
+  it("when a new audit's space is not an id, then 400 names spaceId (not a 404 for an unknown site)", async () => {
+    const { db } = testApp().deps;
+    const site = await insertSite(db, networkId);
+    const auditor = await signInAs(networkId, [{ role: "auditor", siteId: site.id }]);
+    for (const spaceId of ["not-an-id", 12345, null]) {
+      const response = await api(undefined, { cookie: auditor.cookie })
+        .put(`/api/audits/${crypto.randomUUID()}`)
+        .send({ spaceId, startedAt: new Date().toISOString() });
+      expect(response.status, JSON.stringify(response.body)).toBe(400);
+      expect(Object.keys(response.body.error.fields)).toEqual(["spaceId"]);
+    }
+    const space = await insertSpace(db, await insertFloor(db, site.id));
+    const elsewhere = await signInAs(networkId, []);
+    const hidden = await api(undefined, { cookie: elsewhere.cookie })
+      .put(`/api/audits/${crypto.randomUUID()}`)
+      .send({ spaceId: space.id, startedAt: new Date().toISOString() });
+    expect(hidden.status).toBe(404);
   });
 });
