@@ -114,6 +114,27 @@ export default tseslint.config(
     },
   },
   {
+    // Request text goes through `text()` in shared/schemas/common.ts, which refuses characters the
+    // database cannot store; a bare string schema would let them through to a 500.
+    files: ["shared/schemas/**/*.ts", "server/modules/**/*.ts"],
+    ignores: ["shared/schemas/common.ts"],
+    rules: {
+      "no-restricted-syntax": [
+        "error",
+        {
+          selector: "MemberExpression[object.name='z'][property.name='string']",
+          message:
+            "Use text() or requiredText() for request text, responseText() for responses (shared/schemas/common.ts).",
+        },
+        {
+          selector:
+            "MemberExpression[object.object.name='z'][object.property.name='coerce'][property.name='string']",
+          message: "Use text() from shared/schemas/common.ts for request text.",
+        },
+      ],
+    },
+  },
+  {
     files: ["scripts/**", "tests/**", "server/env.ts", "*.config.ts", "*.config.mjs"],
     rules: { "no-restricted-properties": "off" },
   },

@@ -16,17 +16,24 @@ export function parseInput<S extends z.ZodType>(
   const result = schema.safeParse(value);
   if (result.success) return result.data;
 
-  const fields: Record<string, string> = {};
+  // Keys come from the request (an unknown field may be called `__proto__` or `toString`): collect
+  // them in a Map, whose keys are only data, then build the envelope with own properties.
+  const fields = new Map<string, string>();
+  const note = (key: string, message: string) => {
+    if (!fields.has(key)) fields.set(key, message);
+  };
   for (const issue of result.error.issues) {
     if (issue.code === "unrecognized_keys") {
-      for (const key of issue.keys)
-        fields[fieldKey(part, [...issue.path, key])] ??= "Unknown field.";
+      for (const key of issue.keys) note(fieldKey(part, [...issue.path, key]), "Unknown field.");
       continue;
     }
-    const key = fieldKey(part, issue.path);
-    fields[key] ??=
-      value === undefined && part === "body" ? "A JSON body is required." : issue.message;
+    note(
+      fieldKey(part, issue.path),
+      value === undefined && part === "body" ? "A JSON body is required." : issue.message,
+    );
   }
-  const names = Object.keys(fields).join(", ");
-  throw new AppError("validation_failed", 400, `Check these fields: ${names}.`, { fields });
+  const names = [...fields.keys()].join(", ");
+  throw new AppError("validation_failed", 400, `Check these fields: ${names}.`, {
+    fields: Object.fromEntries(fields),
+  });
 }

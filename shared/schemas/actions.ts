@@ -3,7 +3,7 @@ import { z } from "zod";
 import { dueUnits, maxDueAmount } from "../calc/due";
 import { severities } from "../calc/verdict";
 import { zoneTypes } from "../zones";
-import { numberInput, text, uuidSchema } from "./common";
+import { numberInput, text, uuidSchema, responseText } from "./common";
 
 /** open → in progress → awaiting verification → closed; rejected or reopened go back to in progress. */
 export const actionStatuses = ["open", "in_progress", "awaiting_verification", "closed"] as const;
@@ -33,26 +33,26 @@ export const actionListQuerySchema = z.strictObject({
 });
 export type ActionListQuery = z.infer<typeof actionListQuerySchema>;
 
-export const personRefSchema = z.object({ id: uuidSchema, name: z.string() });
+export const personRefSchema = z.object({ id: uuidSchema, name: responseText() });
 
 export const actionSummarySchema = z.object({
   id: uuidSchema,
   siteId: uuidSchema,
-  siteName: z.string(),
-  siteTimeZone: z.string(),
+  siteName: responseText(),
+  siteTimeZone: responseText(),
   spaceId: uuidSchema,
-  spaceName: z.string(),
+  spaceName: responseText(),
   zoneType: z.enum(zoneTypes),
   floorId: uuidSchema,
-  floorName: z.string(),
-  itemKey: z.string(),
-  title: z.string(),
+  floorName: responseText(),
+  itemKey: responseText(),
+  title: responseText(),
   severity: z.enum(severities),
   status: z.enum(actionStatuses),
   assignee: personRefSchema.nullable(),
-  openedAt: z.string(),
-  dueAt: z.string(),
-  closedAt: z.string().nullable(),
+  openedAt: responseText(),
+  dueAt: responseText(),
+  closedAt: responseText().nullable(),
   /** Elapsed days from opening to the latest close. */
   daysToClose: z.number().nullable(),
   overdue: z.boolean(),
@@ -67,11 +67,11 @@ export const actionListResponseSchema = z.object({ actions: z.array(actionSummar
 export const findingSchema = z.object({
   id: uuidSchema,
   auditId: uuidSchema,
-  auditedAt: z.string(),
-  auditorName: z.string(),
-  itemText: z.string(),
+  auditedAt: responseText(),
+  auditorName: responseText(),
+  itemText: responseText(),
   severity: z.enum(severities),
-  note: z.string().nullable(),
+  note: responseText().nullable(),
   photos: z.array(z.object({ imageId: uuidSchema })),
 });
 export type Finding = z.infer<typeof findingSchema>;
@@ -79,8 +79,8 @@ export type Finding = z.infer<typeof findingSchema>;
 export const proofSchema = z.object({
   id: uuidSchema,
   imageId: uuidSchema,
-  uploadedBy: z.string().nullable(),
-  createdAt: z.string(),
+  uploadedBy: responseText().nullable(),
+  createdAt: responseText(),
   /** Proof of the current attempt counts towards sending for verification; older proof stays. */
   current: z.boolean(),
 });
@@ -101,13 +101,13 @@ export type TimelineKind = (typeof timelineKinds)[number];
 
 export const timelineEntrySchema = z.object({
   id: uuidSchema,
-  at: z.string(),
+  at: responseText(),
   kind: z.enum(timelineKinds),
-  actorName: z.string().nullable(),
+  actorName: responseText().nullable(),
   fromStatus: z.enum(actionStatuses).nullable(),
   toStatus: z.enum(actionStatuses).nullable(),
   /** The note or reason given with the move. */
-  text: z.string().nullable(),
+  text: responseText().nullable(),
 });
 export type TimelineEntry = z.infer<typeof timelineEntrySchema>;
 

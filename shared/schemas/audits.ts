@@ -3,7 +3,7 @@ import { z } from "zod";
 import { verdicts } from "../calc/verdict";
 import { zoneTypes } from "../zones";
 import { checklistItemSchema } from "./checklists";
-import { numberInput, text, uuidSchema } from "./common";
+import { numberInput, text, uuidSchema, responseText } from "./common";
 
 /** Units an auditor may enter a reading in; the server stores SI (Pa, m³/h). */
 export const readingUnits = ["Pa", "inH2O", "m3/h", "cfm", "percent", "ach", "min"] as const;
@@ -18,6 +18,13 @@ export const auditItemParamsSchema = z.strictObject({ auditId: uuidSchema, itemI
 export const startAuditBodySchema = z.strictObject({
   spaceId: uuidSchema,
   startedAt: z.iso.datetime({ offset: true, message: "A date and time with its offset." }),
+});
+
+/** The text fields of a multipart audit photo (the file itself is `photo`). */
+export const auditPhotoFieldsSchema = z.strictObject({
+  /** Made by the device; the same photo sent twice is stored once. */
+  id: uuidSchema,
+  itemId: uuidSchema.nullable().optional(),
 });
 
 export const answerBodySchema = z.strictObject({
@@ -46,8 +53,8 @@ export const answerSchema = z.object({
   /** The unit the auditor entered, to show the value the same way. */
   unit: z.enum(readingUnits).nullable(),
   count: z.number().nullable(),
-  choice: z.string().nullable(),
-  note: z.string().nullable(),
+  choice: responseText().nullable(),
+  note: responseText().nullable(),
 });
 export type Answer = z.infer<typeof answerSchema>;
 
@@ -61,15 +68,15 @@ export const auditSchema = z.object({
   id: uuidSchema,
   siteId: uuidSchema,
   spaceId: uuidSchema,
-  spaceName: z.string(),
+  spaceName: responseText(),
   zoneType: z.enum(zoneTypes),
   checklistVersionId: uuidSchema,
   checklistVersion: z.number().int(),
   auditorId: uuidSchema,
-  auditorName: z.string(),
+  auditorName: responseText(),
   status: z.enum(["draft", "submitted"]),
-  startedAt: z.string(),
-  submittedAt: z.string().nullable(),
+  startedAt: responseText(),
+  submittedAt: responseText().nullable(),
   verdict: z.enum(verdicts).nullable(),
   /** Weighted pass rate in [0, 1]. */
   score: z.number().nullable(),
@@ -96,16 +103,16 @@ export const auditListResponseSchema = z.object({ audits: z.array(auditSchema) }
 
 export const scheduleEntrySchema = z.object({
   spaceId: uuidSchema,
-  spaceName: z.string(),
+  spaceName: responseText(),
   zoneType: z.enum(zoneTypes),
   floorId: uuidSchema,
-  floorName: z.string(),
+  floorName: responseText(),
   cadenceDays: z.number().int(),
-  lastAuditAt: z.string().nullable(),
-  dueAt: z.string(),
+  lastAuditAt: responseText().nullable(),
+  dueAt: responseText(),
   state: z.enum(["overdue", "due_soon", "ok"]),
   verdict: z.enum(verdicts).nullable(),
-  lastAuditorName: z.string().nullable(),
+  lastAuditorName: responseText().nullable(),
 });
 export type ScheduleEntry = z.infer<typeof scheduleEntrySchema>;
 export const scheduleResponseSchema = z.object({ entries: z.array(scheduleEntrySchema) });
@@ -113,7 +120,7 @@ export const scheduleResponseSchema = z.object({ entries: z.array(scheduleEntryS
 /** What one auditor has due across every site where they audit. */
 export const myDueEntrySchema = scheduleEntrySchema.extend({
   siteId: uuidSchema,
-  siteName: z.string(),
+  siteName: responseText(),
 });
 export type MyDueEntry = z.infer<typeof myDueEntrySchema>;
 export const myDueResponseSchema = z.object({ entries: z.array(myDueEntrySchema) });

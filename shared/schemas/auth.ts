@@ -1,7 +1,7 @@
 import { z } from "zod";
 
 import { roles } from "../roles";
-import { emailSchema, text, uuidSchema } from "./common";
+import { emailSchema, text, uuidSchema, responseText } from "./common";
 
 export const signInBodySchema = z.strictObject({
   email: emailSchema,
@@ -17,7 +17,7 @@ export const roleGrantSchema = z.object({
 });
 
 export const meResponseSchema = z.object({
-  user: z.object({ id: uuidSchema, email: z.string(), name: z.string() }),
+  user: z.object({ id: uuidSchema, email: responseText(), name: responseText() }),
   roles: z.array(roleGrantSchema),
 });
 export type MeResponse = z.infer<typeof meResponseSchema>;

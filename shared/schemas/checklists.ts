@@ -2,7 +2,7 @@ import { z } from "zod";
 
 import { severities } from "../calc/verdict";
 import { zoneTypes } from "../zones";
-import { numberInput, requiredText, text, uuidSchema } from "./common";
+import { numberInput, requiredText, text, uuidSchema, responseText } from "./common";
 
 export const responseKinds = ["check", "reading", "count", "choice"] as const;
 export const quantities = ["pressure", "airflow", "air_changes", "percent", "minutes"] as const;
@@ -20,15 +20,15 @@ export const choiceSchema = z.strictObject({
 
 export const checklistItemSchema = z.object({
   id: uuidSchema,
-  key: z.string(),
+  key: responseText(),
   position: z.number().int(),
-  text: z.string(),
+  text: responseText(),
   severity: z.enum(severities),
   response: z.enum(responseKinds),
   quantity: z.enum(quantities).nullable(),
   threshold: thresholdSchema.nullable(),
   choices: z.array(choiceSchema).nullable(),
-  reference: z.string().nullable(),
+  reference: responseText().nullable(),
   photoOnFail: z.boolean(),
 });
 export type ChecklistItem = z.infer<typeof checklistItemSchema>;
@@ -38,8 +38,8 @@ export const checklistVersionSchema = z.object({
   zoneType: z.enum(zoneTypes),
   version: z.number().int(),
   status: z.enum(["draft", "published"]),
-  title: z.string(),
-  publishedAt: z.string().nullable(),
+  title: responseText(),
+  publishedAt: responseText().nullable(),
   items: z.array(checklistItemSchema),
 });
 export type ChecklistVersion = z.infer<typeof checklistVersionSchema>;

@@ -4,7 +4,7 @@ import { itemCategories } from "../checklists/categories";
 import { severities } from "../calc/verdict";
 import { verdicts } from "../calc/verdict";
 import { zoneTypes } from "../zones";
-import { text, uuidSchema } from "./common";
+import { text, uuidSchema, responseText } from "./common";
 
 /** Fewer audits than this and a site is shown with its interval but not ranked (Lintel's rule). */
 export const minimumRankedSample = 30;
@@ -56,7 +56,7 @@ export type Proportion = z.infer<typeof proportionSchema>;
 
 export const siteComparisonSchema = z.object({
   siteId: uuidSchema,
-  siteName: z.string(),
+  siteName: responseText(),
   /** Audits with a "ready" verdict out of all submitted audits. */
   readiness: proportionSchema,
   verdicts: z.object({
@@ -72,9 +72,9 @@ export const siteComparisonSchema = z.object({
 export type SiteComparison = z.infer<typeof siteComparisonSchema>;
 
 export const comparisonResponseSchema = z.object({
-  networkName: z.string(),
-  from: z.string(),
-  to: z.string(),
+  networkName: responseText(),
+  from: responseText(),
+  to: responseText(),
   zoneType: z.enum(zoneTypes).nullable(),
   confidence: z.number(),
   minimumRankedSample: z.number().int(),
@@ -104,18 +104,18 @@ const buckets = z.object({
 });
 
 export const trendsResponseSchema = z.object({
-  from: z.string(),
-  to: z.string(),
+  from: responseText(),
+  to: responseText(),
   zoneType: z.enum(zoneTypes).nullable(),
   sites: z.array(
     z.object({
       siteId: uuidSchema,
-      siteName: z.string(),
+      siteName: responseText(),
       /** Monthly readiness with 3-sigma limits; months without audits are left out. */
       centre: z.number().nullable(),
       points: z.array(
         z.object({
-          month: z.string(),
+          month: responseText(),
           audits: z.number().int(),
           ready: z.number().int(),
           p: z.number(),
@@ -128,13 +128,13 @@ export const trendsResponseSchema = z.object({
   ),
   /** Unclosed actions by days since opening, and overdue ones by days past due, now. */
   aging: z.array(
-    z.object({ siteId: uuidSchema, siteName: z.string(), open: buckets, overdue: buckets }),
+    z.object({ siteId: uuidSchema, siteName: responseText(), open: buckets, overdue: buckets }),
   ),
   /** Median days from opening to verified close, for actions closed in the period. */
   closeTimes: z.array(
     z.object({
       siteId: uuidSchema,
-      siteName: z.string(),
+      siteName: responseText(),
       severity: z.enum(severities),
       closed: z.number().int(),
       medianDays: z.number(),
@@ -147,19 +147,19 @@ export const committeeSiteParamsSchema = z.strictObject({ siteId: uuidSchema });
 
 export const siteDrillDownSchema = z.object({
   siteId: uuidSchema,
-  siteName: z.string(),
-  from: z.string(),
-  to: z.string(),
+  siteName: responseText(),
+  from: responseText(),
+  to: responseText(),
   spaces: z.array(
     z.object({
       spaceId: uuidSchema,
-      spaceName: z.string(),
+      spaceName: responseText(),
       zoneType: z.enum(zoneTypes),
       floorId: uuidSchema,
-      floorName: z.string(),
+      floorName: responseText(),
       readiness: proportionSchema,
       lastVerdict: z.enum(verdicts).nullable(),
-      lastAuditAt: z.string().nullable(),
+      lastAuditAt: responseText().nullable(),
       openActions: z.number().int(),
       overdueActions: z.number().int(),
     }),

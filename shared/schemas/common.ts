@@ -6,7 +6,37 @@ export const uuidSchema = z.uuid({ message: "Must be a valid id." });
 const typeMessage = (kind: string) => (issue: { input?: unknown }) =>
   issue.input === undefined ? "Required." : `Must be ${kind}.`;
 
-export const text = () => z.string({ error: typeMessage("text") });
+/**
+ * Characters a text field refuses: control characters other than tab, line feed and carriage
+ * return (C0, DEL, C1), half of a surrogate pair, and the noncharacters U+FFFE and U+FFFF.
+ * PostgreSQL cannot store U+0000, and the rest are invisible, break lines in exports, or turn
+ * into replacement characters on the way to the database.
+ */
+const refusedCharacter =
+  // eslint-disable-next-line no-control-regex
+  /[\u0000-\u0008\u000B\u000C\u000E-\u001F\u007F-\u009F\uFFFE\uFFFF]|[\uD800-\uDBFF](?![\uDC00-\uDFFF])|(?<![\uD800-\uDBFF])[\uDC00-\uDFFF]/;
+
+/** Where the first refused character is, or -1 when the text can be stored as sent. */
+export function refusedCharacterIndex(value: string): number {
+  return refusedCharacter.exec(value)?.index ?? -1;
+}
+
+/**
+ * Text from a request: every text input in Lintel starts here (eslint refuses a bare string
+ * schema in shared/schemas), so no request can carry a character the database cannot store.
+ */
+export const text = () =>
+  z.string({ error: typeMessage("text") }).superRefine((value, ctx) => {
+    const index = refusedCharacterIndex(value);
+    if (index >= 0)
+      ctx.addIssue({
+        code: "custom",
+        message: `Remove the invisible or control character at position ${index + 1}; it cannot be stored.`,
+      });
+  });
+
+/** Text in a response, as Lintel sends it back: not for requests (use `text()` there). */
+export const responseText = () => z.string();
 export const numberInput = () => z.number({ error: typeMessage("a number") });
 
 /** A required single-line text: trimmed, not empty, bounded. */

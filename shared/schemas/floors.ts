@@ -1,7 +1,7 @@
 import { z } from "zod";
 
 import { constructionClasses, fixtureKinds, zoneTypes } from "../zones";
-import { numberInput, requiredText, text, uuidSchema } from "./common";
+import { numberInput, requiredText, text, uuidSchema, responseText } from "./common";
 
 const coordinate = numberInput()
   .min(-1_000_000, { message: "Out of range." })
@@ -19,9 +19,9 @@ export type ImageInfo = z.infer<typeof imageSchema>;
 export const floorSchema = z.object({
   id: uuidSchema,
   siteId: uuidSchema,
-  building: z.string(),
+  building: responseText(),
   level: z.number().int(),
-  name: z.string(),
+  name: responseText(),
   /** The plan image; `width`/`height` of the floor's coordinate space stay fixed across replacements. */
   plan: z.object({ imageId: uuidSchema, width: z.number(), height: z.number() }).nullable(),
   metresPerUnit: z.number().nullable(),
@@ -64,8 +64,8 @@ export const spaceSchema = z.object({
   id: uuidSchema,
   floorId: uuidSchema,
   zoneType: z.enum(zoneTypes),
-  name: z.string(),
-  number: z.string().nullable(),
+  name: responseText(),
+  number: responseText().nullable(),
   polygon: z.array(z.tuple([z.number(), z.number()])),
   suiteId: uuidSchema.nullable(),
   constructionClass: z.enum(constructionClasses).nullable(),
@@ -97,7 +97,7 @@ export const updateSpaceBodySchema = spaceBodySchema
   });
 export const spaceParamsSchema = z.strictObject({ spaceId: uuidSchema });
 
-export const suiteSchema = z.object({ id: uuidSchema, floorId: uuidSchema, name: z.string() });
+export const suiteSchema = z.object({ id: uuidSchema, floorId: uuidSchema, name: responseText() });
 export type Suite = z.infer<typeof suiteSchema>;
 export const suiteBodySchema = z.strictObject({ name: requiredText(80) });
 
@@ -107,7 +107,7 @@ export const fixtureSchema = z.object({
   kind: z.enum(fixtureKinds),
   x: z.number(),
   y: z.number(),
-  label: z.string().nullable(),
+  label: responseText().nullable(),
 });
 export type Fixture = z.infer<typeof fixtureSchema>;
 
@@ -144,7 +144,7 @@ export const uploadedImageSchema = z.object({
   width: z.number(),
   height: z.number(),
   bytes: z.number(),
-  sha256: z.string(),
+  sha256: responseText(),
   /** true when the same picture was already stored for this site: nothing new was stored. */
   duplicate: z.boolean(),
 });

@@ -1,7 +1,7 @@
 import { z } from "zod";
 
 import { networkWideRoles, roles } from "../roles";
-import { emailSchema, requiredText, text, uuidSchema } from "./common";
+import { emailSchema, requiredText, text, uuidSchema, responseText } from "./common";
 
 /** NIST SP 800-63B style: length, no composition rules; the server also refuses common passwords. */
 export const passwordMinLength = 12;
@@ -38,26 +38,26 @@ export const personGrantSchema = z.object({
   role: z.enum(roles),
   siteId: uuidSchema.nullable(),
   /** null for network-wide grants. */
-  siteName: z.string().nullable(),
+  siteName: responseText().nullable(),
 });
 
 export const personSchema = z.object({
   id: uuidSchema,
-  email: z.string(),
-  name: z.string(),
+  email: responseText(),
+  name: responseText(),
   status: z.enum(personStatuses),
   grants: z.array(personGrantSchema),
-  createdAt: z.string(),
-  deactivatedAt: z.string().nullable(),
+  createdAt: responseText(),
+  deactivatedAt: responseText().nullable(),
   /** When the newest unused invitation link stops working; null when none is pending. */
-  invitationExpiresAt: z.string().nullable(),
+  invitationExpiresAt: responseText().nullable(),
 });
 export type Person = z.infer<typeof personSchema>;
 
 export const peopleListResponseSchema = z.object({
   people: z.array(personSchema),
   /** Sites where the caller may manage people (for the role pickers). */
-  manageableSites: z.array(z.object({ id: uuidSchema, name: z.string() })),
+  manageableSites: z.array(z.object({ id: uuidSchema, name: responseText() })),
   /** Whether the caller may give network-wide roles. */
   canGrantNetworkWide: z.boolean(),
 });
@@ -82,9 +82,9 @@ export const linkTokenParamsSchema = z.strictObject({
 });
 
 export const invitationInfoSchema = z.object({
-  email: z.string(),
-  name: z.string(),
-  expiresAt: z.string(),
+  email: responseText(),
+  name: responseText(),
+  expiresAt: responseText(),
 });
 export type InvitationInfo = z.infer<typeof invitationInfoSchema>;
 
@@ -94,7 +94,10 @@ export type SetPasswordBody = z.infer<typeof setPasswordBodySchema>;
 export const passwordResetRequestSchema = z.strictObject({ email: emailSchema });
 export type PasswordResetRequest = z.infer<typeof passwordResetRequestSchema>;
 
-export const passwordResetInfoSchema = z.object({ email: z.string(), expiresAt: z.string() });
+export const passwordResetInfoSchema = z.object({
+  email: responseText(),
+  expiresAt: responseText(),
+});
 
 export const updateProfileBodySchema = z.strictObject({ name: requiredText(120) });
 export type UpdateProfileBody = z.infer<typeof updateProfileBodySchema>;
@@ -114,13 +117,13 @@ export const appConfigSchema = z.object({
 export type AppConfig = z.infer<typeof appConfigSchema>;
 
 export const mailboxMessageSchema = z.object({
-  id: z.string(),
-  to: z.array(z.string()),
-  from: z.string(),
-  subject: z.string(),
-  text: z.string(),
-  html: z.string().nullable(),
-  receivedAt: z.string(),
+  id: responseText(),
+  to: z.array(responseText()),
+  from: responseText(),
+  subject: responseText(),
+  text: responseText(),
+  html: responseText().nullable(),
+  receivedAt: responseText(),
 });
 export type MailboxMessage = z.infer<typeof mailboxMessageSchema>;
 export const mailboxResponseSchema = z.object({ messages: z.array(mailboxMessageSchema) });

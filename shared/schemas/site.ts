@@ -1,12 +1,19 @@
 import { z } from "zod";
 
-import { numberInput, requiredText, text, timeZoneSchema, uuidSchema } from "./common";
+import {
+  numberInput,
+  requiredText,
+  text,
+  timeZoneSchema,
+  uuidSchema,
+  responseText,
+} from "./common";
 
 export const siteSchema = z.object({
   id: uuidSchema,
-  name: z.string(),
-  address: z.string(),
-  timeZone: z.string(),
+  name: responseText(),
+  address: responseText(),
+  timeZone: responseText(),
   latitude: z.number(),
   longitude: z.number(),
 });

@@ -22,16 +22,14 @@ describe("database errors", () => {
   it("when the driver's error is wrapped by the query builder, then its SQLSTATE is still read", async () => {
     const { db } = testApp().deps;
     const name = `Twice ${Date.now()}`;
-    await db
-      .insert(sites)
-      .values({
-        networkId,
-        name,
-        address: "1 Test Row",
-        timeZone: "UTC",
-        latitude: 0,
-        longitude: 0,
-      });
+    await db.insert(sites).values({
+      networkId,
+      name,
+      address: "1 Test Row",
+      timeZone: "UTC",
+      latitude: 0,
+      longitude: 0,
+    });
     const error = await db
       .insert(sites)
       .values({

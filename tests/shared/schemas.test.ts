@@ -1,7 +1,7 @@
 import { describe, expect, it } from "vitest";
 
 import { signInBodySchema } from "@shared/schemas/auth";
-import { timeZoneSchema } from "@shared/schemas/common";
+import { refusedCharacterIndex, text, timeZoneSchema } from "@shared/schemas/common";
 import { createSiteBodySchema } from "@shared/schemas/site";
 
 describe("shared input schemas", () => {
@@ -33,3 +33,48 @@ describe("shared input schemas", () => {
     expect(messages).toEqual({ name: "Required.", address: "Must be text." });
   });
 });
+
+describe("request text refuses characters that cannot be stored", () => {
+  const refused = {
+    "NUL (U+0000)": "a\u0000b",
+    "bell (U+0007)": "a\u0007b",
+    "escape (U+001B)": "a\u001bb",
+    "delete (U+007F)": "a\u007fb",
+    "next line (U+0085)": "a\u0085b",
+    "a lone high surrogate": "a\ud800b",
+    "a lone low surrogate": "a\udc00b",
+    "the noncharacter U+FFFF": "a\uffffb",
+  };
+
+  it("when a name holds a control character, then the name is refused with the position named", () => {
+    for (const [what, value] of Object.entries(refused)) {
+      const result = createSiteBodySchema.safeParse({ ...buildSiteBody(), name: value });
+      expect(result.success, what).toBe(false);
+      expect(result.error!.issues[0]).toMatchObject({
+        path: ["name"],
+        message: "Remove the invisible or control character at position 2; it cannot be stored.",
+      });
+    }
+  });
+
+  it("when text holds tabs, line breaks, emoji or right-to-left letters, then it is kept", () => {
+    for (const value of ["line one\r\nline two\tend", "Mask on 😷", "חדר בידוד", "غرفة العزل"]) {
+      expect(text().safeParse(value)).toEqual({ success: true, data: value });
+    }
+  });
+
+  it("when an e-mail or a password holds NUL, then each is refused", () => {
+    expect(
+      signInBodySchema.safeParse({ email: "a\u0000@example.org", password: "x" }).success,
+    ).toBe(false);
+    expect(
+      signInBodySchema.safeParse({ email: "a@example.org", password: "x\u0000" }).success,
+    ).toBe(false);
+    expect(refusedCharacterIndex("ok\u0000")).toBe(2);
+    expect(refusedCharacterIndex("ok 😷")).toBe(-1);
+  });
+});
+
+function buildSiteBody() {
+  return { name: "Site", address: "1 Row", timeZone: "UTC", latitude: 0, longitude: 0 };
+}

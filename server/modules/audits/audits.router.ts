@@ -1,15 +1,13 @@
-import { z } from "zod";
-
 import type { Permission } from "@shared/permissions";
 import {
   amendmentBodySchema,
   answerBodySchema,
   auditItemParamsSchema,
   auditParamsSchema,
+  auditPhotoFieldsSchema,
   cadenceBodySchema,
   startAuditBodySchema,
 } from "@shared/schemas/audits";
-import { uuidSchema } from "@shared/schemas/common";
 import { spaceParamsSchema } from "@shared/schemas/floors";
 import { siteParamsSchema } from "@shared/schemas/site";
 
@@ -30,11 +28,6 @@ const viaSpace = (permission: Permission): Access => ({
   siteOf: (params, deps) => audits.siteOfSpace(deps.db, params.spaceId!),
 });
 
-const photoFieldsSchema = z.strictObject({
-  id: uuidSchema,
-  itemId: uuidSchema.nullable().optional(),
-});
-
 export const auditRoutes = [
   defineRoute({
     method: "put",
@@ -44,13 +37,13 @@ export const auditRoutes = [
       kind: "site",
       permission: "conduct:audit:site",
       async siteOf(params, deps, _user, req) {
-        // An audit that exists belongs where it is; a new one belongs where its space is.
+        // An audit that exists belongs where it is; a new one belongs where its space is, so
+        // its body is read here, and a malformed one is refused naming the field (the schema
+        // says nothing about what exists).
         const existing = await audits.siteOfAudit(deps.db, params.auditId!);
         if (existing) return existing;
-        const spaceId = uuidSchema.safeParse(
-          (req.body as { spaceId?: unknown } | undefined)?.spaceId,
-        );
-        return spaceId.success ? audits.siteOfSpace(deps.db, spaceId.data) : null;
+        const body = parseInput(startAuditBodySchema, req.body, "body");
+        return audits.siteOfSpace(deps.db, body.spaceId);
       },
     },
     params: auditParamsSchema,
@@ -91,7 +84,7 @@ export const auditRoutes = [
     params: auditParamsSchema,
     async handle({ req, res, deps, auth, params }) {
       const buffer = await readUpload(req, res, "photo");
-      const fields = parseInput(photoFieldsSchema, { ...req.body }, "body");
+      const fields = parseInput(auditPhotoFieldsSchema, { ...req.body }, "body");
       const { created, photo } = await audits.addPhoto(deps, auth!, params.auditId, {
         id: fields.id,
         itemId: fields.itemId ?? null,

@@ -1,0 +1,383 @@
+import type { z } from "zod";
+
+import { auditPhotoFieldsSchema } from "@shared/schemas/audits";
+
+import { buildSite } from "../factories/records";
+import { newId, worldPassword, type CallerName, type World } from "../helpers/robustness-world";
+
+/**
+ * One valid request per route, keyed "METHOD /path" as in server/routes.ts. The robustness walk
+ * (robustness.test.ts) sends each write route's example last, after a battery of malformed
+ * variants generated from it, and expects a 2xx — so the example must be a request the handler
+ * accepts as is. `control` may make fresh rows of its own through `world.fresh`, since a control
+ * may use one up (a deleted space, a submitted audit, a verified action).
+ *
+ * Adding a write route means adding its example here; the walk fails naming any write route
+ * without one. Read routes may have one too (for a query or a particular resource); without one
+ * their params are filled from `readParams` by name.
+ */
+export interface RouteExample {
+  /** Who calls; by default the first caller the route's access admits (see `callerNames`). */
+  as?: CallerName | "nobody";
+  control: (world: World) => Promise<ExampleRequest> | ExampleRequest;
+  /**
+   * Where an id is made by the device (`params.auditId`, `body.id`, `fields.id`): any fresh id is
+   * valid there, so the walk does not expect an unknown id to be refused.
+   */
+  newIds?: string[];
+}
+
+export interface ExampleRequest {
+  params?: Record<string, string>;
+  query?: Record<string, string>;
+  /** A JSON body. */
+  body?: unknown;
+  /** A multipart upload instead of a JSON body. */
+  upload?: { field: string; file: Buffer; name: string; fields?: Record<string, string> };
+  /** The schema of the upload's text fields, which tells a missing optional field from a fault. */
+  uploadSchema?: z.ZodType;
+}
+
+const square: [number, number][] = [
+  [10, 10],
+  [120, 10],
+  [120, 120],
+  [10, 120],
+];
+
+export const examples: Record<string, RouteExample> = {
+  // Accounts and sign-in
+  "POST /auth/sign-in": {
+    as: "nobody",
+    control: async (w) => ({
+      body: { email: (await w.fresh.person()).email, password: worldPassword },
+    }),
+  },
+  "POST /auth/sign-out": { as: "auditor @A", control: () => ({}) },
+  "POST /invitations/:token/accept": {
+    as: "nobody",
+    async control(w) {
+      const person = await w.fresh.person("invited");
+      return {
+        params: { token: await w.fresh.link(person.id, "invitation") },
+        body: { password: "joining the ward team today" },
+      };
+    },
+  },
+  "POST /auth/password-reset": {
+    as: "nobody",
+    control: async (w) => ({ body: { email: (await w.fresh.person()).email } }),
+  },
+  "POST /auth/password-reset/:token": {
+    as: "nobody",
+    async control(w) {
+      const person = await w.fresh.person();
+      return {
+        params: { token: await w.fresh.link(person.id, "password_reset") },
+        body: { password: "a fresh passphrase after reset" },
+      };
+    },
+  },
+  "PATCH /auth/me": { control: () => ({ body: { name: "Imogen Hale" } }) },
+  "POST /auth/me/password": {
+    control: () => ({
+      body: { currentPassword: worldPassword, newPassword: "a new long passphrase for the ward" },
+    }),
+  },
+
+  // Sites and people
+  "POST /sites": { control: () => ({ body: buildSite() }) },
+  "PATCH /sites/:siteId": {
+    control: (w) => ({ params: { siteId: w.siteA }, body: { address: "4 Infirmary Lane" } }),
+  },
+  "PUT /sites/:siteId/due-policy": {
+    control: (w) => ({
+      params: { siteId: w.siteA },
+      body: {
+        critical: { amount: 12, unit: "hours" },
+        major: { amount: 5, unit: "days" },
+        minor: { amount: 21, unit: "days" },
+      },
+    }),
+  },
+  "POST /people/invitations": {
+    control: (w) => ({
+      body: {
+        email: `invitee-${newId()}@example.org`,
+        name: "Nadia Okafor",
+        grants: [{ role: "auditor", siteId: w.siteA }],
+      },
+    }),
+  },
+  "POST /people/:userId/grants": {
+    control: async (w) => ({
+      params: { userId: (await w.fresh.person()).id },
+      body: { role: "facilities_lead", siteId: w.siteA },
+    }),
+  },
+  "DELETE /people/:userId/grants/:grantId": {
+    async control(w) {
+      const person = await w.fresh.person();
+      return { params: { userId: person.id, grantId: person.grantId } };
+    },
+  },
+  "POST /people/:userId/deactivate": {
+    control: async (w) => ({
+      params: { userId: (await w.fresh.person()).id },
+      body: { reason: "Left the trust" },
+    }),
+  },
+  "POST /people/:userId/reactivate": {
+    control: async (w) => ({
+      params: { userId: (await w.fresh.person("deactivated")).id },
+      body: {},
+    }),
+  },
+  "POST /people/:userId/invitation": {
+    control: async (w) => ({ params: { userId: (await w.fresh.person("invited")).id }, body: {} }),
+  },
+
+  // Floors, spaces, fixtures, images
+  "POST /sites/:siteId/floors": {
+    control: (w) => ({
+      params: { siteId: w.siteA },
+      body: { building: "East block", level: 2, name: "Level 2" },
+    }),
+  },
+  "PATCH /floors/:floorId": {
+    control: (w) => ({ params: { floorId: w.floorA }, body: { name: "Level 1 (east)" } }),
+  },
+  "PUT /floors/:floorId/plan": {
+    control: (w) => ({
+      params: { floorId: w.floorA },
+      upload: { field: "plan", file: w.planPng, name: "plan.png" },
+    }),
+  },
+  "PUT /floors/:floorId/scale": {
+    control: (w) => ({
+      params: { floorId: w.floorA },
+      body: { a: { x: 0, y: 0 }, b: { x: 100, y: 0 }, distanceMetres: 2 },
+    }),
+  },
+  "POST /floors/:floorId/suites": {
+    control: (w) => ({ params: { floorId: w.floorA }, body: { name: "Suite 4" } }),
+  },
+  "POST /floors/:floorId/spaces": {
+    control: (w) => ({
+      params: { floorId: w.floorA },
+      body: { zoneType: "donning_zone", name: "Donning 4", polygon: square },
+    }),
+  },
+  "PATCH /spaces/:spaceId": {
+    control: async (w) => ({
+      params: { spaceId: (await w.fresh.space()).id },
+      body: { name: "Doffing 2" },
+    }),
+  },
+  "DELETE /spaces/:spaceId": {
+    control: async (w) => ({ params: { spaceId: (await w.fresh.space()).id } }),
+  },
+  "PATCH /spaces/:spaceId/cadence": {
+    control: (w) => ({ params: { spaceId: w.spaceA }, body: { cadenceDays: 14 } }),
+  },
+  "POST /spaces/:spaceId/fixtures": {
+    control: (w) => ({
+      params: { spaceId: w.spaceA },
+      body: { kind: "hand_rub_station", x: 110, y: 110 },
+    }),
+  },
+  "PATCH /fixtures/:fixtureId": {
+    control: async (w) => ({
+      params: { fixtureId: (await w.fresh.fixture()).id },
+      body: { x: 160 },
+    }),
+  },
+  "DELETE /fixtures/:fixtureId": {
+    control: async (w) => ({ params: { fixtureId: (await w.fresh.fixture()).id } }),
+  },
+  "POST /sites/:siteId/images": {
+    control: async (w) => ({
+      params: { siteId: w.siteA },
+      upload: { field: "photo", file: await w.fresh.jpeg(), name: "chair.jpg" },
+    }),
+  },
+
+  // Checklists
+  "PUT /checklists/:zoneType/draft": {
+    control: () => ({
+      params: { zoneType: "anteroom" },
+      body: {
+        title: "Anteroom checks",
+        items: [
+          { text: "Doors close by themselves", severity: "major", response: "check" },
+          {
+            key: "pressure",
+            text: "Pressure towards the room",
+            severity: "critical",
+            response: "reading",
+            quantity: "pressure",
+            threshold: { op: ">=", value: 2.5 },
+            reference: "FGI 2022 table 7.1",
+            photoOnFail: true,
+          },
+          {
+            text: "Gown stock",
+            severity: "minor",
+            response: "choice",
+            choices: [
+              { value: "full", label: "Full", passes: true },
+              { value: "low", label: "Low", passes: false },
+            ],
+          },
+        ],
+      },
+    }),
+  },
+  "POST /checklists/:zoneType/publish": {
+    async control(w) {
+      await w.fresh.checklistDraft("donning_zone");
+      return { params: { zoneType: "donning_zone" } };
+    },
+  },
+  "DELETE /checklists/:zoneType/draft": {
+    async control(w) {
+      await w.fresh.checklistDraft("isolation_room");
+      return { params: { zoneType: "isolation_room" } };
+    },
+  },
+
+  // Audits
+  "PUT /audits/:auditId": {
+    newIds: ["params.auditId"],
+    control: async (w) => ({
+      params: { auditId: newId() },
+      body: { spaceId: (await w.fresh.space()).id, startedAt: new Date().toISOString() },
+    }),
+  },
+  "PUT /audits/:auditId/answers/:itemId": {
+    newIds: ["body.id"],
+    async control(w) {
+      const { auditId, itemId } = await w.fresh.draftAudit();
+      return {
+        params: { auditId, itemId },
+        body: {
+          id: newId(),
+          outcome: "fail",
+          note: "Chair not labelled",
+          count: null,
+          choice: null,
+        },
+      };
+    },
+  },
+  "POST /audits/:auditId/photos": {
+    newIds: ["fields.id"],
+    async control(w) {
+      const { auditId, itemId } = await w.fresh.draftAudit();
+      return {
+        params: { auditId },
+        upload: {
+          field: "photo",
+          file: await w.fresh.jpeg(),
+          name: "door.jpg",
+          fields: { id: newId(), itemId },
+        },
+        uploadSchema: auditPhotoFieldsSchema,
+      };
+    },
+  },
+  "POST /audits/:auditId/submit": {
+    control: async (w) => ({ params: { auditId: (await w.fresh.draftAudit()).auditId } }),
+  },
+  "POST /audits/:auditId/amendments": {
+    async control(w) {
+      const { auditId, itemId } = await w.fresh.submittedAudit();
+      return {
+        params: { auditId },
+        body: {
+          itemId,
+          outcome: "fail",
+          note: "Seen again",
+          reason: "Entered against the wrong item",
+        },
+      };
+    },
+  },
+
+  // Corrective actions
+  "POST /actions/:actionId/start": {
+    control: async (w) => ({ params: { actionId: await w.fresh.action("open") } }),
+  },
+  "POST /actions/:actionId/proofs": {
+    control: async (w) => ({
+      params: { actionId: await w.fresh.action("in_progress") },
+      upload: { field: "photo", file: await w.fresh.jpeg(), name: "fixed.jpg" },
+    }),
+  },
+  "POST /actions/:actionId/verification-request": {
+    control: async (w) => ({
+      params: { actionId: await w.fresh.action("in_progress", true) },
+      body: { note: "New labelled chair in place" },
+    }),
+  },
+  "POST /actions/:actionId/verify": {
+    control: async (w) => ({
+      params: { actionId: await w.fresh.action("awaiting_verification", true) },
+      body: { note: "Seen in place" },
+    }),
+  },
+  "POST /actions/:actionId/reject": {
+    control: async (w) => ({
+      params: { actionId: await w.fresh.action("awaiting_verification", true) },
+      body: { reason: "The label is missing" },
+    }),
+  },
+  "POST /actions/:actionId/reopen": {
+    control: async (w) => ({
+      params: { actionId: await w.fresh.action("closed") },
+      body: { reason: "Chair gone again" },
+    }),
+  },
+  "PUT /actions/:actionId/assignee": {
+    control: async (w) => ({
+      params: { actionId: await w.fresh.action("open") },
+      body: { assigneeId: w.callers["facilities lead @A"].id },
+    }),
+  },
+
+  // Read routes that need a query
+  "GET /committee/comparison": { control: () => ({ query: { from: "2026-01", to: "2026-06" } }) },
+  "GET /committee/trends": { control: () => ({ query: { from: "2026-01", to: "2026-06" } }) },
+  "GET /committee/sites/:siteId": {
+    control: (w) => ({ params: { siteId: w.siteA }, query: { from: "2026-01", to: "2026-06" } }),
+  },
+  "GET /committee/comparison/export": {
+    control: () => ({ query: { from: "2026-01", to: "2026-06" } }),
+  },
+  "GET /committee/audits/export": {
+    control: () => ({ query: { from: "2026-01", to: "2026-06" } }),
+  },
+  "GET /committee/report": { control: () => ({ query: { from: "2026-01", to: "2026-06" } }) },
+  "GET /sites/:siteId/actions": {
+    control: (w) => ({ params: { siteId: w.siteA }, query: { state: "open", overdue: "false" } }),
+  },
+  "GET /images/:imageId": {
+    control: (w) => ({ params: { imageId: w.imageA }, query: { variant: "thumb" } }),
+  },
+};
+
+/** Values for read routes' params, by name, when a read route has no example of its own. */
+export async function readParams(world: World): Promise<Record<string, string>> {
+  const person = await world.fresh.person();
+  return {
+    siteId: world.siteA,
+    floorId: world.floorA,
+    spaceId: world.spaceA,
+    auditId: world.submittedAudit,
+    actionId: await world.fresh.action("open"),
+    imageId: world.imageA,
+    userId: person.id,
+    zoneType: "anteroom",
+    token: await world.fresh.link(world.invitedPerson, "invitation"),
+  };
+}
