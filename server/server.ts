@@ -24,7 +24,7 @@ export interface RunningServer {
 export async function startServer(env: Env): Promise<RunningServer> {
   const logger = createLogger(env.LOG_LEVEL);
   await migrateDatabase(env.DATABASE_URL);
-  const database = connectDatabase(env.DATABASE_URL);
+  const database = connectDatabase(env.DATABASE_URL, { logger });
   const storage = createStorage(env);
   await storage.ensureBucket();
   // Objects whose upload never completed are removed now and every ten minutes.

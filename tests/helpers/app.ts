@@ -25,14 +25,9 @@ export function createTestApp(
   notifyOutbox?: () => void,
 ): TestApp {
   const env = testEnv(overrides);
-  const database = connectDatabase(env.DATABASE_URL, { max: 4 });
-  const deps = buildDeps(
-    env,
-    database,
-    createLogger(env.LOG_LEVEL),
-    createStorage(env),
-    notifyOutbox,
-  );
+  const logger = createLogger(env.LOG_LEVEL);
+  const database = connectDatabase(env.DATABASE_URL, { max: 4, logger });
+  const deps = buildDeps(env, database, logger, createStorage(env), notifyOutbox);
   return { app: createApp(deps), deps, database };
 }
 
