@@ -1,4 +1,5 @@
 import { spawn, type ChildProcess } from "node:child_process";
+import { randomUUID } from "node:crypto";
 import { mkdtempSync } from "node:fs";
 import os from "node:os";
 import path from "node:path";
@@ -13,6 +14,7 @@ import { createSessionStore } from "../../server/auth/sessions";
 import { connectDatabase, migrateDatabase } from "../../server/db/client";
 import { outbox, sites } from "../../server/db/schema/index";
 import { enqueueMail } from "../../server/outbox/outbox.repository";
+import { apiRoutes } from "../../server/routes";
 import { buildSite, insertGrant, insertNetwork, insertUser } from "../factories/records";
 
 const root = path.resolve(import.meta.dirname, "../..");
@@ -285,6 +287,35 @@ describe("when PostgreSQL goes away", () => {
     expect(alive(), exitReport()).toBe(true);
     const idleAnswer = await call("read");
     expect(idleAnswer).toMatchObject({ status: 503, retryAfter: "5", code: "unavailable" });
+    // Every route of the registry, as the signed-in administrator: the session check that runs
+    // before any route meets the lost database first, and says 503. Without a session, a public
+    // route answers 503 too, refuses the empty body (4xx), or needs no database (the app's
+    // settings); never another 5xx.
+    const routeAnswers: string[] = [];
+    for (const route of apiRoutes) {
+      const target = `${base}/api${route.path.replace(/:[A-Za-z]+/g, randomUUID())}`;
+      for (const signedIn of route.access.kind === "public" ? [true, false] : [true]) {
+        const response = await fetch(target, {
+          method: route.method.toUpperCase(),
+          headers: {
+            ...(signedIn ? { Cookie: cookie } : {}),
+            Origin: base,
+            ...(route.method === "get" ? {} : { "Content-Type": "application/json" }),
+          },
+          body: route.method === "get" ? undefined : "{}",
+          signal: AbortSignal.timeout(8_000),
+        });
+        const ok = signedIn
+          ? response.status === 503 && response.headers.get("retry-after") === "5"
+          : response.status < 500 ||
+            (response.status === 503 && response.headers.get("retry-after") === "5");
+        if (!ok)
+          routeAnswers.push(
+            `${route.method} ${route.path} (${signedIn ? "signed in" : "no session"}): ${response.status}`,
+          );
+      }
+    }
+    expect(routeAnswers).toEqual([]);
     const health = await fetch(`${base}/api/health`);
     expect(health.status).toBe(503);
     expect(health.headers.get("retry-after")).toBe("5");
@@ -310,6 +341,7 @@ describe("when PostgreSQL goes away", () => {
         outageMs: restart.began - killedAt,
         postgresStartMs: restart.ready - restart.began,
         firstOkAfterRestartBeganMs: recovered.endedAt - restart.began,
+        routesChecked: apiRoutes.length,
         idleOutageMs: idleRestart.began - idleKilledAt,
         idlePostgresStartMs: idleRestart.ready - idleRestart.began,
         idleFirstOkAfterRestartBeganMs: idleRecovered.endedAt - idleRestart.began,
