@@ -8,13 +8,16 @@ import { buildClient, projectRoot } from "./lib/client-build";
 import { startMailCatcher, type MailCatcher } from "./lib/mail-catcher";
 import { startS3Fake, type S3Fake } from "./lib/s3-fake";
 import { chooseClusterFolder, prepareCluster, type Cluster } from "./lib/postgres";
+import { superviseCluster, type Supervisor } from "./lib/postgres-supervisor";
 
 /**
  * `npm start`: a private PostgreSQL under .data/ (unless DATABASE_URL is given), migrations,
- * demo data, the built client, and one Express process serving app and API.
+ * demo data, the built client, and one Express process serving app and API. The private PostgreSQL
+ * is watched and started again if it stops.
  */
 async function main() {
   let cluster: Cluster | null = null;
+  let supervisor: Supervisor | null = null;
   let server: RunningServer | null = null;
   let mailCatcher: MailCatcher | null = null;
   let s3: S3Fake | null = null;
@@ -30,6 +33,7 @@ async function main() {
       await mailCatcher?.stop();
       await s3?.stop();
     } finally {
+      await supervisor?.stop();
       if (cluster) {
         cluster.stop();
         console.log("PostgreSQL stopped.");
@@ -55,6 +59,10 @@ async function main() {
       process.env.DATABASE_URL = cluster.urlFor("lintel");
       process.env.LINTEL_DEMO ??= "1";
       console.log(`PostgreSQL is running on 127.0.0.1:${port} (data in ${folder}).`);
+      supervisor = superviseCluster({
+        cluster,
+        log: (line) => console.log(`${new Date().toISOString()} ${line}`),
+      });
     }
 
     if (!process.env.SMTP_HOST) {
@@ -100,6 +108,7 @@ async function main() {
     await server?.close().catch(() => undefined);
     await mailCatcher?.stop();
     await s3?.stop();
+    await supervisor?.stop();
     cluster?.stop();
     process.exit(1);
   }

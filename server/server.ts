@@ -29,7 +29,7 @@ export interface StartOptions {
 export async function startServer(env: Env, options: StartOptions = {}): Promise<RunningServer> {
   const logger = createLogger(env.LOG_LEVEL);
   await migrateDatabase(env.DATABASE_URL);
-  const database = connectDatabase(env.DATABASE_URL);
+  const database = connectDatabase(env.DATABASE_URL, { logger });
   const storage = createStorage(env);
   await storage.ensureBucket();
   // Objects whose upload never completed are removed now and every ten minutes.

@@ -1,5 +1,15 @@
+import { spawn } from "node:child_process";
 import { createHash } from "node:crypto";
-import { chmodSync, existsSync, mkdirSync, readdirSync, rmSync } from "node:fs";
+import {
+  chmodSync,
+  closeSync,
+  existsSync,
+  mkdirSync,
+  openSync,
+  readdirSync,
+  readFileSync,
+  rmSync,
+} from "node:fs";
 import os from "node:os";
 import path from "node:path";
 
@@ -44,6 +54,21 @@ function postgresUserCanUse(dir: string): boolean {
   }
 }
 
+/** Whether a process lives (a zombie — ended, not yet reaped by its parent — does not). */
+function processAlive(pid: number): boolean {
+  try {
+    process.kill(pid, 0);
+  } catch (error) {
+    if ((error as NodeJS.ErrnoException).code !== "EPERM") return false;
+  }
+  try {
+    const stat = readFileSync(`/proc/${pid}/stat`, "utf8");
+    return stat.slice(stat.lastIndexOf(")") + 2, stat.lastIndexOf(")") + 3) !== "Z";
+  } catch {
+    return true;
+  }
+}
+
 export interface ClusterOptions {
   /** Folder for data, socket and log. */
   folder: string;
@@ -57,7 +82,11 @@ export interface Cluster {
   port: number;
   binDir: string;
   urlFor: (database: string) => string;
+  /** Whether a postmaster runs on this folder (a killed one that is not yet reaped does not count). */
   isRunning: () => boolean;
+  /** The running postmaster's process id, or null. */
+  postmasterPid: () => number | null;
+  /** Starts PostgreSQL unless it runs, and resolves once it accepts connections. */
   start: () => Promise<void>;
   /** Creates the database unless it exists, optionally as a copy of `template`. */
   createDatabase: (name: string, template?: string) => void;
@@ -103,23 +132,34 @@ export async function prepareCluster(options: ClusterOptions): Promise<Cluster> 
   }
   if (isRoot) chmodSync(folder, 0o755);
 
-  const isRunning = () => {
+  const pidFile = path.join(dataDir, "postmaster.pid");
+  /** postmaster.pid: line 1 the process id, line 8 "starting", "ready" or "stopping". */
+  const readPidFile = (): { pid: number; status: string } | null => {
     try {
-      pg(binDir, "pg_ctl", ["-D", dataDir, "status"]);
-      return true;
+      const lines = readFileSync(pidFile, "utf8").split("\n");
+      const pid = Number(lines[0]);
+      return Number.isInteger(pid) && pid > 0 ? { pid, status: (lines[7] ?? "").trim() } : null;
     } catch {
-      return false;
+      return null;
     }
   };
+  const postmasterPid = () => {
+    const entry = readPidFile();
+    return entry && processAlive(entry.pid) ? entry.pid : null;
+  };
+  const isRunning = () => postmasterPid() !== null;
 
   const settings = [
-    `-p ${port}`,
-    "-c listen_addresses=127.0.0.1",
-    `-k ${socketDir}`,
+    "-p",
+    String(port),
+    "-c",
+    "listen_addresses=127.0.0.1",
+    "-k",
+    socketDir,
     ...(options.throwaway
-      ? ["-c fsync=off", "-c synchronous_commit=off", "-c full_page_writes=off"]
+      ? ["-c", "fsync=off", "-c", "synchronous_commit=off", "-c", "full_page_writes=off"]
       : []),
-  ].join(" ");
+  ];
 
   const cluster: Cluster = {
     folder,
@@ -127,6 +167,7 @@ export async function prepareCluster(options: ClusterOptions): Promise<Cluster> 
     binDir,
     urlFor: (database) => `postgres://postgres@127.0.0.1:${port}/${database}`,
     isRunning,
+    postmasterPid,
     async start() {
       if (isRunning()) return;
       if (await portInUse(port)) {
@@ -134,18 +175,40 @@ export async function prepareCluster(options: ClusterOptions): Promise<Cluster> 
           `Port ${port} on 127.0.0.1 is taken by another program. Stop it, or choose another port with LINTEL_PG_PORT.`,
         );
       }
-      pg(binDir, "pg_ctl", [
-        "-D",
-        dataDir,
-        "-l",
-        logFile,
-        "-w",
-        "-t",
-        "60",
-        "-o",
-        settings,
-        "start",
-      ]);
+      // PostgreSQL runs in the foreground as a child of this process (not daemonised by pg_ctl),
+      // so that when it ends it is reaped here — a killed postmaster left as a zombie would
+      // otherwise keep its lock file "in use" and stop it from starting again.
+      const log = openSync(logFile, "a");
+      const postgres = path.join(binDir, "postgres");
+      const args = ["-D", dataDir, ...settings];
+      const child = isRoot
+        ? spawn("runuser", ["-u", "postgres", "--", postgres, ...args], {
+            cwd: "/",
+            detached: true,
+            stdio: ["ignore", log, log],
+          })
+        : spawn(postgres, args, { detached: true, stdio: ["ignore", log, log] });
+      closeSync(log);
+      child.unref();
+      let exited: string | null = null;
+      child.once("exit", (code, signal) => {
+        exited = signal ? `signal ${signal}` : `exit ${code}`;
+      });
+      child.once("error", (error) => {
+        exited = error.message;
+      });
+      const deadline = Date.now() + 60_000;
+      for (;;) {
+        const entry = readPidFile();
+        if (entry?.status === "ready" && processAlive(entry.pid)) return;
+        if (exited !== null || Date.now() > deadline) {
+          const tail = readFileSync(logFile, "utf8").trim().split("\n").slice(-5).join("\n");
+          throw new Error(
+            `PostgreSQL did not start (${exited ?? "not ready within 60 s"}). From ${logFile}:\n${tail}`,
+          );
+        }
+        await new Promise((resolve) => setTimeout(resolve, 50));
+      }
     },
     createDatabase(name, template) {
       const exists = pg(binDir, "psql", [

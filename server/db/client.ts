@@ -17,8 +17,63 @@ export interface DatabaseHandle {
   close: () => Promise<void>;
 }
 
-export function connectDatabase(url: string, options: { max?: number } = {}): DatabaseHandle {
-  const pool = new pg.Pool({ connectionString: url, max: options.max ?? 10 });
+/** What the pool reports about the connection to PostgreSQL (a pino logger fits). */
+export interface DatabaseLog {
+  warn: (details: object, message: string) => void;
+  info: (details: object, message: string) => void;
+}
+
+const consoleLog: DatabaseLog = {
+  warn: (details, message) => console.warn(message, details),
+  info: () => undefined,
+};
+
+export interface ConnectOptions {
+  max?: number;
+  logger?: DatabaseLog;
+  /** How long a request waits for a connection before it is answered 503. */
+  connectionTimeoutMs?: number;
+}
+
+/**
+ * The pool every part of the server shares (routes, sessions, sign-in counters, the e-mail
+ * worker, the notice scheduler). A connection that PostgreSQL drops — restart, crash, network —
+ * is logged once and discarded; the pool opens new ones when asked, so the process outlives the
+ * database and carries on by itself when it returns. Meanwhile queries fail at once (connection
+ * refused) or after `connectionTimeoutMs`, and the error handler answers 503.
+ */
+export function connectDatabase(url: string, options: ConnectOptions = {}): DatabaseHandle {
+  const log = options.logger ?? consoleLog;
+  const pool = new pg.Pool({
+    connectionString: url,
+    max: options.max ?? 10,
+    connectionTimeoutMillis: options.connectionTimeoutMs ?? 5_000,
+    // Notices a peer that vanished without closing (a host or network gone), not only a closed socket.
+    keepAlive: true,
+    keepAliveInitialDelayMillis: 10_000,
+  });
+
+  let lost = false;
+  const connectionLost = (err: Error) => {
+    if (lost) return;
+    lost = true;
+    log.warn(
+      { err: { message: err.message, code: (err as { code?: string }).code } },
+      "PostgreSQL connection lost; requests answer 503 until it is back",
+    );
+  };
+  // An idle client's error reaches the pool; without a listener Node would end the process.
+  pool.on("error", connectionLost);
+  pool.on("connect", (client) => {
+    // A client in use (inside a transaction, between two queries) emits its error itself: its
+    // query fails with the error, and this listener keeps the event from ending the process.
+    client.on("error", connectionLost);
+    if (lost) {
+      lost = false;
+      log.info({}, "PostgreSQL is reachable again");
+    }
+  });
+
   const db = drizzle(pool, { schema });
   return { db, pool, close: () => pool.end() };
 }

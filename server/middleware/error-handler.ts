@@ -46,6 +46,8 @@ export const errorHandler: ErrorRequestHandler = (err, req, res, _next) => {
   const error =
     known ?? new AppError("internal", 500, "Something went wrong on our side. Try again.");
   if (!known) req.log.error({ err }, "unhandled error");
+  // A lost database is logged once by the pool; each refused request is only a warning.
+  else if (error.status === 503) req.log.warn({ code: error.code }, error.message);
   else if (error.status >= 500) req.log.error({ err }, error.message);
 
   if (error.retryAfterSeconds) res.set("Retry-After", String(error.retryAfterSeconds));

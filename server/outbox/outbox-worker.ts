@@ -3,6 +3,7 @@ import { randomUUID } from "node:crypto";
 import type { Logger } from "pino";
 
 import type { Database } from "../db/client";
+import { isDatabaseUnavailable } from "../lib/database-errors";
 import type { Mailer } from "../lib/mailer";
 import { claimNext, markForRetry, markInterrupted, markSent } from "./outbox.repository";
 
@@ -67,12 +68,22 @@ export function createOutboxWorker(options: OutboxWorkerOptions) {
     }
   }
 
+  let databaseAway = false;
+
   async function run() {
     while (running) {
       try {
         await drain();
+        if (databaseAway) options.logger.info("database is back; e-mail sending resumes");
+        databaseAway = false;
       } catch (error) {
-        options.logger.error({ err: error }, "outbox round failed");
+        // While PostgreSQL is away every round fails the same way: say so once, keep polling.
+        if (!isDatabaseUnavailable(error)) {
+          options.logger.error({ err: error }, "outbox round failed");
+        } else if (!databaseAway) {
+          databaseAway = true;
+          options.logger.warn("database unreachable; e-mail waits in the outbox until it is back");
+        }
       }
       if (!running) break;
       await new Promise<void>((resolve) => {

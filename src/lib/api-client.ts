@@ -9,6 +9,8 @@ export interface ApiErrorInit {
   code: ApiErrorCode | ClientErrorCode | (string & {});
   message: string;
   fields?: Record<string, string>;
+  /** From the Retry-After header: how long the server asks callers to wait (503, 429). */
+  retryAfterSeconds?: number;
 }
 
 /** Every failed API call surfaces as this one type, parsed from the error envelope. */
@@ -17,12 +19,14 @@ export class ApiError extends Error {
   readonly status: number;
   readonly code: ApiErrorInit["code"];
   readonly fields: Readonly<Record<string, string>>;
+  readonly retryAfterSeconds: number | null;
 
-  constructor({ status, code, message, fields }: ApiErrorInit) {
+  constructor({ status, code, message, fields, retryAfterSeconds }: ApiErrorInit) {
     super(message);
     this.status = status;
     this.code = code;
     this.fields = fields ?? {};
+    this.retryAfterSeconds = retryAfterSeconds ?? null;
   }
 
   /** The server's message for a body field; it may name the field plainly or as `body.<name>`. */
@@ -55,7 +59,22 @@ const fallbackMessages: Record<number, string> = {
   413: "The file is too large to upload.",
   415: "That kind of file cannot be uploaded.",
   429: "Too many attempts. Please wait a moment and try again.",
+  502: "Lintel is not answering just now. Nothing you sent was lost; try again in a moment.",
+  503: "Lintel is not answering just now. Nothing you sent was lost; try again in a moment.",
+  504: "Lintel is not answering just now. Nothing you sent was lost; try again in a moment.",
 };
+
+/** Whether the failure is the server (or its database) being away for a while, not a refusal. */
+export function isTemporarilyUnavailable(error: unknown): error is ApiError {
+  return (
+    isApiError(error) && (error.status === 502 || error.status === 503 || error.status === 504)
+  );
+}
+
+function retryAfterOf(response: Response): number | undefined {
+  const seconds = Number(response.headers.get("Retry-After"));
+  return Number.isFinite(seconds) && seconds > 0 ? seconds : undefined;
+}
 
 async function readJson(response: Response): Promise<unknown> {
   const text = await response.text();
@@ -69,11 +88,13 @@ async function readJson(response: Response): Promise<unknown> {
 
 function errorFromReply(response: Response, body: unknown): ApiError {
   const envelope = apiErrorEnvelopeSchema.safeParse(body);
+  const retryAfterSeconds = retryAfterOf(response);
   if (envelope.success) {
-    return new ApiError({ status: response.status, ...envelope.data.error });
+    return new ApiError({ status: response.status, ...envelope.data.error, retryAfterSeconds });
   }
   return new ApiError({
     status: response.status,
+    retryAfterSeconds,
     code: response.status >= 500 ? "internal" : "unexpected_response",
     message:
       fallbackMessages[response.status] ??

@@ -1,7 +1,7 @@
 import { meResponseSchema } from "@shared/schemas/auth";
 import { afterEach, describe, expect, it, vi } from "vitest";
 
-import { ApiError, apiRequest } from "@/lib/api-client";
+import { ApiError, apiRequest, isTemporarilyUnavailable } from "@/lib/api-client";
 
 import { auditor, errorResponse, jsonResponse } from "./support/api-stub";
 
@@ -52,6 +52,39 @@ describe("apiRequest", () => {
       status: 502,
       code: "internal",
     });
+  });
+
+  it("when the server's database is away (503 with Retry-After), then the ApiError carries its words and how long to wait", async () => {
+    vi.stubGlobal("fetch", () => {
+      const reply = errorResponse(
+        503,
+        "unavailable",
+        "Lintel cannot reach its database just now. Nothing you sent was lost; try again in a moment.",
+      );
+      reply.headers.set("Retry-After", "5");
+      return Promise.resolve(reply);
+    });
+
+    const failure = (await apiRequest("/api/sites").catch((error: unknown) => error)) as ApiError;
+
+    expect(failure).toBeInstanceOf(ApiError);
+    expect(failure).toMatchObject({ status: 503, code: "unavailable", retryAfterSeconds: 5 });
+    expect(failure.message).toMatch(/^Lintel cannot reach its database just now\./);
+    expect(isTemporarilyUnavailable(failure)).toBe(true);
+  });
+
+  it("when a 503 arrives without the envelope (from a proxy in front), then the message says Lintel is not answering and nothing was lost", async () => {
+    vi.stubGlobal("fetch", () =>
+      Promise.resolve(new Response("<html>Service Unavailable</html>", { status: 503 })),
+    );
+
+    const failure = (await apiRequest("/api/sites").catch((error: unknown) => error)) as ApiError;
+
+    expect(failure.message).toBe(
+      "Lintel is not answering just now. Nothing you sent was lost; try again in a moment.",
+    );
+    expect(failure.retryAfterSeconds).toBeNull();
+    expect(isTemporarilyUnavailable(failure)).toBe(true);
   });
 
   it("when the network is down, then it throws an ApiError with status 0", async () => {

@@ -2,6 +2,7 @@ import "fake-indexeddb/auto";
 
 import { afterEach, beforeEach, describe, expect, it } from "vitest";
 
+import { describeSync } from "@/features/walkthroughs/components/sync-status";
 import { emptyAnswer } from "@/features/walkthroughs/lib/answer-rules";
 import { type AuditStore, openAuditStore } from "@/features/walkthroughs/lib/offline-store";
 import {
@@ -375,6 +376,48 @@ describe("the sync schedule", () => {
 
     await expect.poll(() => server.audits.size, { timeout: 2000 }).toBe(1);
     await expect.poll(() => sync.status().waiting).toBe(0);
+    sync.stop();
+  });
+
+  it("when the server answers 503 because its database is away, then the changes stay on the phone, the status says so in words, and they go once it answers again", async () => {
+    const items = doffingItems();
+    const server = new FakeLintel(items);
+    let databaseAway = true;
+    server.before = () => {
+      if (databaseAway) {
+        throw new ApiError({
+          status: 503,
+          code: "unavailable",
+          message: "Lintel cannot reach its database just now.",
+          retryAfterSeconds: 0.05,
+        });
+      }
+    };
+    const sync = createSyncScheduler({
+      store,
+      transport: server,
+      isOnline: () => true,
+      retryDelaysMs: [20],
+      pollMs: 20,
+    });
+    const audit = await startDraft();
+    await store.saveAnswer(audit.auditId, items[0]!.id, { ...emptyAnswer, outcome: "pass" }, at(1));
+    await sync.kick();
+
+    expect(server.audits.size).toBe(0);
+    await expect.poll(() => sync.status()).toMatchObject({ waiting: 2, held: 0, away: "database" });
+    expect(describeSync(sync.status()).text).toBe(
+      "Lintel cannot reach its database — 2 changes kept on this phone, sent when it is back",
+    );
+    expect(await store.countChanges()).toEqual({ waiting: 2, held: 0 });
+
+    databaseAway = false;
+
+    await expect
+      .poll(() => sync.status(), { timeout: 2000 })
+      .toMatchObject({ waiting: 0, away: null });
+    expect(server.answers.get(`${audit.auditId}/${items[0]!.id}`)?.outcome).toBe("pass");
+    expect(describeSync(sync.status()).text).toBe("All changes saved");
     sync.stop();
   });
 });

@@ -26,15 +26,9 @@ export function createTestApp(
   options: { mailCatcherDir?: string } = {},
 ): TestApp {
   const env = testEnv(overrides);
-  const database = connectDatabase(env.DATABASE_URL, { max: 4 });
-  const deps = buildDeps(
-    env,
-    database,
-    createLogger(env.LOG_LEVEL),
-    createStorage(env),
-    notifyOutbox,
-    options,
-  );
+  const logger = createLogger(env.LOG_LEVEL);
+  const database = connectDatabase(env.DATABASE_URL, { max: 4, logger });
+  const deps = buildDeps(env, database, logger, createStorage(env), notifyOutbox, options);
   return { app: createApp(deps), deps, database };
 }
 

@@ -4,6 +4,7 @@ import { dueSoonApplies, reminderNumber } from "@shared/calc/due";
 
 import type { Database } from "../../db/client";
 import type { Env } from "../../env";
+import { isDatabaseUnavailable } from "../../lib/database-errors";
 import { enqueueMail, type NewMail } from "../../outbox/outbox.repository";
 import * as mails from "./actions.emails";
 import * as repo from "./actions.repository";
@@ -69,11 +70,21 @@ export function createActionScheduler(options: ActionSchedulerOptions) {
     return queued;
   }
 
+  let databaseAway = false;
+
   async function safeTick() {
     try {
-      return await tick();
+      const queued = await tick();
+      databaseAway = false;
+      return queued;
     } catch (error) {
-      options.logger.error({ err: error }, "action notice round failed");
+      // A round missed while PostgreSQL is away is caught up by the next one.
+      if (!isDatabaseUnavailable(error)) {
+        options.logger.error({ err: error }, "action notice round failed");
+      } else if (!databaseAway) {
+        databaseAway = true;
+        options.logger.warn("database unreachable; action notices wait until it is back");
+      }
       return 0;
     }
   }

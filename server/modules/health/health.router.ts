@@ -1,6 +1,7 @@
 import { sql } from "drizzle-orm";
 
 import { AppError } from "../../lib/app-error";
+import { appErrorFromDatabase, databaseRetryAfterSeconds } from "../../lib/database-errors";
 import { defineRoute } from "../../lib/routes";
 
 export const healthRoutes = [
@@ -12,8 +13,13 @@ export const healthRoutes = [
     async handle({ res, deps }) {
       try {
         await deps.db.execute(sql`select 1`);
-      } catch {
-        throw new AppError("unavailable", 503, "The database is not answering.");
+      } catch (error) {
+        throw (
+          appErrorFromDatabase(error) ??
+          new AppError("unavailable", 503, "The database is not answering.", {
+            retryAfterSeconds: databaseRetryAfterSeconds,
+          })
+        );
       }
       res.set("Cache-Control", "no-store").json({ status: "ok" });
     },

@@ -4,7 +4,7 @@ import { StandaloneLayout } from "@/components/layouts/standalone-layout";
 import { Button, buttonStyles } from "@/components/ui/button";
 import { Card } from "@/components/ui/card";
 import { paths } from "@/config/paths";
-import { isApiError } from "@/lib/api-client";
+import { isApiError, isTemporarilyUnavailable } from "@/lib/api-client";
 
 function describe(error: unknown): { title: string; detail: string } {
   if (isRouteErrorResponse(error) && error.status === 404) {
@@ -12,6 +12,9 @@ function describe(error: unknown): { title: string; detail: string } {
       title: "Page not found",
       detail: "There is nothing at this address. It may have been mistyped, or the page has moved.",
     };
+  }
+  if (isTemporarilyUnavailable(error)) {
+    return { title: "Lintel is unavailable for a moment", detail: error.message };
   }
   if (isApiError(error)) return { title: "Something went wrong", detail: error.message };
   return {

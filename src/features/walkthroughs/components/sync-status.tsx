@@ -5,13 +5,21 @@ import type { SyncStatus } from "../lib/sync-queue";
 
 type Tone = "saved" | "waiting" | "offline" | "problem";
 
-function describeSync(status: SyncStatus): { text: string; tone: Tone } {
+export function describeSync(status: SyncStatus): { text: string; tone: Tone } {
   const changes = (count: number) => `${count} ${count === 1 ? "change" : "changes"}`;
   if (!status.online) return { text: "Offline — changes are kept on this phone", tone: "offline" };
   if (status.signedOut && status.waiting > 0) {
     return {
       text: `Signed out — ${changes(status.waiting)} kept on this phone until you sign in again`,
       tone: "problem",
+    };
+  }
+  if (status.waiting > 0 && status.away) {
+    const who =
+      status.away === "database" ? "Lintel cannot reach its database" : "Lintel is not answering";
+    return {
+      text: `${who} — ${changes(status.waiting)} kept on this phone, sent when it is back`,
+      tone: "offline",
     };
   }
   if (status.waiting > 0) {

@@ -1,6 +1,6 @@
 import type { Answer, AnswerBody, AuditDetail } from "@shared/schemas/audits";
 
-import { isApiError } from "@/lib/api-client";
+import { isApiError, isTemporarilyUnavailable } from "@/lib/api-client";
 
 import type {
   AuditStore,
@@ -44,12 +44,25 @@ export function orderForSending(changes: readonly QueuedChange[]): QueuedChange[
 
 export type SyncRun =
   | { kind: "done"; sent: number }
-  /** No connection, or the server failed: try again later. */
-  | { kind: "retry"; sent: number }
+  /** No connection, or the server failed: try again later (not before `retryAfterMs`). */
+  | { kind: "retry"; sent: number; away?: ServerAway; retryAfterMs?: number }
   /** The session has ended; the changes wait for the person to sign in again. */
   | { kind: "signed-out"; sent: number };
 
 type Failure = "retry" | "signed-out" | "refused";
+
+/** Who is away when the server answers "not now": its database (503 unavailable) or the server. */
+export type ServerAway = "database" | "server";
+
+function retryOf(error: unknown, sent: number): SyncRun {
+  if (!isTemporarilyUnavailable(error)) return { kind: "retry", sent };
+  return {
+    kind: "retry",
+    sent,
+    away: error.code === "unavailable" ? "database" : "server",
+    ...(error.retryAfterSeconds ? { retryAfterMs: error.retryAfterSeconds * 1000 } : {}),
+  };
+}
 
 function classify(error: unknown): Failure {
   if (!isApiError(error)) return "retry";
@@ -157,7 +170,8 @@ export async function syncOnce(store: AuditStore, transport: SyncTransport): Pro
       await send(store, transport, change);
     } catch (error) {
       const failure = classify(error);
-      if (failure !== "refused") return { kind: failure, sent };
+      if (failure === "retry") return retryOf(error, sent);
+      if (failure === "signed-out") return { kind: failure, sent };
       const refusals = isApiError(error) ? itemRefusals(error.fields) : {};
       if (change.kind === "submit" && Object.keys(refusals).length > 0) {
         await store.recordSubmitRefused(change.auditId, refusals, new Date());
@@ -178,6 +192,8 @@ export interface SyncStatus extends ChangeCounts {
   online: boolean;
   syncing: boolean;
   signedOut: boolean;
+  /** The last try found Lintel (or its database) away: changes wait on the phone meanwhile. */
+  away: ServerAway | null;
 }
 
 export interface SyncScheduler {
@@ -219,6 +235,7 @@ export function createSyncScheduler({
     online: isOnline(),
     syncing: false,
     signedOut: false,
+    away: null,
   };
   let running: Promise<void> | null = null;
   let again = false;
@@ -258,12 +275,16 @@ export function createSyncScheduler({
     publish({
       syncing: false,
       signedOut: last ? last.kind === "signed-out" : current.signedOut,
+      away: last ? (last.kind === "retry" ? (last.away ?? null) : null) : current.away,
     });
     await refreshCounts();
     if (stopped || current.waiting === 0) return;
     if (last?.kind === "signed-out") later(signedOutRetryMs);
     else if (failures > 0) {
-      later(retryDelaysMs[Math.min(failures, retryDelaysMs.length) - 1] ?? pollMs);
+      const backoff = retryDelaysMs[Math.min(failures, retryDelaysMs.length) - 1] ?? pollMs;
+      // The server said how long to wait (Retry-After): not sooner.
+      const asked = last?.kind === "retry" ? (last.retryAfterMs ?? 0) : 0;
+      later(Math.max(backoff, asked));
     } else later(pollMs);
   }
 
