@@ -11,6 +11,7 @@ import {
   checklistVersions,
   correctiveActions,
   fixtures,
+  outbox,
   users,
 } from "../../server/db/schema/index";
 import { storeImage } from "../../server/lib/images";
@@ -89,6 +90,8 @@ export interface World {
       zoneType: "anteroom" | "donning_zone" | "isolation_room" | "doffing_area",
     ) => Promise<void>;
     jpeg: () => Promise<Buffer>;
+    /** An e-mail to a person of the network that a crash left neither sent nor failed. */
+    uncertainMail: () => Promise<string>;
     cookie: (caller: CallerName) => Promise<string>;
   };
 }
@@ -275,6 +278,21 @@ export async function seedWorld(app: TestApp): Promise<World> {
         );
       },
       jpeg,
+      async uncertainMail() {
+        const person = await freshPerson();
+        const [row] = await db
+          .insert(outbox)
+          .values({
+            topic: "action_assigned",
+            recipient: person.email,
+            subject: "A corrective action is yours",
+            textBody: "Open Lintel to see it.",
+            status: "uncertain",
+            attempts: 1,
+          })
+          .returning({ id: outbox.id });
+        return row!.id;
+      },
       cookie,
     },
   };

@@ -100,6 +100,10 @@ export const examples: Record<string, RouteExample> = {
       },
     }),
   },
+  "POST /mail/:mailId/resend": {
+    as: "administrator (network)",
+    control: async (w) => ({ params: { mailId: await w.fresh.uncertainMail() }, body: {} }),
+  },
   "POST /people/invitations": {
     control: (w) => ({
       body: {
