@@ -49,12 +49,12 @@ export function Navigation({ items, className }: NavigationProps) {
         {visible.map((item) => {
           const current = isCurrent(item, pathname);
           return (
-            <li key={item.to} className="flex-1 md:flex-none">
+            <li key={item.to} className="min-w-0 flex-1 md:flex-none">
               <Link
                 to={item.to}
                 aria-current={current ? "page" : undefined}
                 className={cn(
-                  "flex min-h-16 flex-col items-center justify-center gap-1 border-t-4 px-2 text-sm font-semibold transition-colors",
+                  "flex min-h-16 flex-col items-center justify-center gap-1 border-t-4 px-0.5 text-center text-xs leading-tight font-semibold break-words transition-colors min-[420px]:px-2 min-[420px]:text-sm",
                   "md:min-h-tap md:flex-row md:justify-start md:gap-3 md:rounded-lg md:border-t-0 md:px-3 md:py-2 md:text-base",
                   current
                     ? "border-brand-700 bg-brand-50 text-brand-800"
@@ -64,7 +64,7 @@ export function Navigation({ items, className }: NavigationProps) {
                 <span aria-hidden="true" className="size-6">
                   {item.icon}
                 </span>
-                {item.label}
+                <span className="max-w-full">{item.label}</span>
               </Link>
             </li>
           );
