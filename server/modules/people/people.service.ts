@@ -128,6 +128,10 @@ export async function invite(
         : "This address already has a Lintel account. Find the person in the list to give them a role.";
       throw new AppError("conflict", 409, message, { fields: { email: message } });
     }
+    if (existing) {
+      const [held] = await repo.listPeople(tx, auth.user.networkId, null, existing.id);
+      assertWhollyWithinReach(auth, held!.grants, "email");
+    }
     const id =
       existing?.id ??
       (await repo.insertUser(tx, {
@@ -176,6 +180,7 @@ export async function resendInvitation(
   actor: Actor,
 ): Promise<Person> {
   const person = await requirePerson(deps, auth, userId);
+  assertWhollyWithinReach(auth, person.grants);
   if (person.status !== "invited") {
     throw new AppError(
       "conflict",
@@ -262,7 +267,18 @@ export async function takeRole(
   return personAfterChange(deps, auth, userId);
 }
 
-/** The caller must manage every role the person holds: a site administrator cannot switch off someone wider. */
+/**
+ * The one rule for reaching a person: the caller must administer every role they hold, so a site
+ * administrator cannot switch off, rename, re-invite or re-link someone wider than themself.
+ * Together with `assertGrantable` (every role asked for) it is "never beyond your own reach".
+ */
+function assertWhollyWithinReach(auth: SignedIn, held: readonly RoleGrant[], field?: string) {
+  if (held.every((grant) => canGrant(auth.grants, grant))) return;
+  const message =
+    "This person also holds roles you do not administer. Ask a network administrator.";
+  throw new AppError("forbidden", 403, message, field ? { fields: { [field]: message } } : {});
+}
+
 async function requireWhollyManaged(
   deps: AppDeps,
   auth: SignedIn,
@@ -271,13 +287,7 @@ async function requireWhollyManaged(
   if (userId === auth.user.id)
     throw new AppError("bad_request", 400, "You cannot deactivate or reactivate yourself.");
   const person = await requirePerson(deps, auth, userId);
-  if (!person.grants.every((grant) => canGrant(auth.grants, grant))) {
-    throw new AppError(
-      "forbidden",
-      403,
-      "This person also holds roles you do not administer. Ask a network administrator.",
-    );
-  }
+  assertWhollyWithinReach(auth, person.grants);
   return person;
 }
 
