@@ -2,9 +2,10 @@ import { and, eq, isNull } from "drizzle-orm";
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
 
 import { changeLog, outbox, roleGrants, userTokens, users } from "../../server/db/schema/index";
-import { insertNetwork, insertSite } from "../factories/records";
+import { insertGrant, insertNetwork, insertSite, insertUser } from "../factories/records";
 import { api } from "../helpers/app";
 import { signInAs, type SignedInPerson } from "../helpers/auth";
+import { issueTestLink } from "../helpers/links";
 import { createMailTestApp, type MailTestApp } from "../helpers/mail";
 
 describe("invitations", () => {
@@ -135,7 +136,7 @@ describe("invitations", () => {
       );
       const statuses = responses.map((response) => response.status);
       expect(statuses.filter((status) => status >= 500)).toEqual([]);
-      expect(statuses.filter((status) => status === 201).length).toBeGreaterThanOrEqual(1);
+      expect(statuses.filter((status) => status === 201)).toHaveLength(1);
       expect(statuses.every((status) => status === 201 || status === 409)).toBe(true);
       for (const response of responses.filter((r) => r.status === 409)) {
         expect(response.body.error.code).toBe("conflict");
@@ -150,6 +151,147 @@ describe("invitations", () => {
         .from(userTokens)
         .where(and(eq(userTokens.userId, people[0]!.id), isNull(userTokens.revokedAt)));
       expect(open).toHaveLength(1);
+    });
+  });
+
+  describe("an address that has an account in another network", () => {
+    /** The answer with what differs between any two invitations (ids, addresses, times) masked. */
+    const shapeOf = (response: { status: number; body: Record<string, unknown> }) => ({
+      status: response.status,
+      body: JSON.parse(
+        JSON.stringify(response.body, (key, value: unknown) =>
+          ["id", "email", "createdAt", "invitationExpiresAt"].includes(key) && value !== null
+            ? typeof value
+            : value,
+        ),
+      ) as unknown,
+    });
+
+    async function otherNetworkWithAccount(email: string) {
+      const { db } = mail.deps;
+      const otherNetwork = (await insertNetwork(db)).id;
+      const otherSite = (await insertSite(db, otherNetwork)).id;
+      const holder = await insertUser(db, otherNetwork, {
+        email,
+        displayName: "Leontine Garvey",
+        password: "the holder's own passphrase",
+      });
+      await insertGrant(db, holder.id, "auditor", otherSite);
+      const otherAdmin = await signInAs(otherNetwork, [{ role: "administrator", siteId: null }], {
+        app: mail,
+      });
+      return { holder, otherAdmin };
+    }
+
+    it("when an administrator invites it, then the answer and the people list look exactly as for a new address, and the other network and its account are untouched", async () => {
+      const known = "leontine.garvey@example.org";
+      const { holder, otherAdmin } = await otherNetworkWithAccount(known);
+      const { db } = mail.deps;
+      const holderBefore = await db.select().from(users).where(eq(users.id, holder.id));
+      const otherPeopleBefore = (await as(otherAdmin).get("/api/people")).body;
+
+      const grants = [{ role: "auditor", siteId: siteA }];
+      const fresh = await invite(admin, "brand.new.address@example.org", "Leontine Garvey", grants);
+      const taken = await invite(admin, known, "Leontine Garvey", grants);
+      expect(fresh.status).toBe(201);
+      expect(shapeOf(taken)).toEqual(shapeOf(fresh));
+      expect(taken.body.person.email).toBe(known);
+
+      // The inviting network sees an ordinary pending invitation, in the list and on its page.
+      const list = (await as(admin).get("/api/people")).body.people as { email: string }[];
+      const listed = (email: string) => list.find((person) => person.email === email)!;
+      expect(shapeOf({ status: 200, body: listed(known) })).toEqual(
+        shapeOf({ status: 200, body: listed("brand.new.address@example.org") }),
+      );
+      const page = await as(admin).get(`/api/people/${taken.body.person.id}`);
+      expect(shapeOf(page)).toEqual(shapeOf({ status: 200, body: { person: fresh.body.person } }));
+
+      // The other network is told nothing and its account does not change.
+      expect(await db.select().from(users).where(eq(users.id, holder.id))).toEqual(holderBefore);
+      expect((await as(otherAdmin).get("/api/people")).body).toEqual(otherPeopleBefore);
+      expect(
+        await db.select().from(userTokens).where(eq(userTokens.userId, holder.id)),
+      ).toHaveLength(0);
+      expect(
+        await db.select().from(changeLog).where(eq(changeLog.entityId, holder.id)),
+      ).toHaveLength(0);
+
+      // The address holder is told, without any link that would join the other network.
+      const [notice, ...more] = await db.select().from(outbox).where(eq(outbox.recipient, known));
+      expect(more).toHaveLength(0);
+      expect(notice!.subject).toBe("An invitation to another Lintel network");
+      expect(notice!.textBody).toContain("tied to one network");
+      expect(notice!.textBody).not.toMatch(/welcome/);
+
+      // The holder still signs in to their own network, and a reset link is for that account.
+      const signIn = await api(mail.app)
+        .post("/api/auth/sign-in")
+        .send({ email: known, password: "the holder's own passphrase" });
+      expect(signIn.status).toBe(200);
+      expect(signIn.body.user.id).toBe(holder.id);
+      expect(
+        (await api(mail.app).post("/api/auth/password-reset").send({ email: known })).status,
+      ).toBeLessThan(300);
+      const resetLinks = await db
+        .select({ userId: userTokens.userId })
+        .from(userTokens)
+        .where(eq(userTokens.purpose, "password_reset"))
+        .innerJoin(users, eq(users.id, userTokens.userId));
+      expect(resetLinks.map((row) => row.userId)).toContain(holder.id);
+      expect(resetLinks.map((row) => row.userId)).not.toContain(taken.body.person.id);
+    });
+
+    it("when the inviting network asks for a new link, then the holder is told again, and no link ever lets them join that network", async () => {
+      const known = "hollis.marrow@example.org";
+      await otherNetworkWithAccount(known);
+      const taken = await invite(admin, known, "Hollis Marrow", [
+        { role: "auditor", siteId: siteA },
+      ]);
+      const placeholder = taken.body.person.id as string;
+      const resend = await as(admin).post(`/api/people/${placeholder}/invitation`).send({});
+      expect(resend.status).toBe(200);
+      expect(resend.body.person.status).toBe("invited");
+      const notices = await mail.deps.db.select().from(outbox).where(eq(outbox.recipient, known));
+      expect(notices.map((row) => row.subject)).toEqual([
+        "An invitation to another Lintel network",
+        "An invitation to another Lintel network",
+      ]);
+
+      const token = await issueTestLink(placeholder, "invitation", mail);
+      expect((await api(mail.app).get(`/api/invitations/${token}`)).status).toBe(410);
+      const accept = await api(mail.app)
+        .post(`/api/invitations/${token}/accept`)
+        .send({ password: "trying to join a second network" });
+      expect(accept.status).toBe(410);
+      const [row] = await mail.deps.db.select().from(users).where(eq(users.id, placeholder));
+      expect(row!.passwordHash).toBeNull();
+    });
+
+    it("when new and known addresses are invited in turn, then both answers take about as long", async () => {
+      const { db } = mail.deps;
+      const otherNetwork = (await insertNetwork(db)).id;
+      const rounds = 9;
+      for (let round = 0; round < rounds; round += 1) {
+        await insertUser(db, otherNetwork, { email: `timed.known.${round}@example.org` });
+      }
+      const timed = async (email: string) => {
+        const started = performance.now();
+        const response = await invite(admin, email, "Timed Person", [
+          { role: "auditor", siteId: siteA },
+        ]);
+        expect(response.status).toBe(201);
+        return performance.now() - started;
+      };
+      const fresh: number[] = [];
+      const known: number[] = [];
+      for (let round = 0; round < rounds; round += 1) {
+        fresh.push(await timed(`timed.fresh.${round}@example.org`));
+        known.push(await timed(`timed.known.${round}@example.org`));
+      }
+      const median = (values: number[]) => [...values].sort((a, b) => a - b)[values.length >> 1]!;
+      const ratio = median(known) / median(fresh);
+      expect(ratio).toBeGreaterThan(1 / 3);
+      expect(ratio).toBeLessThan(3);
     });
   });
 });
