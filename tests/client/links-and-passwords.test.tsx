@@ -249,6 +249,7 @@ describe("account", () => {
     await user.click(screen.getByRole("button", { name: "Change password" }));
 
     const alert = await screen.findByRole("alert");
+    expect(alert.textContent).toContain("Password change paused");
     expect(alert.textContent).toContain("Too many wrong passwords");
     expect(alert.textContent).toContain("try again in 15 minute(s)");
     expect(alert.textContent).toContain("Your password has not changed.");

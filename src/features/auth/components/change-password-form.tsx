@@ -65,7 +65,7 @@ export function ChangePasswordForm({ email }: ChangePasswordFormProps) {
         <Alert
           role="alert"
           tone="error"
-          title={paused ? "Too many wrong passwords" : "Could not change your password"}
+          title={paused ? "Password change paused" : "Could not change your password"}
         >
           {formMessage}
           {paused ? " Your password has not changed." : null}
