@@ -11,10 +11,14 @@ export interface SignInLimits {
 
 export type SignInLimiter = ReturnType<typeof createSignInLimiter>;
 
+/** Where a password is being tried: both guess the same secret, so they share one budget. */
+export type PasswordAttempt = "sign-in" | "password-change";
+
 /**
- * Counts failed sign-ins per account and per client address in PostgreSQL, so every app process
- * behind a load balancer shares the same counters. Past either limit, sign-in answers 429 until
- * the window ends, even with the right password.
+ * Counts failed password attempts (sign-in, and the current password when changing it) per
+ * account and per client address in PostgreSQL, so every app process behind a load balancer
+ * shares the same counters. Past either limit, the attempt answers 429 until the window ends,
+ * even with the right password.
  */
 export function createSignInLimiter(pool: pg.Pool, limits: SignInLimits) {
   const duration = limits.windowMinutes * 60;
@@ -40,22 +44,30 @@ export function createSignInLimiter(pool: pg.Pool, limits: SignInLimits) {
   const blocked = (res: RateLimiterRes | null, points: number) =>
     res !== null && res.consumedPoints >= points ? Math.ceil(res.msBeforeNext / 1000) : 0;
 
-  const tooMany = (seconds: number) =>
-    new AppError(
+  const tooMany = (seconds: number, attempt: PasswordAttempt) => {
+    const minutes = `${Math.max(1, Math.ceil(seconds / 60))} minute(s)`;
+    return new AppError(
       "rate_limited",
       429,
-      `Too many failed sign-ins. Try again in ${Math.max(1, Math.ceil(seconds / 60))} minute(s).`,
+      attempt === "sign-in"
+        ? `Too many failed sign-ins. Try again in ${minutes}.`
+        : `Too many wrong passwords. For your safety, try again in ${minutes}.`,
       { retryAfterSeconds: seconds },
     );
+  };
 
   return {
-    async assertAllowed(email: string, address: string): Promise<void> {
+    async assertAllowed(
+      email: string,
+      address: string,
+      attempt: PasswordAttempt = "sign-in",
+    ): Promise<void> {
       const [account, client] = await Promise.all([byAccount.get(email), byAddress.get(address)]);
       const wait = Math.max(
         blocked(account, limits.perAccount),
         blocked(client, limits.perAddress),
       );
-      if (wait > 0) throw tooMany(wait);
+      if (wait > 0) throw tooMany(wait, attempt);
     },
 
     async recordFailure(email: string, address: string): Promise<void> {

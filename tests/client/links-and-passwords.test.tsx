@@ -231,6 +231,30 @@ describe("account", () => {
     );
   });
 
+  it("when too many current passwords were wrong, then the form says so, how long to wait, and that nothing changed", async () => {
+    stubApi({
+      ...signedIn,
+      "POST /api/auth/me/password": () =>
+        errorResponse(
+          429,
+          "rate_limited",
+          "Too many wrong passwords. For your safety, try again in 15 minute(s).",
+        ),
+    });
+    const { user } = renderApp("/account");
+
+    await user.type(await screen.findByLabelText("Current password"), "correct horse battery");
+    await user.type(screen.getByLabelText("New password"), goodPassword);
+    await user.type(screen.getByLabelText("Repeat new password"), goodPassword);
+    await user.click(screen.getByRole("button", { name: "Change password" }));
+
+    const alert = await screen.findByRole("alert");
+    expect(alert.textContent).toContain("Password change paused");
+    expect(alert.textContent).toContain("Too many wrong passwords");
+    expect(alert.textContent).toContain("try again in 15 minute(s)");
+    expect(alert.textContent).toContain("Your password has not changed.");
+  });
+
   it("when the password is changed, then the page says other devices were signed out", async () => {
     const { calls } = stubApi({
       ...signedIn,

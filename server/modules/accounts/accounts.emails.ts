@@ -30,6 +30,34 @@ export function invitationMail(input: {
   };
 }
 
+/**
+ * To the holder of an address that another network tried to invite: accounts belong to one
+ * network, so the invitation cannot be taken up. The inviting network is never told.
+ */
+export function invitationElsewhereMail(input: {
+  to: string;
+  inviterName: string;
+  networkName: string;
+  roles: string[];
+  signInLink: string;
+}): NewMail {
+  const subject = "An invitation to another Lintel network";
+  const lines = [
+    "Hello,",
+    `${input.inviterName} of ${input.networkName} tried to invite this address to their Lintel network (${input.roles.join("; ")}).`,
+    "Your Lintel account is tied to one network, so this invitation cannot be accepted, and nothing about your account has changed. They were not told that this address already has an account.",
+    `If you are meant to work with ${input.networkName} as well, contact ${input.inviterName} and ask them to invite another address of yours, or ask your own network's administrator.`,
+  ];
+  const footnote = "If you did not expect this, you can ignore this e-mail.";
+  return {
+    topic: "invitation",
+    to: input.to,
+    subject,
+    text: `${lines.join("\n\n")}\n\nSign in to your own network: ${input.signInLink}\n\n${footnote}\n`,
+    html: layout(subject, lines, { label: "Sign in to Lintel", href: input.signInLink }, footnote),
+  };
+}
+
 export function passwordResetMail(input: {
   to: string;
   name: string;

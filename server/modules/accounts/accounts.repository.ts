@@ -1,7 +1,7 @@
 import { and, eq, isNull, sql } from "drizzle-orm";
 
 import type { DbOrTx } from "../../db/client";
-import { userTokens, users } from "../../db/schema/index";
+import { accountWithAddress, userTokens, users } from "../../db/schema/index";
 
 export type TokenPurpose = "invitation" | "password_reset";
 
@@ -68,7 +68,14 @@ export async function findToken(
     })
     .from(userTokens)
     .innerJoin(users, eq(users.id, userTokens.userId))
-    .where(and(eq(userTokens.tokenHash, tokenHash), eq(userTokens.purpose, purpose)))
+    .where(
+      and(
+        eq(userTokens.tokenHash, tokenHash),
+        eq(userTokens.purpose, purpose),
+        // A placeholder for an address held in another network never joins through a link.
+        eq(users.heldElsewhere, false),
+      ),
+    )
     .limit(1);
   const [row] = options.lock ? await query.for("update", { of: userTokens }) : await query;
   return row ?? null;
@@ -107,7 +114,7 @@ export async function findActiveUserByEmail(
       hasPassword: sql<boolean>`${users.passwordHash} is not null`,
     })
     .from(users)
-    .where(eq(sql`lower(${users.email})`, email.toLowerCase()))
+    .where(accountWithAddress(email))
     .limit(1);
   if (!row || row.deactivatedAt !== null || !row.hasPassword) return null;
   return { id: row.id, name: row.name, email: row.email };

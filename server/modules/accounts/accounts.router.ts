@@ -93,8 +93,8 @@ export const accountRoutes = [
     summary: "Change one's own password; other sessions end",
     access: { kind: "signed-in" },
     body: changePasswordBodySchema,
-    async handle({ res, deps, auth, body, requestId }) {
-      const setCookie = await accounts.changePassword(deps, auth!, body, {
+    async handle({ req, res, deps, auth, body, requestId }) {
+      const setCookie = await accounts.changePassword(deps, auth!, body, req.ip ?? "unknown", {
         userId: auth!.user.id,
         requestId,
       });

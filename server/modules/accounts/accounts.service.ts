@@ -201,19 +201,27 @@ export async function updateProfile(
   };
 }
 
-/** Changes the password after checking the current one; every other session is signed out. */
+/**
+ * Changes the password after checking the current one; every other session is signed out. Wrong
+ * current passwords count against the same limits as failed sign-ins.
+ */
 export async function changePassword(
   deps: AppDeps,
   auth: SignedIn,
   body: ChangePasswordBody,
+  clientAddress: string,
   actor: Actor,
 ): Promise<string> {
+  const { email } = auth.user;
+  await deps.signInLimiter.assertAllowed(email, clientAddress, "password-change");
   const current = await repo.findPasswordHash(deps.db, auth.user.id);
   if (!(await verifyPassword(current, body.currentPassword))) {
+    await deps.signInLimiter.recordFailure(email, clientAddress);
     throw new AppError("validation_failed", 400, "That is not your current password.", {
       fields: { currentPassword: "That is not your current password." },
     });
   }
+  await deps.signInLimiter.recordSuccess(email);
   assertAcceptablePassword(
     body.newPassword,
     { email: auth.user.email, name: auth.user.name },

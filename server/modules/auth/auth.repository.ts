@@ -1,9 +1,9 @@
-import { eq, sql } from "drizzle-orm";
+import { eq } from "drizzle-orm";
 
 import type { RoleGrant } from "@shared/roles";
 
 import type { DbOrTx } from "../../db/client";
-import { roleGrants, users } from "../../db/schema/index";
+import { accountWithAddress, roleGrants, users } from "../../db/schema/index";
 
 export interface SignInCandidate {
   id: string;
@@ -26,7 +26,7 @@ export async function findUserForSignIn(
       deactivatedAt: users.deactivatedAt,
     })
     .from(users)
-    .where(eq(sql`lower(${users.email})`, email.toLowerCase()))
+    .where(accountWithAddress(email))
     .limit(1);
   return row ?? null;
 }

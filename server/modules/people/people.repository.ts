@@ -1,10 +1,17 @@
-import { and, asc, eq, inArray, isNull, sql } from "drizzle-orm";
+import { and, asc, eq, inArray, isNull, ne, sql } from "drizzle-orm";
 
 import type { Role } from "@shared/roles";
 import type { Person } from "@shared/schemas/people";
 
 import type { DbOrTx } from "../../db/client";
-import { roleGrants, sites, userTokens, users } from "../../db/schema/index";
+import {
+  accountWithAddress,
+  networks,
+  roleGrants,
+  sites,
+  userTokens,
+  users,
+} from "../../db/schema/index";
 
 interface PersonRow {
   id: string;
@@ -102,28 +109,69 @@ async function withGrantsAndInvitations(db: DbOrTx, rows: PersonRow[]): Promise<
   });
 }
 
-export async function findUserByEmail(
+/**
+ * Who holds the address, as the inviting network may know it: its own row for the address (a
+ * person or a placeholder, locked), and whether an account in another network holds it.
+ */
+export async function findAddress(
   db: DbOrTx,
+  networkId: string,
   email: string,
-): Promise<(PersonRow & { networkId: string }) | null> {
-  const [row] = await db
-    .select({ ...personColumns, networkId: users.networkId })
+): Promise<{ here: PersonRow | null; heldElsewhere: boolean }> {
+  const address = eq(sql`lower(${users.email})`, email.toLowerCase());
+  const [here] = await db
+    .select(personColumns)
     .from(users)
-    .where(eq(sql`lower(${users.email})`, email.toLowerCase()))
+    .where(and(eq(users.networkId, networkId), address))
     .limit(1)
     .for("update");
-  return row ?? null;
+  if (here) return { here, heldElsewhere: false };
+  const [elsewhere] = await db
+    .select({ id: users.id })
+    .from(users)
+    .where(and(ne(users.networkId, networkId), accountWithAddress(email)))
+    .limit(1);
+  return { here: null, heldElsewhere: elsewhere !== undefined };
+}
+
+export async function isHeldElsewhere(db: DbOrTx, userId: string): Promise<boolean> {
+  const [row] = await db
+    .select({ heldElsewhere: users.heldElsewhere })
+    .from(users)
+    .where(eq(users.id, userId));
+  return row?.heldElsewhere ?? false;
 }
 
 export async function insertUser(
   db: DbOrTx,
-  values: { networkId: string; email: string; name: string },
+  values: { networkId: string; email: string; name: string; heldElsewhere: boolean },
 ): Promise<string> {
   const [row] = await db
     .insert(users)
-    .values({ networkId: values.networkId, email: values.email, displayName: values.name })
+    .values({
+      networkId: values.networkId,
+      email: values.email,
+      displayName: values.name,
+      heldElsewhere: values.heldElsewhere,
+    })
     .returning({ id: users.id });
   return row!.id;
+}
+
+/** When the person's open invitation link was made, if they have one. */
+export async function openInvitationIssuedAt(db: DbOrTx, userId: string): Promise<Date | null> {
+  const [row] = await db
+    .select({ createdAt: sql<Date>`max(${userTokens.createdAt})` })
+    .from(userTokens)
+    .where(
+      and(
+        eq(userTokens.userId, userId),
+        eq(userTokens.purpose, "invitation"),
+        isNull(userTokens.usedAt),
+        isNull(userTokens.revokedAt),
+      ),
+    );
+  return row?.createdAt ? new Date(row.createdAt) : null;
 }
 
 export async function renameUser(db: DbOrTx, userId: string, name: string): Promise<void> {
@@ -181,4 +229,12 @@ export async function sitesOfNetwork(db: DbOrTx, networkId: string, onlyIds: str
 
 export async function lockUser(db: DbOrTx, userId: string): Promise<void> {
   await db.select({ id: users.id }).from(users).where(eq(users.id, userId)).for("update");
+}
+
+export async function networkName(db: DbOrTx, networkId: string): Promise<string> {
+  const [row] = await db
+    .select({ name: networks.name })
+    .from(networks)
+    .where(eq(networks.id, networkId));
+  return row!.name;
 }

@@ -7,7 +7,7 @@ import { AppError, forbidden, notFound } from "../../lib/app-error";
 import { recordChange, type Actor } from "../../lib/change-log";
 import type { AppDeps, SignedIn } from "../../lib/routes";
 import { enqueueMail } from "../../outbox/outbox.repository";
-import { invitationMail } from "../accounts/accounts.emails";
+import { invitationElsewhereMail, invitationMail } from "../accounts/accounts.emails";
 import { issueLink, revokeOpenLinks } from "../accounts/accounts.service";
 import * as repo from "./people.repository";
 
@@ -82,11 +82,19 @@ function describeGrants(grants: GrantInput[], siteNames: Map<string, string>): s
   );
 }
 
+/** An identical invitation within this time is a duplicate (a double tap, a retried request). */
+const duplicateInvitationMs = 60_000;
+
+/**
+ * Issues the invitation link and queues its e-mail. For a placeholder (the address belongs to an
+ * account in another network) the link is made all the same, so the inviting network sees an
+ * ordinary pending invitation, but the address holder gets a notice instead of the link.
+ */
 async function queueInvitation(
   tx: DbOrTx,
   deps: AppDeps,
   auth: SignedIn,
-  person: { id: string; email: string; name: string },
+  person: { id: string; email: string; name: string; heldElsewhere: boolean },
   grants: GrantInput[],
 ) {
   const { link, expiresAt } = await issueLink(tx, deps, {
@@ -97,19 +105,32 @@ async function queueInvitation(
   const siteNames = new Map(
     (await repo.sitesOfNetwork(tx, auth.user.networkId, null)).map((site) => [site.id, site.name]),
   );
+  const roles = describeGrants(grants, siteNames);
   await enqueueMail(
     tx,
-    invitationMail({
-      to: person.email,
-      name: person.name,
-      inviterName: auth.user.name,
-      roles: describeGrants(grants, siteNames),
-      link,
-      expiresAt,
-    }),
+    person.heldElsewhere
+      ? invitationElsewhereMail({
+          to: person.email,
+          inviterName: auth.user.name,
+          networkName: await repo.networkName(tx, auth.user.networkId),
+          roles,
+          signInLink: new URL("/sign-in", deps.env.publicUrl).toString(),
+        })
+      : invitationMail({
+          to: person.email,
+          name: person.name,
+          inviterName: auth.user.name,
+          roles,
+          link,
+          expiresAt,
+        }),
   );
 }
 
+/**
+ * Invites by address, or invites again someone still pending. An address whose account is in
+ * another network gets exactly the answer a new address gets; see `queueInvitation`.
+ */
 export async function invite(
   deps: AppDeps,
   auth: SignedIn,
@@ -118,24 +139,27 @@ export async function invite(
 ): Promise<Person> {
   await assertGrantable(deps, auth, body.grants, (index) => `grants.${index}.siteId`);
   const userId = await deps.db.transaction(async (tx) => {
-    const existing = await repo.findUserByEmail(tx, body.email);
-    if (
-      existing &&
-      (existing.networkId !== auth.user.networkId || existing.hasPassword || existing.deactivatedAt)
-    ) {
-      const message = existing.deactivatedAt
+    const { here, heldElsewhere } = await repo.findAddress(tx, auth.user.networkId, body.email);
+    if (here && (here.hasPassword || here.deactivatedAt)) {
+      const message = here.deactivatedAt
         ? "This address belongs to a deactivated account. Reactivate it from the person's page."
         : "This address already has a Lintel account. Find the person in the list to give them a role.";
       throw new AppError("conflict", 409, message, { fields: { email: message } });
     }
+    if (here) {
+      const [held] = await repo.listPeople(tx, auth.user.networkId, null, here.id);
+      assertWhollyWithinReach(auth, held!.grants, "email");
+      await assertNotDuplicate(tx, here, held!, body);
+    }
     const id =
-      existing?.id ??
+      here?.id ??
       (await repo.insertUser(tx, {
         networkId: auth.user.networkId,
         email: body.email,
         name: body.name,
+        heldElsewhere,
       }));
-    if (existing) await repo.renameUser(tx, id, body.name);
+    if (here) await repo.renameUser(tx, id, body.name);
     for (const grant of body.grants) {
       if (
         await repo.addGrant(tx, {
@@ -154,9 +178,20 @@ export async function invite(
         });
       }
     }
-    await queueInvitation(tx, deps, auth, { id, email: body.email, name: body.name }, body.grants);
+    await queueInvitation(
+      tx,
+      deps,
+      auth,
+      {
+        id,
+        email: body.email,
+        name: body.name,
+        heldElsewhere: here ? await repo.isHeldElsewhere(tx, id) : heldElsewhere,
+      },
+      body.grants,
+    );
     await recordChange(tx, actor, {
-      action: existing ? "user.reinvited" : "user.invited",
+      action: here ? "user.reinvited" : "user.invited",
       entity: "user",
       entityId: id,
       siteId: null,
@@ -168,6 +203,26 @@ export async function invite(
   return requirePerson(deps, auth, userId);
 }
 
+/** The same invitation again moments after the last one changes nothing: 409, no second e-mail. */
+async function assertNotDuplicate(
+  tx: DbOrTx,
+  here: { id: string; name: string },
+  held: Person,
+  body: InviteBody,
+) {
+  const issuedAt = await repo.openInvitationIssuedAt(tx, here.id);
+  const same =
+    here.name === body.name &&
+    body.grants.every((grant) =>
+      held.grants.some((h) => h.role === grant.role && h.siteId === grant.siteId),
+    );
+  if (same && issuedAt && Date.now() - issuedAt.getTime() < duplicateInvitationMs) {
+    const message =
+      "This invitation was sent less than a minute ago. Wait for it, or send a new link from the person's page.";
+    throw new AppError("conflict", 409, message, { fields: { email: message } });
+  }
+}
+
 /** Sends a new invitation link; the previous one stops working. */
 export async function resendInvitation(
   deps: AppDeps,
@@ -176,6 +231,7 @@ export async function resendInvitation(
   actor: Actor,
 ): Promise<Person> {
   const person = await requirePerson(deps, auth, userId);
+  assertWhollyWithinReach(auth, person.grants);
   if (person.status !== "invited") {
     throw new AppError(
       "conflict",
@@ -186,7 +242,8 @@ export async function resendInvitation(
     );
   }
   await deps.db.transaction(async (tx) => {
-    await queueInvitation(tx, deps, auth, person, person.grants);
+    const heldElsewhere = await repo.isHeldElsewhere(tx, userId);
+    await queueInvitation(tx, deps, auth, { ...person, heldElsewhere }, person.grants);
     await recordChange(tx, actor, {
       action: "user.reinvited",
       entity: "user",
@@ -262,7 +319,18 @@ export async function takeRole(
   return personAfterChange(deps, auth, userId);
 }
 
-/** The caller must manage every role the person holds: a site administrator cannot switch off someone wider. */
+/**
+ * The one rule for reaching a person: the caller must administer every role they hold, so a site
+ * administrator cannot switch off, rename, re-invite or re-link someone wider than themself.
+ * Together with `assertGrantable` (every role asked for) it is "never beyond your own reach".
+ */
+function assertWhollyWithinReach(auth: SignedIn, held: readonly RoleGrant[], field?: string) {
+  if (held.every((grant) => canGrant(auth.grants, grant))) return;
+  const message =
+    "This person also holds roles you do not administer. Ask a network administrator.";
+  throw new AppError("forbidden", 403, message, field ? { fields: { [field]: message } } : {});
+}
+
 async function requireWhollyManaged(
   deps: AppDeps,
   auth: SignedIn,
@@ -271,13 +339,7 @@ async function requireWhollyManaged(
   if (userId === auth.user.id)
     throw new AppError("bad_request", 400, "You cannot deactivate or reactivate yourself.");
   const person = await requirePerson(deps, auth, userId);
-  if (!person.grants.every((grant) => canGrant(auth.grants, grant))) {
-    throw new AppError(
-      "forbidden",
-      403,
-      "This person also holds roles you do not administer. Ask a network administrator.",
-    );
-  }
+  assertWhollyWithinReach(auth, person.grants);
   return person;
 }
 

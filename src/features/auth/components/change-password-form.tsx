@@ -7,6 +7,7 @@ import { Alert } from "@/components/ui/alert";
 import { Button } from "@/components/ui/button";
 import { SpinnerGlyph } from "@/components/ui/spinner";
 import { TextField } from "@/components/ui/text-field";
+import { isApiError } from "@/lib/api-client";
 import { formLevelMessage, showServerFieldErrors } from "@/lib/form-errors";
 
 import { useChangePassword } from "../api/change-password";
@@ -55,11 +56,19 @@ export function ChangePasswordForm({ email }: ChangePasswordFormProps) {
     "Your password could not be changed. Please try again.",
   );
 
+  // Wrong current passwords count like failed sign-ins; past the limit the server waits it out.
+  const paused = isApiError(change.error) && change.error.status === 429;
+
   return (
     <form noValidate onSubmit={submit} className="flex flex-col gap-4">
       {formMessage ? (
-        <Alert role="alert" tone="error" title="Could not change your password">
+        <Alert
+          role="alert"
+          tone="error"
+          title={paused ? "Password change paused" : "Could not change your password"}
+        >
           {formMessage}
+          {paused ? " Your password has not changed." : null}
         </Alert>
       ) : null}
       {change.isSuccess ? (
