@@ -63,6 +63,8 @@ export const auditSchema = z.object({
   spaceId: uuidSchema,
   spaceName: z.string(),
   zoneType: z.enum(zoneTypes),
+  /** When the audited space was retired; its history stays readable. */
+  spaceRetiredAt: z.string().nullable().default(null),
   checklistVersionId: uuidSchema,
   checklistVersion: z.number().int(),
   auditorId: uuidSchema,
