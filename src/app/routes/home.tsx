@@ -1,11 +1,14 @@
 import type { QueryClient } from "@tanstack/react-query";
-import { Link } from "react-router-dom";
+import { Link, useLocation } from "react-router-dom";
+
+import { Alert } from "@/components/ui/alert";
 
 import { buttonStyles } from "@/components/ui/button";
 import { paths } from "@/config/paths";
 
 import { MyActions } from "@/features/actions/components/my-actions";
 import { sitesQueryOptions } from "@/features/sites/api/get-sites";
+import { RetiredSites } from "@/features/sites/components/retired-sites";
 import { SitesList } from "@/features/sites/components/sites-list";
 import { MyDueAudits } from "@/features/walkthroughs/components/my-due-audits";
 import { useAuthorization } from "@/lib/authorization";
@@ -27,6 +30,7 @@ function firstName(name: string): string {
 export function HomeRoute() {
   const me = useSignedInPerson();
   const { can, canAnywhere } = useAuthorization();
+  const notice = (useLocation().state as { notice?: string } | null)?.notice;
   return (
     <>
       <title>My sites · Lintel</title>
@@ -43,11 +47,17 @@ export function HomeRoute() {
           </Link>
         ) : null}
       </div>
+      {notice ? (
+        <Alert role="status" tone="success" className="mb-6">
+          {notice}
+        </Alert>
+      ) : null}
       {canAnywhere("work:action:site") ? <MyActions actionHref={paths.action.getHref} /> : null}
       {canAnywhere("conduct:audit:site") ? (
         <MyDueAudits startHref={(spaceId) => paths.startAudit.getHref(spaceId)} />
       ) : null}
       <SitesList />
+      {can("create:site:network") ? <RetiredSites /> : null}
     </>
   );
 }
