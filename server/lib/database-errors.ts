@@ -89,6 +89,14 @@ export function appErrorFromDatabase(err: unknown): AppError | null {
     case "23505":
       return new AppError("conflict", 409, "That would duplicate an existing record.");
     case "23503":
+      // Audits, findings and actions RESTRICT the delete of the place they describe.
+      if (/^update or delete on table/i.test(databaseCauseOf(err)?.message ?? "")) {
+        return new AppError(
+          "conflict",
+          409,
+          "That still has history (audits, findings or corrective actions), so it cannot be deleted. Retire it instead.",
+        );
+      }
       return new AppError(
         "conflict",
         409,

@@ -35,6 +35,9 @@ export type ActionListQuery = z.infer<typeof actionListQuerySchema>;
 
 export const personRefSchema = z.object({ id: uuidSchema, name: responseText() });
 
+export const actionCloseReasons = ["verified", "space_retired"] as const;
+export type ActionCloseReason = (typeof actionCloseReasons)[number];
+
 export const actionSummarySchema = z.object({
   id: uuidSchema,
   siteId: uuidSchema,
@@ -53,8 +56,12 @@ export const actionSummarySchema = z.object({
   openedAt: responseText(),
   dueAt: responseText(),
   closedAt: responseText().nullable(),
-  /** Elapsed days from opening to the latest close. */
+  /** Elapsed days from opening to the latest close; none when it closed without a fix. */
   daysToClose: z.number().nullable(),
+  /** Why it closed: an auditor saw the fix, or its space was retired. Null while not closed. */
+  closeReason: z.enum(actionCloseReasons).nullable(),
+  /** When the action's space was retired (it is then hidden from the map and new audits). */
+  spaceRetiredAt: responseText().nullable(),
   overdue: z.boolean(),
   findingCount: z.number().int(),
   /** Where the pin goes, in plan units of the floor. */
@@ -96,6 +103,8 @@ export const timelineKinds = [
   "verified",
   "rejected",
   "reopened",
+  "space_retired",
+  "space_restored",
 ] as const;
 export type TimelineKind = (typeof timelineKinds)[number];
 

@@ -70,6 +70,8 @@ export const auditSchema = z.object({
   spaceId: uuidSchema,
   spaceName: responseText(),
   zoneType: z.enum(zoneTypes),
+  /** When the audited space was retired; its history stays readable. */
+  spaceRetiredAt: responseText().nullable().default(null),
   checklistVersionId: uuidSchema,
   checklistVersion: z.number().int(),
   auditorId: uuidSchema,

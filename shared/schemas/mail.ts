@@ -1,6 +1,6 @@
 import { z } from "zod";
 
-import { uuidSchema } from "./common";
+import { responseText, uuidSchema } from "./common";
 
 export const mailParamsSchema = z.strictObject({ mailId: uuidSchema });
 
@@ -10,24 +10,24 @@ export const mailParamsSchema = z.strictObject({ mailId: uuidSchema });
  * attempt. Bodies stay on the server: they may carry one-time links.
  */
 export const undeliveredMailSchema = z.object({
-  id: z.string(),
+  id: responseText(),
   /** What the e-mail was about, e.g. `invitation`, `action_assigned`. */
-  topic: z.string(),
-  recipient: z.string(),
-  recipientName: z.string(),
-  subject: z.string(),
+  topic: responseText(),
+  recipient: responseText(),
+  recipientName: responseText(),
+  subject: responseText(),
   status: z.enum(["uncertain", "failed"]),
   attempts: z.number().int(),
-  queuedAt: z.string(),
-  lastTriedAt: z.string().nullable(),
-  problem: z.string().nullable(),
+  queuedAt: responseText(),
+  lastTriedAt: responseText().nullable(),
+  problem: responseText().nullable(),
 });
 export type UndeliveredMail = z.infer<typeof undeliveredMailSchema>;
 
 export const undeliveredMailListSchema = z.object({ mail: z.array(undeliveredMailSchema) });
 
 export const resendResultSchema = z.object({
-  id: z.string(),
+  id: responseText(),
   /** Where the e-mail stands now: `pending` until the worker sends it. */
   status: z.enum(["pending", "sending", "sent", "failed", "uncertain"]),
   /** False when it had already been sent again (a second click): nothing more was queued. */

@@ -17,6 +17,7 @@ const detail: AuditDetail = {
     spaceId: crypto.randomUUID(),
     spaceName: "Doffing area 1",
     zoneType: "doffing_area",
+    spaceRetiredAt: null,
     checklistVersionId: crypto.randomUUID(),
     checklistVersion: 1,
     auditorId: crypto.randomUUID(),

@@ -63,7 +63,6 @@ export async function answeredDraftAudit(
   const { db } = deps;
   await ensureDefaultChecklists(db, input.networkId);
   const version = (await latestPublishedVersion(db, input.networkId, input.space.zoneType))!;
-  const items = await checklistItemsOf(db, version.id);
   const auditId = randomUUID();
   await db.insert(audits).values({
     id: auditId,
@@ -73,6 +72,23 @@ export async function answeredDraftAudit(
     auditorId: input.auditorId,
     startedAt: new Date(),
   });
+  return answerEveryItem(deps, { ...input, auditId, checklistVersionId: version.id });
+}
+
+/** Answers every item of an existing draft as `answeredDraftAudit` does. */
+export async function answerEveryItem(
+  deps: AppDeps,
+  input: {
+    auditId: string;
+    checklistVersionId: string;
+    space: { siteId: string };
+    auditorId: string;
+    fail: string[];
+  },
+): Promise<{ auditId: string; failed: ChecklistItem[] }> {
+  const { db } = deps;
+  const { auditId } = input;
+  const items = await checklistItemsOf(db, input.checklistVersionId);
   const failed = items.filter((item) => input.fail.some((text) => item.text.startsWith(text)));
   if (failed.length !== input.fail.length)
     throw new Error(`not every failing item was found: ${input.fail.join("; ")}`);

@@ -26,6 +26,7 @@ import {
   saveDraft as checklistSaveDraft,
 } from "../../server/modules/checklists/checklists.service";
 import { storeImage } from "../../server/lib/images";
+import { restoreSite, retireSite } from "../../server/modules/floors/floors.retirement";
 import { apiRoutes } from "../../server/routes";
 import {
   buildSite,
@@ -85,6 +86,8 @@ interface World {
   signInEmail: string;
   /** The facilities lead at site A, whom actions can be given to. */
   leadA: string;
+  /** The network-wide administrator, the one caller whose site retirement goes through. */
+  networkAdmin: string;
   /** A hash of "matrix-password-1", so password changes need no hashing per call. */
   knownHash: string;
 }
@@ -137,7 +140,12 @@ const square: [number, number][] = [
   [10, 300],
 ];
 
-async function spaceAtA(world: World) {
+const retiredNow = () => ({
+  retiredAt: new Date(),
+  retirementId: crypto.randomUUID(),
+});
+
+async function spaceAtA(world: World, options: { retired?: boolean } = {}) {
   const { db } = testApp().deps;
   const [space] = await db
     .insert(spaces)
@@ -147,10 +155,33 @@ async function spaceAtA(world: World) {
       zoneType: "doffing_area",
       name: "Matrix doffing",
       polygon: square,
+      ...(options.retired ? retiredNow() : {}),
     })
     .returning();
   return space!;
 }
+
+/** A floor of its own at site A, for calls that retire or delete it. */
+async function floorAtA(world: World, options: { retired?: boolean } = {}) {
+  const [floor] = await testApp()
+    .deps.db.insert(floors)
+    .values({
+      siteId: world.siteA,
+      building: "Matrix block",
+      level: 9,
+      name: "Matrix spare",
+      ...(options.retired ? retiredNow() : {}),
+    })
+    .returning();
+  return floor!.id;
+}
+
+const system = { userId: null, requestId: null };
+/** Site A as every other sample needs it: not retired. */
+const siteAActive = (world: World) =>
+  restoreSite(testApp().deps.db, world.networkId, world.siteA, {}, system);
+const siteARetired = (world: World) =>
+  retireSite(testApp().deps.db, world.networkId, world.siteA, {}, system);
 
 async function fixtureAtA(world: World) {
   const space = await spaceAtA(world);
@@ -595,6 +626,74 @@ const samples: Record<string, Sample> = {
     allowed: admins,
     hidden: notAtA,
   },
+  "POST /spaces/:spaceId/retire": {
+    prepare: async (w) => ({ url: `/api/spaces/${(await spaceAtA(w)).id}/retire`, body: {} }),
+    ok: 200,
+    allowed: admins,
+    hidden: notAtA,
+  },
+  "POST /spaces/:spaceId/restore": {
+    prepare: async (w) => ({
+      url: `/api/spaces/${(await spaceAtA(w, { retired: true })).id}/restore`,
+      body: { reason: "Ward reopened" },
+    }),
+    ok: 200,
+    allowed: admins,
+    hidden: notAtA,
+  },
+  "DELETE /floors/:floorId": {
+    prepare: async (w) => ({ url: `/api/floors/${await floorAtA(w)}` }),
+    ok: 204,
+    allowed: admins,
+    hidden: notAtA,
+  },
+  "POST /floors/:floorId/retire": {
+    prepare: async (w) => ({ url: `/api/floors/${await floorAtA(w)}/retire`, body: {} }),
+    ok: 200,
+    allowed: admins,
+    hidden: notAtA,
+  },
+  "POST /floors/:floorId/restore": {
+    prepare: async (w) => ({
+      url: `/api/floors/${await floorAtA(w, { retired: true })}/restore`,
+      body: {},
+    }),
+    ok: 200,
+    allowed: admins,
+    hidden: notAtA,
+  },
+  "GET /sites/:siteId/retired": {
+    prepare: (w) => ({ url: `/api/sites/${w.siteA}/retired` }),
+    ok: 200,
+    allowed: admins,
+    hidden: notAtA,
+  },
+  // Site A itself, so every caller's answer is about a site they may or may not hold a role at;
+  // only the network-wide administrator's call changes it, and every other call leaves A active.
+  "POST /sites/:siteId/retire": {
+    prepare: async (w) => {
+      await siteAActive(w);
+      return { url: `/api/sites/${w.siteA}/retire`, body: {} };
+    },
+    ok: 200,
+    allowed: ["administrator (network)"],
+    hidden: notAtA,
+  },
+  "POST /sites/:siteId/restore": {
+    prepare: async (w, caller) => {
+      if (caller.userId === w.networkAdmin) await siteARetired(w);
+      else await siteAActive(w);
+      return { url: `/api/sites/${w.siteA}/restore`, body: {} };
+    },
+    ok: 200,
+    allowed: ["administrator (network)"],
+    hidden: notAtA,
+  },
+  "GET /retired-sites": {
+    prepare: () => ({ url: "/api/retired-sites" }),
+    ok: 200,
+    allowed: ["administrator (network)"],
+  },
   "POST /spaces/:spaceId/fixtures": {
     prepare: async (w) => ({
       url: `/api/spaces/${(await spaceAtA(w)).id}/fixtures`,
@@ -885,6 +984,7 @@ describe("role matrix: every registered route, as every role, another site's mem
     }
     world.auditorA = userIds["auditor @A"];
     world.leadA = userIds["facilities lead @A"];
+    world.networkAdmin = userIds["administrator (network)"];
   });
   afterAll(async () => {
     await matrixApp.database.close();

@@ -30,6 +30,9 @@ export const actionStatusEnum = pgEnum("action_status", [
   "closed",
 ]);
 
+/** Why a closed action closed: an auditor saw the fix, or its space was retired (not a fix). */
+export const actionCloseReasonEnum = pgEnum("action_close_reason", ["verified", "space_retired"]);
+
 /** A site's due times by severity; no row means the defaults. */
 export const siteDuePolicies = pgTable("site_due_policies", {
   siteId: uuid("site_id")
@@ -48,15 +51,16 @@ export const correctiveActions = pgTable(
   "corrective_actions",
   {
     id: uuid("id").primaryKey().defaultRandom(),
+    // History is never removed with the place it describes: retire the place instead.
     siteId: uuid("site_id")
       .notNull()
-      .references(() => sites.id, { onDelete: "cascade" }),
+      .references(() => sites.id, { onDelete: "restrict" }),
     spaceId: uuid("space_id")
       .notNull()
-      .references(() => spaces.id, { onDelete: "cascade" }),
+      .references(() => spaces.id, { onDelete: "restrict" }),
     floorId: uuid("floor_id")
       .notNull()
-      .references(() => floors.id, { onDelete: "cascade" }),
+      .references(() => floors.id, { onDelete: "restrict" }),
     /** The checklist item's key, stable across checklist versions. */
     itemKey: varchar("item_key", { length: 60 }).notNull(),
     title: varchar("title", { length: 300 }).notNull(),
@@ -67,6 +71,8 @@ export const correctiveActions = pgTable(
     /** Fixed when opened; reopening keeps it. */
     dueAt: timestamp("due_at", { withTimezone: true }).notNull(),
     closedAt: timestamp("closed_at", { withTimezone: true }),
+    /** Null only on actions closed before reasons were kept, which were all verified. */
+    closeReason: actionCloseReasonEnum("close_reason"),
     daysToClose: doublePrecision("days_to_close"),
     /** Counts rejections and reopenings: proof of the current attempt has this round. */
     proofRound: integer("proof_round").notNull().default(0),
@@ -99,10 +105,10 @@ export const findings = pgTable(
       .references(() => audits.id, { onDelete: "cascade" }),
     siteId: uuid("site_id")
       .notNull()
-      .references(() => sites.id, { onDelete: "cascade" }),
+      .references(() => sites.id, { onDelete: "restrict" }),
     spaceId: uuid("space_id")
       .notNull()
-      .references(() => spaces.id, { onDelete: "cascade" }),
+      .references(() => spaces.id, { onDelete: "restrict" }),
     itemId: uuid("item_id").notNull(),
     itemKey: varchar("item_key", { length: 60 }).notNull(),
     itemText: varchar("item_text", { length: 300 }).notNull(),

@@ -27,12 +27,13 @@ export const audits = pgTable(
   "audits",
   {
     id: uuid("id").primaryKey(),
+    // History is never removed with the place it describes: retire the place instead.
     siteId: uuid("site_id")
       .notNull()
-      .references(() => sites.id, { onDelete: "cascade" }),
+      .references(() => sites.id, { onDelete: "restrict" }),
     spaceId: uuid("space_id")
       .notNull()
-      .references(() => spaces.id, { onDelete: "cascade" }),
+      .references(() => spaces.id, { onDelete: "restrict" }),
     checklistVersionId: uuid("checklist_version_id")
       .notNull()
       .references(() => checklistVersions.id, { onDelete: "restrict" }),

@@ -13,6 +13,7 @@ import {
 } from "drizzle-orm/pg-core";
 
 import { images } from "./images";
+import { retirementColumns } from "./retirement";
 import { sites } from "./sites";
 
 export const zoneTypeEnum = pgEnum("zone_type", [
@@ -62,6 +63,7 @@ export const floors = pgTable(
     }>(),
     createdAt: timestamp("created_at", { withTimezone: true }).notNull().defaultNow(),
     updatedAt: timestamp("updated_at", { withTimezone: true }).notNull().defaultNow(),
+    ...retirementColumns(),
   },
   (table) => [index("floors_site_idx").on(table.siteId)],
 );
@@ -98,6 +100,7 @@ export const spaces = pgTable(
     ceilingHeightM: doublePrecision("ceiling_height_m"),
     createdAt: timestamp("created_at", { withTimezone: true }).notNull().defaultNow(),
     updatedAt: timestamp("updated_at", { withTimezone: true }).notNull().defaultNow(),
+    ...retirementColumns(),
   },
   (table) => [
     index("spaces_floor_idx").on(table.floorId),

@@ -9,6 +9,7 @@ import {
 } from "drizzle-orm/pg-core";
 
 import { networks } from "./networks";
+import { retirementColumns } from "./retirement";
 
 export const sites = pgTable(
   "sites",
@@ -25,6 +26,7 @@ export const sites = pgTable(
     longitude: doublePrecision("longitude").notNull(),
     createdAt: timestamp("created_at", { withTimezone: true }).notNull().defaultNow(),
     updatedAt: timestamp("updated_at", { withTimezone: true }).notNull().defaultNow(),
+    ...retirementColumns(),
   },
   (table) => [unique("sites_network_name_unique").on(table.networkId, table.name)],
 );

@@ -50,6 +50,8 @@ export interface ActionRow {
   dueAt: Date;
   closedAt: Date | null;
   daysToClose: number | null;
+  closeReason: "verified" | "space_retired" | null;
+  spaceRetiredAt: Date | null;
   proofRound: number;
   x: number;
   y: number;
@@ -79,6 +81,8 @@ function actionQuery(db: DbOrTx) {
       dueAt: correctiveActions.dueAt,
       closedAt: correctiveActions.closedAt,
       daysToClose: correctiveActions.daysToClose,
+      closeReason: correctiveActions.closeReason,
+      spaceRetiredAt: spaces.retiredAt,
       proofRound: correctiveActions.proofRound,
       x: correctiveActions.x,
       y: correctiveActions.y,
@@ -310,6 +314,7 @@ export async function spaceForFindings(db: DbOrTx, spaceId: string) {
       polygon: spaces.polygon,
       timeZone: sites.timeZone,
       siteName: sites.name,
+      retiredAt: spaces.retiredAt,
     })
     .from(spaces)
     .innerJoin(sites, eq(sites.id, spaces.siteId))
@@ -423,4 +428,66 @@ export async function claimNotice(
     .onConflictDoNothing()
     .returning({ id: actionNotices.id });
   return rows.length > 0;
+}
+
+/** The unclosed actions of the spaces, locked for closing. */
+export async function lockUnclosedActionsOf(db: DbOrTx, spaceIds: readonly string[]) {
+  if (spaceIds.length === 0) return [];
+  return db
+    .select()
+    .from(correctiveActions)
+    .where(
+      and(inArray(correctiveActions.spaceId, spaceIds), ne(correctiveActions.status, "closed")),
+    )
+    .orderBy(asc(correctiveActions.id))
+    .for("update");
+}
+
+/** Actions of the spaces closed because a space was retired at or after `since`, locked. */
+export async function lockActionsClosedByRetirement(
+  db: DbOrTx,
+  spaceIds: readonly string[],
+  since: Date,
+) {
+  if (spaceIds.length === 0) return [];
+  return db
+    .select()
+    .from(correctiveActions)
+    .where(
+      and(
+        inArray(correctiveActions.spaceId, spaceIds),
+        eq(correctiveActions.status, "closed"),
+        eq(correctiveActions.closeReason, "space_retired"),
+        sql`${correctiveActions.closedAt} >= ${since}`,
+      ),
+    )
+    .orderBy(asc(correctiveActions.id))
+    .for("update");
+}
+
+/** The status an action had when its space's retirement closed it (the latest such move). */
+export async function statusBeforeRetirement(db: DbOrTx, actionId: string) {
+  const [row] = await db
+    .select({ before: changeLog.before })
+    .from(changeLog)
+    .where(
+      and(
+        eq(changeLog.entity, "corrective_action"),
+        eq(changeLog.entityId, actionId),
+        eq(changeLog.action, "action.space_retired"),
+      ),
+    )
+    .orderBy(desc(changeLog.occurredAt))
+    .limit(1);
+  return ((row?.before ?? null) as { status?: ActionStatus } | null)?.status ?? null;
+}
+
+/** Whether any action or finding follows the spaces (history that must not be deleted). */
+export async function countActionsOfSpaces(db: DbOrTx, spaceIds: readonly string[]) {
+  if (spaceIds.length === 0) return 0;
+  const [row] = await db
+    .select({ n: count() })
+    .from(correctiveActions)
+    .where(inArray(correctiveActions.spaceId, spaceIds));
+  return row?.n ?? 0;
 }

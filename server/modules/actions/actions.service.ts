@@ -65,6 +65,8 @@ export function toSummary(row: repo.ActionRow, now = new Date()): ActionSummary 
     dueAt: row.dueAt.toISOString(),
     closedAt: row.closedAt?.toISOString() ?? null,
     daysToClose: row.daysToClose,
+    closeReason: row.status === "closed" ? (row.closeReason ?? "verified") : null,
+    spaceRetiredAt: row.spaceRetiredAt?.toISOString() ?? null,
     overdue: isOverdue(row.dueAt, now, row.status === "closed"),
     findingCount: row.findingCount,
     position: { x: row.x, y: row.y },
@@ -240,9 +242,10 @@ export async function recordFindings(
   now: Date,
 ): Promise<number> {
   if (failed.length === 0) return 0;
+  // Locked before reading, so a retirement of the space is either seen here or waits for this.
+  await repo.lockSpaceForFindings(tx, audit.spaceId);
   const space = await repo.spaceForFindings(tx, audit.spaceId);
   if (!space) return 0;
-  await repo.lockSpaceForFindings(tx, space.id);
   const policy = (await repo.duePolicyOf(tx, space.siteId)) ?? defaultDuePolicy;
   const [lead] = await repo.peopleWithRoleAt(tx, space.siteId, "facilities_lead");
   const position = polygonCentroid(space.polygon);
@@ -320,7 +323,7 @@ export async function recordFindings(
       },
       reason: item.note,
     });
-    if (lead) {
+    if (lead && !space.retiredAt) {
       await enqueueMail(
         tx,
         mails.assignedMail(
@@ -343,8 +346,88 @@ export async function recordFindings(
       queued += 1;
     }
   }
+  // An audit started before its space was retired still counts, but what it found is not work
+  // for anyone now: its actions close at once, for the same reason as the space's others.
+  if (space.retiredAt) await closeUnclosedActions(tx, actor, [space.id], now);
   return queued;
 }
+
+const spaceRetiredWords = "Closed because the space was retired; not counted as fixed.";
+const spaceRestoredWords = "Reopened because the space was restored.";
+
+async function closeUnclosedActions(
+  tx: Tx,
+  actor: Actor,
+  spaceIds: readonly string[],
+  at: Date,
+): Promise<number> {
+  const actions = await repo.lockUnclosedActionsOf(tx, spaceIds);
+  for (const action of actions) {
+    await repo.updateAction(tx, action.id, {
+      status: "closed",
+      closedAt: at,
+      closeReason: "space_retired",
+      daysToClose: null,
+    });
+    await logMove(tx, actor, action, "space_retired", {
+      before: { status: action.status },
+      after: { status: "closed", closeReason: "space_retired" },
+      reason: spaceRetiredWords,
+    });
+  }
+  return actions.length;
+}
+
+/**
+ * Closes the unclosed actions of spaces being retired, inside the retirement's transaction, with
+ * the reason "space retired": they leave the work lists but never count as fixed. Takes each
+ * space's findings lock first, so an audit submitted at the same moment cannot open one after.
+ */
+export async function closeActionsOfRetiredSpaces(
+  tx: Tx,
+  actor: Actor,
+  spaceIds: readonly string[],
+  at: Date,
+): Promise<number> {
+  for (const spaceId of [...spaceIds].sort()) await repo.lockSpaceForFindings(tx, spaceId);
+  return closeUnclosedActions(tx, actor, spaceIds, at);
+}
+
+/**
+ * Undoes what a retirement at `retiredAt` did to the spaces' actions: each it closed goes back to
+ * the status it had, unless a newer action already follows the same item in that space.
+ */
+export async function reopenActionsOfRestoredSpaces(
+  tx: Tx,
+  actor: Actor,
+  spaceIds: readonly string[],
+  retiredAt: Date,
+): Promise<number> {
+  for (const spaceId of [...spaceIds].sort()) await repo.lockSpaceForFindings(tx, spaceId);
+  const actions = await repo.lockActionsClosedByRetirement(tx, spaceIds, retiredAt);
+  let reopened = 0;
+  for (const action of actions) {
+    if (await repo.newerUnclosedTwin(tx, action)) continue;
+    const status = (await repo.statusBeforeRetirement(tx, action.id)) ?? "open";
+    await repo.updateAction(tx, action.id, {
+      status: status === "closed" ? "open" : status,
+      closedAt: null,
+      closeReason: null,
+      daysToClose: null,
+    });
+    await logMove(tx, actor, action, "space_restored", {
+      before: { status: "closed", closeReason: "space_retired" },
+      after: { status },
+      reason: spaceRestoredWords,
+    });
+    reopened += 1;
+  }
+  return reopened;
+}
+
+/** How many actions follow the spaces; any at all is history a delete must not remove. */
+export const countActionsOfSpaces = (db: DbOrTx, spaceIds: readonly string[]) =>
+  repo.countActionsOfSpaces(db, spaceIds);
 
 /** Loads and locks the action for a move, checking it is in one of the allowed states. */
 async function lockFor(tx: Tx, actionId: string, allowed: readonly ActionStatus[], needed: string) {
@@ -469,7 +552,12 @@ export async function verifyAction(move: Move, note: string): Promise<ActionDeta
     );
     const closedAt = new Date();
     const days = daysToClose(action.openedAt, closedAt);
-    await repo.updateAction(tx, action.id, { status: "closed", closedAt, daysToClose: days });
+    await repo.updateAction(tx, action.id, {
+      status: "closed",
+      closedAt,
+      closeReason: "verified",
+      daysToClose: days,
+    });
     await logMove(tx, actorOf(move), action, "verified", {
       before: { status: action.status },
       after: { status: "closed", daysToClose: days },
@@ -522,6 +610,11 @@ export async function rejectAction(move: Move, reason: string): Promise<ActionDe
 export async function reopenAction(move: Move, reason: string): Promise<ActionDetail> {
   const queued = await move.deps.db.transaction(async (tx) => {
     const action = await lockFor(tx, move.actionId, ["closed"], "closed");
+    if ((await repo.findAction(tx, action.id))?.spaceRetiredAt) {
+      throw conflict(
+        "This action's space is retired. An administrator can restore the space; its actions closed by the retirement then reopen.",
+      );
+    }
     const twin = await repo.newerUnclosedTwin(tx, action);
     if (twin) {
       throw conflict(
@@ -531,6 +624,7 @@ export async function reopenAction(move: Move, reason: string): Promise<ActionDe
     await repo.updateAction(tx, action.id, {
       status: "in_progress",
       closedAt: null,
+      closeReason: null,
       daysToClose: null,
       proofRound: action.proofRound + 1,
     });

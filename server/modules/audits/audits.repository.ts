@@ -1,4 +1,4 @@
-import { and, asc, desc, eq, isNotNull, or, sql } from "drizzle-orm";
+import { and, asc, count, desc, eq, inArray, isNotNull, isNull, or, sql } from "drizzle-orm";
 
 import type { Answer, Audit } from "@shared/schemas/audits";
 
@@ -20,6 +20,7 @@ const auditColumns = {
   spaceId: audits.spaceId,
   spaceName: spaces.name,
   zoneType: spaces.zoneType,
+  spaceRetiredAt: spaces.retiredAt,
   checklistVersionId: audits.checklistVersionId,
   checklistVersion: checklistVersions.version,
   auditorId: audits.auditorId,
@@ -31,14 +32,15 @@ const auditColumns = {
   score: audits.score,
 };
 
-type AuditRow = { startedAt: Date; submittedAt: Date | null } & Omit<
+type AuditRow = { startedAt: Date; submittedAt: Date | null; spaceRetiredAt: Date | null } & Omit<
   Audit,
-  "startedAt" | "submittedAt"
+  "startedAt" | "submittedAt" | "spaceRetiredAt"
 >;
 const toAudit = (row: AuditRow): Audit => ({
   ...row,
   startedAt: row.startedAt.toISOString(),
   submittedAt: row.submittedAt?.toISOString() ?? null,
+  spaceRetiredAt: row.spaceRetiredAt?.toISOString() ?? null,
 });
 
 function auditQuery(db: DbOrTx) {
@@ -171,6 +173,7 @@ export async function findSpaceForAudit(db: DbOrTx, spaceId: string) {
       name: spaces.name,
       volumeM3: spaces.volumeM3,
       constructionClass: spaces.constructionClass,
+      retiredAt: spaces.retiredAt,
     })
     .from(spaces)
     .where(eq(spaces.id, spaceId));
@@ -207,7 +210,7 @@ export async function scheduleRows(db: DbOrTx, siteId: string) {
     .innerJoin(floors, eq(floors.id, spaces.floorId))
     .leftJoin(spaceCadences, eq(spaceCadences.spaceId, spaces.id))
     .leftJoin(latest, eq(latest.spaceId, spaces.id))
-    .where(eq(spaces.siteId, siteId));
+    .where(and(eq(spaces.siteId, siteId), isNull(spaces.retiredAt)));
 }
 
 export async function setCadence(db: DbOrTx, spaceId: string, cadenceDays: number) {
@@ -240,4 +243,14 @@ export async function setVerdict(
   score: number | null,
 ) {
   await db.update(audits).set({ verdict, score }).where(eq(audits.id, auditId));
+}
+
+/** How many audits, drafts included, the spaces have: any at all is history. */
+export async function countAuditsOfSpaces(db: DbOrTx, spaceIds: readonly string[]) {
+  if (spaceIds.length === 0) return 0;
+  const [row] = await db
+    .select({ n: count() })
+    .from(audits)
+    .where(inArray(audits.spaceId, spaceIds));
+  return row?.n ?? 0;
 }

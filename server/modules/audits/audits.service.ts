@@ -16,7 +16,7 @@ import type {
 import type { ChecklistItem } from "@shared/schemas/checklists";
 import type { ZoneType } from "@shared/zones";
 
-import type { Database } from "../../db/client";
+import type { Database, DbOrTx } from "../../db/client";
 import { AppError, forbidden, notFound } from "../../lib/app-error";
 import { recordChange, type Actor } from "../../lib/change-log";
 import { storeImage } from "../../lib/images";
@@ -100,6 +100,14 @@ export async function startAudit(
   }
   const space = await repo.findSpaceForAudit(deps.db, body.spaceId);
   if (!space) throw notFound("That space");
+  // An audit begun on a phone before the space was retired still arrives; a new one may not.
+  if (space.retiredAt && new Date(body.startedAt) >= space.retiredAt) {
+    throw new AppError(
+      "conflict",
+      409,
+      `${space.name} was retired on ${space.retiredAt.toISOString().slice(0, 10)} and takes no new audits. An administrator can restore it.`,
+    );
+  }
   await ensureDefaultChecklists(deps.db, auth.user.networkId);
   const version = await latestPublishedVersion(deps.db, auth.user.networkId, space.zoneType);
   if (!version) throw notFound("A checklist for this zone type");
@@ -461,6 +469,10 @@ export async function amendAudit(
 
 export const auditsOfSpace = (db: Database, spaceId: string, userId: string) =>
   repo.auditsOfSpace(db, spaceId, userId);
+
+/** How many audits, drafts included, the spaces have; any at all is history a delete must keep. */
+export const countAuditsOfSpaces = (db: DbOrTx, spaceIds: readonly string[]) =>
+  repo.countAuditsOfSpaces(db, spaceIds);
 
 /** What is due and overdue at a site: the latest submitted audit of each space plus its cadence. */
 export async function siteSchedule(

@@ -213,7 +213,7 @@ export const committeeQueries = {
       join corrective_actions ca
         on ca.site_id = b.id and ca.closed_at >= b.starts and ca.closed_at < b.ends
       ${zoneJoin(period.zoneType)}
-     where ca.status = 'closed'
+     where ca.status = 'closed' and ca.close_reason is distinct from 'space_retired'
      group by ca.site_id, ca.severity`,
 };
 

@@ -34,7 +34,8 @@ export function proportion(successes: number, n: number): Proportion {
 
 /** The sites the person may read, in name order. */
 export async function readableSites(db: Database, networkId: string, grants: readonly RoleGrant[]) {
-  return (await listSitesFor(db, networkId, grants)).map((site) => ({
+  // Retired sites stay in the figures: their audits happened.
+  return (await listSitesFor(db, networkId, grants, { includeRetired: true })).map((site) => ({
     id: site.id,
     name: site.name,
   }));

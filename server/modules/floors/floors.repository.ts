@@ -1,9 +1,9 @@
-import { and, asc, eq } from "drizzle-orm";
+import { and, asc, desc, eq, isNotNull, isNull, type SQL } from "drizzle-orm";
 
 import type { Fixture, Floor, Space, Suite } from "@shared/schemas/floors";
 
 import type { DbOrTx } from "../../db/client";
-import { fixtures, floors, spaces, suites } from "../../db/schema/index";
+import { fixtures, floors, spaces, suites, users } from "../../db/schema/index";
 
 type FloorRow = typeof floors.$inferSelect;
 
@@ -27,7 +27,7 @@ export async function listFloors(db: DbOrTx, siteId: string): Promise<Floor[]> {
   const rows = await db
     .select()
     .from(floors)
-    .where(eq(floors.siteId, siteId))
+    .where(and(eq(floors.siteId, siteId), isNull(floors.retiredAt)))
     .orderBy(asc(floors.building), asc(floors.level), asc(floors.name));
   return rows.map(toFloor);
 }
@@ -93,16 +93,17 @@ export async function floorContents(
       .from(suites)
       .where(eq(suites.floorId, floorId))
       .orderBy(asc(suites.name)),
+    // Retired spaces leave the map; their history is read through their audits and actions.
     db
       .select(spaceColumns)
       .from(spaces)
-      .where(eq(spaces.floorId, floorId))
+      .where(and(eq(spaces.floorId, floorId), isNull(spaces.retiredAt)))
       .orderBy(asc(spaces.name)),
     db
       .select(fixtureColumns)
       .from(fixtures)
       .innerJoin(spaces, eq(spaces.id, fixtures.spaceId))
-      .where(eq(spaces.floorId, floorId))
+      .where(and(eq(spaces.floorId, floorId), isNull(spaces.retiredAt)))
       .orderBy(asc(fixtures.createdAt)),
   ]);
   return { suites: suiteRows, spaces: spaceRows, fixtures: fixtureRows };
@@ -128,11 +129,20 @@ export async function findSuite(
 export async function findSpace(
   db: DbOrTx,
   spaceId: string,
-): Promise<(Space & { siteId: string }) | null> {
-  const [row] = await db
-    .select({ ...spaceColumns, siteId: spaces.siteId })
+  options: { lock?: boolean } = {},
+): Promise<
+  (Space & { siteId: string; retiredAt: Date | null; retirementId: string | null }) | null
+> {
+  const query = db
+    .select({
+      ...spaceColumns,
+      siteId: spaces.siteId,
+      retiredAt: spaces.retiredAt,
+      retirementId: spaces.retirementId,
+    })
     .from(spaces)
     .where(eq(spaces.id, spaceId));
+  const [row] = options.lock ? await query.for("update") : await query;
   return row ?? null;
 }
 
@@ -192,4 +202,103 @@ export async function updateFixture(
 
 export async function deleteFixture(db: DbOrTx, fixtureId: string): Promise<void> {
   await db.delete(fixtures).where(eq(fixtures.id, fixtureId));
+}
+
+export interface Retirement {
+  id: string;
+  at: Date;
+  by: string | null;
+}
+
+const retiredValues = (retirement: Retirement | null) => ({
+  retiredAt: retirement?.at ?? null,
+  retiredBy: retirement?.by ?? null,
+  retirementId: retirement?.id ?? null,
+  updatedAt: new Date(),
+});
+
+/** Retires the floors that match and are not retired yet; returns their ids. */
+export async function retireFloorsWhere(db: DbOrTx, where: SQL, retirement: Retirement) {
+  const rows = await db
+    .update(floors)
+    .set(retiredValues(retirement))
+    .where(and(where, isNull(floors.retiredAt)))
+    .returning({ id: floors.id });
+  return rows.map((row) => row.id);
+}
+
+/** Retires the spaces that match and are not retired yet; returns their ids. */
+export async function retireSpacesWhere(db: DbOrTx, where: SQL, retirement: Retirement) {
+  const rows = await db
+    .update(spaces)
+    .set(retiredValues(retirement))
+    .where(and(where, isNull(spaces.retiredAt)))
+    .returning({ id: spaces.id });
+  return rows.map((row) => row.id);
+}
+
+export const floorsOfSite = (siteId: string) => eq(floors.siteId, siteId);
+export const floorById = (floorId: string) => eq(floors.id, floorId);
+export const spacesOfSite = (siteId: string) => eq(spaces.siteId, siteId);
+export const spacesOfFloor = (floorId: string) => eq(spaces.floorId, floorId);
+export const spaceById = (spaceId: string) => eq(spaces.id, spaceId);
+
+/** Brings back exactly what one retirement hid; returns the floor and space ids restored. */
+export async function restoreRetirement(db: DbOrTx, retirementId: string) {
+  const floorRows = await db
+    .update(floors)
+    .set(retiredValues(null))
+    .where(eq(floors.retirementId, retirementId))
+    .returning({ id: floors.id });
+  const spaceRows = await db
+    .update(spaces)
+    .set(retiredValues(null))
+    .where(eq(spaces.retirementId, retirementId))
+    .returning({ id: spaces.id });
+  return { floorIds: floorRows.map((row) => row.id), spaceIds: spaceRows.map((row) => row.id) };
+}
+
+/** Every space of the floor, retired ones too (for history checks). */
+export async function allSpaceIdsOfFloor(db: DbOrTx, floorId: string) {
+  const rows = await db.select({ id: spaces.id }).from(spaces).where(eq(spaces.floorId, floorId));
+  return rows.map((row) => row.id);
+}
+
+export async function deleteFloor(db: DbOrTx, floorId: string): Promise<void> {
+  await db.delete(floors).where(eq(floors.id, floorId));
+}
+
+export async function retiredPlacesOfSite(db: DbOrTx, siteId: string) {
+  const [floorRows, spaceRows] = await Promise.all([
+    db
+      .select({
+        id: floors.id,
+        name: floors.name,
+        building: floors.building,
+        level: floors.level,
+        retiredAt: floors.retiredAt,
+        retiredByName: users.displayName,
+      })
+      .from(floors)
+      .leftJoin(users, eq(users.id, floors.retiredBy))
+      .where(and(eq(floors.siteId, siteId), isNotNull(floors.retiredAt)))
+      .orderBy(desc(floors.retiredAt), asc(floors.name)),
+    db
+      .select({
+        id: spaces.id,
+        name: spaces.name,
+        zoneType: spaces.zoneType,
+        floorId: spaces.floorId,
+        floorName: floors.name,
+        floorRetiredAt: floors.retiredAt,
+        retiredAt: spaces.retiredAt,
+        retiredByName: users.displayName,
+      })
+      .from(spaces)
+      .innerJoin(floors, eq(floors.id, spaces.floorId))
+      .leftJoin(users, eq(users.id, spaces.retiredBy))
+      .where(and(eq(spaces.siteId, siteId), isNotNull(spaces.retiredAt)))
+      .orderBy(desc(spaces.retiredAt), asc(spaces.name)),
+  ]);
+  return { floorRows, spaceRows };
 }

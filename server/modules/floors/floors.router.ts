@@ -14,9 +14,11 @@ import {
 } from "@shared/schemas/floors";
 
 import type { Permission } from "@shared/permissions";
+import { retirementBodySchema } from "@shared/schemas/retirement";
 
 import { readUpload } from "../../lib/images";
 import { defineRoute, type Access, type AppDeps } from "../../lib/routes";
+import * as retirement from "./floors.retirement";
 import * as floors from "./floors.service";
 
 type Resolve = (db: AppDeps["db"], id: string) => Promise<string | null>;
@@ -88,6 +90,102 @@ export const floorRoutes = [
     async handle(ctx) {
       ctx.res.json({
         floor: await floors.updateFloor(ctx.deps.db, ctx.params.floorId, ctx.body, actorOf(ctx)),
+      });
+    },
+  }),
+  defineRoute({
+    method: "delete",
+    path: "/floors/:floorId",
+    summary: "Delete a floor whose spaces have no history (409 otherwise: retire it)",
+    access: floor("update:site:site"),
+    params: floorParamsSchema,
+    async handle(ctx) {
+      await retirement.deleteFloor(ctx.deps.db, ctx.params.floorId, actorOf(ctx));
+      ctx.res.status(204).end();
+    },
+  }),
+  defineRoute({
+    method: "post",
+    path: "/floors/:floorId/retire",
+    summary: "Retire a floor and its spaces",
+    access: floor("update:site:site"),
+    params: floorParamsSchema,
+    body: retirementBodySchema,
+    async handle(ctx) {
+      ctx.res.json({
+        retirement: await retirement.retireFloor(
+          ctx.deps.db,
+          ctx.params.floorId,
+          ctx.body,
+          actorOf(ctx),
+        ),
+      });
+    },
+  }),
+  defineRoute({
+    method: "post",
+    path: "/floors/:floorId/restore",
+    summary: "Restore a floor and the spaces retired with it",
+    access: floor("update:site:site"),
+    params: floorParamsSchema,
+    body: retirementBodySchema,
+    async handle(ctx) {
+      ctx.res.json({
+        retirement: await retirement.restoreFloor(
+          ctx.deps.db,
+          ctx.params.floorId,
+          ctx.body,
+          actorOf(ctx),
+        ),
+      });
+    },
+  }),
+  defineRoute({
+    method: "get",
+    path: "/sites/:siteId/retired",
+    summary: "The site's retired floors and spaces, for administrators to restore",
+    access: site("update:site:site"),
+    params: siteFloorsParamsSchema,
+    async handle({ res, deps, params }) {
+      res.json(await retirement.retiredPlaces(deps.db, params.siteId));
+    },
+  }),
+  // A whole site is retired or restored by a network-wide administrator, who also creates sites.
+  defineRoute({
+    method: "post",
+    path: "/sites/:siteId/retire",
+    summary: "Retire a site with its floors and spaces",
+    access: site("create:site:network"),
+    params: siteFloorsParamsSchema,
+    body: retirementBodySchema,
+    async handle(ctx) {
+      ctx.res.json({
+        retirement: await retirement.retireSite(
+          ctx.deps.db,
+          ctx.auth!.user.networkId,
+          ctx.params.siteId,
+          ctx.body,
+          actorOf(ctx),
+        ),
+      });
+    },
+  }),
+  defineRoute({
+    method: "post",
+    path: "/sites/:siteId/restore",
+    summary: "Restore a site with the floors and spaces retired with it",
+    access: site("create:site:network"),
+    params: siteFloorsParamsSchema,
+    body: retirementBodySchema,
+    async handle(ctx) {
+      ctx.res.json({
+        retirement: await retirement.restoreSite(
+          ctx.deps.db,
+          ctx.auth!.user.networkId,
+          ctx.params.siteId,
+          ctx.body,
+          actorOf(ctx),
+        ),
       });
     },
   }),
@@ -164,12 +262,48 @@ export const floorRoutes = [
   defineRoute({
     method: "delete",
     path: "/spaces/:spaceId",
-    summary: "Remove a space and its fixtures",
+    summary: "Delete a space with no history (409 when it has audits or actions: retire it)",
     access: space("update:site:site"),
     params: spaceParamsSchema,
     async handle(ctx) {
-      await floors.deleteSpace(ctx.deps.db, ctx.params.spaceId, actorOf(ctx));
+      await retirement.deleteSpace(ctx.deps.db, ctx.params.spaceId, actorOf(ctx));
       ctx.res.status(204).end();
+    },
+  }),
+  defineRoute({
+    method: "post",
+    path: "/spaces/:spaceId/retire",
+    summary: "Retire a space: off the map and new audits, history kept, unclosed actions closed",
+    access: space("update:site:site"),
+    params: spaceParamsSchema,
+    body: retirementBodySchema,
+    async handle(ctx) {
+      ctx.res.json({
+        retirement: await retirement.retireSpace(
+          ctx.deps.db,
+          ctx.params.spaceId,
+          ctx.body,
+          actorOf(ctx),
+        ),
+      });
+    },
+  }),
+  defineRoute({
+    method: "post",
+    path: "/spaces/:spaceId/restore",
+    summary: "Restore a retired space and reopen the actions its retirement closed",
+    access: space("update:site:site"),
+    params: spaceParamsSchema,
+    body: retirementBodySchema,
+    async handle(ctx) {
+      ctx.res.json({
+        retirement: await retirement.restoreSpace(
+          ctx.deps.db,
+          ctx.params.spaceId,
+          ctx.body,
+          actorOf(ctx),
+        ),
+      });
     },
   }),
   defineRoute({

@@ -15,10 +15,17 @@ import { AppError, notFound } from "../../lib/app-error";
 import { recordChange, type Actor } from "../../lib/change-log";
 import { storeImage } from "../../lib/images";
 import type { Storage } from "../../lib/storage";
+import { lockSiteRetirement } from "../sites/sites.service";
 import * as repo from "./floors.repository";
 
 const invalid = (field: string, message: string) =>
   new AppError("validation_failed", 400, message, { fields: { [field]: message } });
+const retired = (what: string) =>
+  new AppError(
+    "conflict",
+    409,
+    `${what}. An administrator can restore it before anything is added.`,
+  );
 
 // Site resolution for the route registry: each returns the site a resource belongs to, or null.
 export const siteOfFloor = async (db: Database, floorId: string) =>
@@ -43,6 +50,9 @@ export function createFloor(
   actor: Actor,
 ): Promise<Floor> {
   return db.transaction(async (tx) => {
+    // Shares the lock a retirement of the site takes, so no floor slips in beside it.
+    const site = await lockSiteRetirement(tx, siteId);
+    if (site?.retiredAt) throw retired(`${site.name} is retired`);
     const floor = await repo.insertFloor(tx, { siteId, ...body });
     await recordChange(tx, actor, {
       action: "floor.created",
@@ -146,8 +156,9 @@ export function createSuite(
   actor: Actor,
 ): Promise<Suite> {
   return db.transaction(async (tx) => {
-    const floor = await repo.findFloorRow(tx, floorId);
+    const floor = await repo.findFloorRow(tx, floorId, { lock: true });
     if (!floor) throw notFound("That floor");
+    if (floor.retiredAt) throw retired(`${floor.name} is retired`);
     const suite = await repo.insertSuite(tx, floorId, name);
     await recordChange(tx, actor, {
       action: "suite.created",
@@ -178,8 +189,9 @@ export function createSpace(
   actor: Actor,
 ): Promise<Space> {
   return db.transaction(async (tx) => {
-    const floor = await repo.findFloorRow(tx, floorId);
+    const floor = await repo.findFloorRow(tx, floorId, { lock: true });
     if (!floor) throw notFound("That floor");
+    if (floor.retiredAt) throw retired(`${floor.name} is retired`);
     assertPolygonOnPlan(body.polygon, floor);
     if (body.suiteId && !(await repo.findSuite(tx, body.suiteId, floorId)))
       throw invalid("suiteId", "That suite is not on this floor.");
@@ -209,7 +221,7 @@ export function updateSpace(
     if (body.suiteId && !(await repo.findSuite(tx, body.suiteId, before.floorId)))
       throw invalid("suiteId", "That suite is not on this floor.");
     const space = await repo.updateSpace(tx, spaceId, body);
-    const { siteId, ...shownBefore } = before;
+    const { siteId, retiredAt: _retiredAt, retirementId: _retirementId, ...shownBefore } = before;
     await recordChange(tx, actor, {
       action: "space.updated",
       entity: "space",
@@ -219,22 +231,6 @@ export function updateSpace(
       after: space,
     });
     return space;
-  });
-}
-
-export function deleteSpace(db: Database, spaceId: string, actor: Actor): Promise<void> {
-  return db.transaction(async (tx) => {
-    const before = await repo.findSpace(tx, spaceId);
-    if (!before) throw notFound("That space");
-    await repo.deleteSpace(tx, spaceId);
-    const { siteId, ...shownBefore } = before;
-    await recordChange(tx, actor, {
-      action: "space.deleted",
-      entity: "space",
-      entityId: spaceId,
-      siteId,
-      before: shownBefore,
-    });
   });
 }
 
@@ -252,6 +248,7 @@ export function createFixture(
   return db.transaction(async (tx) => {
     const space = await repo.findSpace(tx, spaceId);
     if (!space) throw notFound("That space");
+    if (space.retiredAt) throw retired(`${space.name} is retired`);
     assertInside(space, body);
     const fixture = await repo.insertFixture(tx, { ...body, spaceId, siteId: space.siteId });
     await recordChange(tx, actor, {

@@ -1,9 +1,9 @@
-import { and, asc, eq, inArray } from "drizzle-orm";
+import { and, asc, desc, eq, inArray, isNotNull, isNull } from "drizzle-orm";
 
 import type { Site } from "@shared/schemas/site";
 
 import type { DbOrTx } from "../../db/client";
-import { networks, sites } from "../../db/schema/index";
+import { networks, sites, users } from "../../db/schema/index";
 
 const siteColumns = {
   id: sites.id,
@@ -18,14 +18,66 @@ export async function listSites(
   db: DbOrTx,
   networkId: string,
   onlyIds: string[] | null,
+  options: { includeRetired?: boolean } = {},
 ): Promise<Site[]> {
   if (onlyIds !== null && onlyIds.length === 0) return [];
   const scope = onlyIds === null ? undefined : inArray(sites.id, onlyIds);
   return db
     .select(siteColumns)
     .from(sites)
-    .where(and(eq(sites.networkId, networkId), scope))
+    .where(
+      and(
+        eq(sites.networkId, networkId),
+        scope,
+        options.includeRetired ? undefined : isNull(sites.retiredAt),
+      ),
+    )
     .orderBy(asc(sites.name));
+}
+
+/** The site with its retirement, locked for retiring or restoring it. */
+export async function lockSiteRetirement(db: DbOrTx, siteId: string, networkId?: string) {
+  const [row] = await db
+    .select({
+      id: sites.id,
+      name: sites.name,
+      retiredAt: sites.retiredAt,
+      retirementId: sites.retirementId,
+    })
+    .from(sites)
+    .where(and(eq(sites.id, siteId), networkId ? eq(sites.networkId, networkId) : undefined))
+    .for("update");
+  return row ?? null;
+}
+
+export async function setSiteRetirement(
+  db: DbOrTx,
+  siteId: string,
+  retirement: { id: string; at: Date; by: string | null } | null,
+) {
+  await db
+    .update(sites)
+    .set({
+      retiredAt: retirement?.at ?? null,
+      retiredBy: retirement?.by ?? null,
+      retirementId: retirement?.id ?? null,
+      updatedAt: new Date(),
+    })
+    .where(eq(sites.id, siteId));
+}
+
+export async function listRetiredSites(db: DbOrTx, networkId: string) {
+  return db
+    .select({
+      id: sites.id,
+      name: sites.name,
+      retiredAt: sites.retiredAt,
+      retiredByName: users.displayName,
+    })
+    .from(sites)
+    .leftJoin(users, eq(users.id, sites.retiredBy))
+    .where(and(eq(sites.networkId, networkId), isNotNull(sites.retiredAt)))
+    .orderBy(desc(sites.retiredAt), asc(sites.name));
 }
 
 export async function findSite(

@@ -1,7 +1,13 @@
 import { createSiteBodySchema, siteParamsSchema, updateSiteBodySchema } from "@shared/schemas/site";
 
 import { defineRoute, type Access } from "../../lib/routes";
-import { createSite, listSitesFor, requireSite, updateSite } from "./sites.service";
+import {
+  createSite,
+  listRetiredSites,
+  listSitesFor,
+  requireSite,
+  updateSite,
+} from "./sites.service";
 
 const siteOfParam = (permission: "read:site:site" | "update:site:site"): Access => ({
   kind: "site",
@@ -31,6 +37,15 @@ export const siteRoutes = [
         requestId,
       });
       res.status(201).json({ site });
+    },
+  }),
+  defineRoute({
+    method: "get",
+    path: "/retired-sites",
+    summary: "The network's retired sites, for a network-wide administrator to restore",
+    access: { kind: "network", permission: "create:site:network" },
+    async handle({ res, deps, auth }) {
+      res.json({ sites: await listRetiredSites(deps.db, auth!.user.networkId) });
     },
   }),
   defineRoute({

@@ -1,4 +1,5 @@
 import type { RoleGrant } from "@shared/roles";
+import type { RetiredSite } from "@shared/schemas/retirement";
 import type { CreateSiteBody, Site, UpdateSiteBody } from "@shared/schemas/site";
 
 import type { Database } from "../../db/client";
@@ -16,11 +17,22 @@ export function listSitesFor(
   db: Database,
   networkId: string,
   grants: readonly RoleGrant[],
+  options: { includeRetired?: boolean } = {},
 ): Promise<Site[]> {
   const networkWide = grants.some((grant) => grant.siteId === null);
   const ids = [...new Set(grants.flatMap((grant) => (grant.siteId ? [grant.siteId] : [])))];
-  return repo.listSites(db, networkId, networkWide ? null : ids);
+  return repo.listSites(db, networkId, networkWide ? null : ids, options);
 }
+
+/** Retired sites of the network, most recently retired first. */
+export async function listRetiredSites(db: Database, networkId: string): Promise<RetiredSite[]> {
+  const rows = await repo.listRetiredSites(db, networkId);
+  return rows.map((row) => ({ ...row, retiredAt: row.retiredAt!.toISOString() }));
+}
+
+// Used by the retirement of places (floors module), inside its transaction.
+export const lockSiteRetirement = repo.lockSiteRetirement;
+export const setSiteRetirement = repo.setSiteRetirement;
 
 /** The network's name, as reports print it. */
 export async function networkName(db: Database, networkId: string): Promise<string> {

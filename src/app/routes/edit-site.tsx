@@ -13,6 +13,7 @@ import { duePolicyQueryOptions } from "@/features/actions/api/get-due-policy";
 import { DuePolicyForm } from "@/features/actions/components/due-policy-form";
 import { siteQueryOptions, useSite } from "@/features/sites/api/get-site";
 import { EditSiteForm } from "@/features/sites/components/site-form";
+import { SiteRetirement } from "@/features/sites/components/site-retirement";
 import { isApiError } from "@/lib/api-client";
 import { useAuthorization } from "@/lib/authorization";
 
@@ -46,6 +47,7 @@ function SiteMissing() {
 
 function EditSite({ siteId }: { siteId: string }) {
   const navigate = useNavigate();
+  const { can } = useAuthorization();
   const site = useSite(siteId);
 
   if (site.isPending) return <Spinner label="Loading site…" className="py-8" />;
@@ -78,6 +80,17 @@ function EditSite({ siteId }: { siteId: string }) {
         <h2 className="mb-2 text-lg font-semibold">Due times for corrective actions</h2>
         <DuePolicyForm siteId={siteId} />
       </Card>
+      {can("create:site:network") ? (
+        <div className="mt-6">
+          <SiteRetirement
+            siteId={siteId}
+            siteName={site.data.name}
+            onRetired={(notice) =>
+              void navigate(paths.home.getHref(), { replace: true, state: { notice } })
+            }
+          />
+        </div>
+      ) : null}
     </>
   );
 }

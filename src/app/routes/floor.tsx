@@ -17,6 +17,7 @@ import { applyPinFilter, type PinFilter, showAllPins } from "@/features/actions/
 import { actionPinHtml, actionPinTitle } from "@/features/actions/lib/action-pins";
 import { floorQueryOptions, useFloor } from "@/features/floor-plans/api/get-floor";
 import { FloorPlanView } from "@/features/floor-plans/components/floor-plan-view";
+import { FloorRetirement } from "@/features/floor-plans/components/floor-retirement";
 import type { MapPin } from "@/features/floor-plans/lib/map-pins";
 import { siteQueryOptions, useSite } from "@/features/sites/api/get-site";
 import { isApiError } from "@/lib/api-client";
@@ -150,6 +151,16 @@ function FloorPage({ siteId, floorId }: { siteId: string; floorId: string }) {
             </>
           )}
         />
+        {can("update:site:site", siteId) ? (
+          <FloorRetirement
+            floorId={floorId}
+            floorName={name}
+            spaceCount={floor.data.spaces.length}
+            onGone={(notice) =>
+              void navigate(paths.site.getHref(siteId), { replace: true, state: { notice } })
+            }
+          />
+        ) : null}
         <CautionNote />
       </div>
     </>

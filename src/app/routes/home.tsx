@@ -1,5 +1,7 @@
 import type { QueryClient } from "@tanstack/react-query";
-import { Link } from "react-router-dom";
+import { Link, useLocation } from "react-router-dom";
+
+import { Alert } from "@/components/ui/alert";
 
 import { buttonStyles } from "@/components/ui/button";
 import { paths } from "@/config/paths";
@@ -8,6 +10,7 @@ import { ActionsToVerify } from "@/features/actions/components/actions-to-verify
 import { MyActions } from "@/features/actions/components/my-actions";
 import { UndeliveredMailNotice } from "@/features/admin/components/undelivered-mail-notice";
 import { sitesQueryOptions } from "@/features/sites/api/get-sites";
+import { RetiredSites } from "@/features/sites/components/retired-sites";
 import { SitesList } from "@/features/sites/components/sites-list";
 import { MyDueAudits } from "@/features/walkthroughs/components/my-due-audits";
 import { useAuthorization } from "@/lib/authorization";
@@ -29,6 +32,7 @@ function firstName(name: string): string {
 export function HomeRoute() {
   const me = useSignedInPerson();
   const { can, canAnywhere } = useAuthorization();
+  const notice = (useLocation().state as { notice?: string } | null)?.notice;
   return (
     <>
       <title>My sites · Lintel</title>
@@ -45,6 +49,11 @@ export function HomeRoute() {
           </Link>
         ) : null}
       </div>
+      {notice ? (
+        <Alert role="status" tone="success" className="mb-6">
+          {notice}
+        </Alert>
+      ) : null}
       {can("resend:mail:network") ? (
         <UndeliveredMailNotice href={paths.undeliveredMail.getHref()} />
       ) : null}
@@ -56,6 +65,7 @@ export function HomeRoute() {
         <MyDueAudits startHref={(spaceId) => paths.startAudit.getHref(spaceId)} />
       ) : null}
       <SitesList />
+      {can("create:site:network") ? <RetiredSites /> : null}
     </>
   );
 }

@@ -1,7 +1,7 @@
 import { roleLabels } from "@shared/roles";
 import { siteParamsSchema } from "@shared/schemas/site";
 import type { QueryClient } from "@tanstack/react-query";
-import { Link, type LoaderFunctionArgs, useParams } from "react-router-dom";
+import { Link, type LoaderFunctionArgs, useLocation, useParams } from "react-router-dom";
 
 import { Alert } from "@/components/ui/alert";
 import { Button, buttonStyles } from "@/components/ui/button";
@@ -14,6 +14,7 @@ import { siteActionsQueryOptions } from "@/features/actions/api/get-site-actions
 import { SiteActionsSummary } from "@/features/actions/components/site-actions-summary";
 import { floorsQueryOptions } from "@/features/floor-plans/api/get-floors";
 import { FloorsSection } from "@/features/floor-plans/components/floors-section";
+import { RetiredPlacesSection } from "@/features/floor-plans/components/retired-places-section";
 import { siteQueryOptions, useSite } from "@/features/sites/api/get-site";
 import { SiteDetails } from "@/features/sites/components/site-details";
 import { siteScheduleQueryOptions } from "@/features/walkthroughs/api/get-site-schedule";
@@ -58,6 +59,7 @@ function SiteOverview({ siteId }: { siteId: string }) {
   const { can } = useAuthorization();
   const site = useSite(siteId);
   const canEdit = can("update:site:site", siteId);
+  const notice = (useLocation().state as { notice?: string } | null)?.notice;
 
   if (site.isPending) return <Spinner label="Loading site…" className="py-8" />;
   if (site.isError) {
@@ -105,6 +107,11 @@ function SiteOverview({ siteId }: { siteId: string }) {
       </div>
 
       <div className="mt-6 flex flex-col gap-6">
+        {notice ? (
+          <Alert role="status" tone="success">
+            {notice}
+          </Alert>
+        ) : null}
         <DueSection
           siteId={siteId}
           canStart={can("conduct:audit:site", siteId)}
@@ -132,6 +139,10 @@ function SiteOverview({ siteId }: { siteId: string }) {
         />
 
         <SiteActionsSummary siteId={siteId} listHref={paths.siteActions.getHref(siteId)} />
+
+        {canEdit ? (
+          <RetiredPlacesSection siteId={siteId} historyHref={paths.spaceAudits.getHref} />
+        ) : null}
 
         <CautionNote />
       </div>

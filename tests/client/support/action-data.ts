@@ -54,6 +54,8 @@ export function buildAction(overrides: Partial<ActionSummary> = {}): ActionSumma
     dueAt: "2026-03-31T08:00:00.000Z",
     closedAt: null,
     daysToClose: null,
+    closeReason: null,
+    spaceRetiredAt: null,
     overdue: false,
     findingCount: 1,
     position: { x: 975, y: 225 },

@@ -107,6 +107,7 @@ export function buildDetail(
       spaceId: overrides.spaceId ?? doffingSpaceId,
       spaceName: overrides.spaceName ?? "Doffing area 1",
       zoneType: overrides.zoneType ?? "doffing_area",
+      spaceRetiredAt: null,
       checklistVersionId: "3b4c5d6e-7f80-4a9b-8c1d-2e3f4a5b6c7d",
       checklistVersion: 1,
       auditorId: "2d8b4c1e-5f6a-4b7c-8d9e-0f1a2b3c4d5e",

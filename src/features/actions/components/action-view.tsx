@@ -5,11 +5,12 @@ import { actionStatusLabels } from "@shared/schemas/actions";
 import type { ReactNode } from "react";
 import { Link } from "react-router-dom";
 
+import { Alert } from "@/components/ui/alert";
 import { Card } from "@/components/ui/card";
 import { CautionNote } from "@/components/ui/caution-note";
 import { linkStyles } from "@/components/ui/text-link";
 
-import { daysToCloseText, dueText, timelineLabels } from "../lib/action-labels";
+import { closeReasonText, daysToCloseText, dueText, timelineLabels } from "../lib/action-labels";
 import { actionImageHref } from "../lib/action-images";
 import { OverdueMark, SeverityBadge, StatusBadge } from "./action-badges";
 
@@ -195,7 +196,20 @@ export function ActionView({ detail, siteHref, floorHref, location, moves }: Act
             <dd className="font-semibold">{daysToCloseText(action.daysToClose)}</dd>
           </div>
         ) : null}
+        {action.status === "closed" ? (
+          <div>
+            <dt className="text-ink-muted">Why it closed</dt>
+            <dd className="font-semibold">{closeReasonText(action)}</dd>
+          </div>
+        ) : null}
       </dl>
+      {action.spaceRetiredAt ? (
+        <Alert tone="info" className="mt-4">
+          {action.spaceName} was retired on {atSite(action.spaceRetiredAt, zone)}. It is off the
+          plan and takes no new audits; an administrator can restore it, which reopens the actions
+          its retirement closed.
+        </Alert>
+      ) : null}
 
       <div className="mt-6 grid gap-6 lg:grid-cols-[minmax(0,1fr)_24rem]">
         <div className="flex min-w-0 flex-col gap-6">

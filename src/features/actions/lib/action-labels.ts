@@ -30,4 +30,13 @@ export const timelineLabels: Record<TimelineKind, string> = {
   verified: "Verified and closed",
   rejected: "Proof rejected",
   reopened: "Reopened",
+  space_retired: "Closed: space retired",
+  space_restored: "Reopened: space restored",
 };
+
+/** Why a closed action closed, in words; a retirement is never shown as a fix. */
+export function closeReasonText(action: Pick<ActionSummary, "closeReason">): string {
+  return action.closeReason === "space_retired"
+    ? "Space retired — not counted as fixed"
+    : "Verified fixed by an auditor";
+}

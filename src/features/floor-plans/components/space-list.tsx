@@ -6,10 +6,12 @@ import { Alert } from "@/components/ui/alert";
 import { Badge } from "@/components/ui/badge";
 import { Button } from "@/components/ui/button";
 import { ConfirmStep } from "@/components/ui/confirm-step";
+import { isApiError } from "@/lib/api-client";
 import { cn } from "@/lib/cn";
 
 import { useDeleteFixture } from "../api/delete-fixture";
 import { useDeleteSpace } from "../api/delete-space";
+import { useRetireSpace } from "../api/retire-space";
 import { formatArea, planAreaSquareMetres } from "../lib/measurements";
 import { groupSpacesBySuite, spaceTitle } from "../lib/space-groups";
 import { FixtureSymbol, ZoneSwatch } from "./symbols";
@@ -104,8 +106,10 @@ function SpaceItem({
   actions,
 }: SpaceItemProps) {
   const remove = useDeleteSpace(floorId);
-  const [confirming, setConfirming] = useState(false);
-  const trigger = useRef<HTMLButtonElement>(null);
+  const retire = useRetireSpace();
+  const [confirming, setConfirming] = useState<"delete" | "retire" | null>(null);
+  const deleteTrigger = useRef<HTMLButtonElement>(null);
+  const retireTrigger = useRef<HTMLButtonElement>(null);
   const title = spaceTitle(space);
   const area = spaceAreaText(space, metresPerUnit);
 
@@ -148,36 +152,93 @@ function SpaceItem({
         <p className="mt-1 text-sm text-ink-muted">No fixtures placed yet.</p>
       )}
       {canEdit && !confirming ? (
-        <Button
-          ref={trigger}
-          variant="quiet"
-          className="mt-1 -ml-2 px-3"
-          onClick={() => {
-            remove.reset();
-            setConfirming(true);
-          }}
-        >
-          Delete space <span className="sr-only">{title}</span>
-        </Button>
+        <div className="mt-1 -ml-2 flex flex-wrap gap-1">
+          <Button
+            ref={retireTrigger}
+            variant="quiet"
+            className="px-3"
+            onClick={() => {
+              retire.reset();
+              setConfirming("retire");
+            }}
+          >
+            Retire space <span className="sr-only">{title}</span>
+          </Button>
+          <Button
+            ref={deleteTrigger}
+            variant="quiet"
+            className="px-3"
+            onClick={() => {
+              remove.reset();
+              setConfirming("delete");
+            }}
+          >
+            Delete space <span className="sr-only">{title}</span>
+          </Button>
+        </div>
       ) : null}
-      {confirming ? (
+      {confirming === "retire" ? (
+        <ConfirmStep
+          className="mt-2"
+          title={`Retire ${title}?`}
+          confirmLabel="Retire space"
+          pending={retire.isPending}
+          returnFocusRef={retireTrigger}
+          onCancel={() => setConfirming(null)}
+          onConfirm={() => retire.mutate({ spaceId: space.id })}
+        >
+          <p className="text-sm">
+            It leaves the plan, the due list, QR sheets and new audits. Its audits, findings and
+            corrective actions are kept in its history, in exports and in the committee&apos;s
+            figures.
+          </p>
+          <p className="text-sm">
+            Corrective actions still open here are closed with the reason &ldquo;space
+            retired&rdquo;; they do not count as fixed.
+          </p>
+          <p className="text-sm">
+            An administrator can restore it from &ldquo;Retired floors and spaces&rdquo; on the site
+            page.
+          </p>
+          {retire.isError ? (
+            <Alert role="alert" tone="error">
+              {failureMessage(retire.error)}
+            </Alert>
+          ) : null}
+        </ConfirmStep>
+      ) : null}
+      {confirming === "delete" ? (
         <ConfirmStep
           className="mt-2"
           title={`Delete ${title}?`}
           confirmLabel="Delete space"
           pending={remove.isPending}
-          returnFocusRef={trigger}
-          onCancel={() => setConfirming(false)}
+          returnFocusRef={deleteTrigger}
+          onCancel={() => setConfirming(null)}
           onConfirm={() => remove.mutate(space.id)}
         >
           <p className="text-sm">
             {fixtures.length === 0
-              ? "Its outline is removed from the plan."
-              : `Its outline and its ${fixtures.length === 1 ? "fixture are" : `${fixtures.length} fixtures are`} removed from the plan.`}
+              ? "Its outline is removed from the plan for good."
+              : `Its outline and its ${fixtures.length === 1 ? "fixture are" : `${fixtures.length} fixtures are`} removed from the plan for good.`}{" "}
+            Only a space that was never audited and has no corrective actions can be deleted;
+            otherwise retire it.
           </p>
           {remove.isError ? (
             <Alert role="alert" tone="error">
-              {failureMessage(remove.error)}
+              <p>{failureMessage(remove.error)}</p>
+              {isApiError(remove.error) && remove.error.status === 409 ? (
+                <Button
+                  variant="secondary"
+                  className="mt-3"
+                  onClick={() => {
+                    retire.reset();
+                    setConfirming("retire");
+                  }}
+                >
+                  Retire instead
+                </Button>
+              ) : null}
             </Alert>
           ) : null}
         </ConfirmStep>

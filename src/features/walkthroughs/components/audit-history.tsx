@@ -64,6 +64,7 @@ export function AuditHistory({ spaceId, auditHref, startAction, backLink }: Audi
   const spaceName =
     audits.data?.[0]?.spaceName ?? onPhone[0]?.detail?.audit.spaceName ?? onPhone[0]?.spaceName;
   const siteId = audits.data?.[0]?.siteId ?? onPhone[0]?.detail?.audit.siteId ?? null;
+  const retiredAt = audits.data?.[0]?.spaceRetiredAt ?? null;
 
   if (audits.isError && isApiError(audits.error) && audits.error.status === 404) {
     return (
@@ -87,8 +88,14 @@ export function AuditHistory({ spaceId, auditHref, startAction, backLink }: Audi
           </h1>
           {spaceName ? <p className="mt-1 text-ink-muted">Audit history</p> : null}
         </div>
-        {startAction?.(siteId)}
+        {retiredAt ? <Badge tone="muted">Retired</Badge> : startAction?.(siteId)}
       </div>
+      {retiredAt ? (
+        <Alert tone="info" className="mb-6">
+          This space was retired on {formatDateTime(retiredAt)}. Its audits stay here and in the
+          committee&apos;s figures; it takes no new audits unless an administrator restores it.
+        </Alert>
+      ) : null}
 
       <div className="flex flex-col gap-6">
         {waiting.length > 0 ? (

@@ -1,0 +1,34 @@
+import { retirementResultSchema } from "@shared/schemas/retirement";
+import {
+  mutationOptions,
+  type QueryClient,
+  useMutation,
+  useQueryClient,
+} from "@tanstack/react-query";
+
+import { apiRequest } from "@/lib/api-client";
+
+/** Retires a whole site with its floors and spaces (network-wide administrators). */
+export async function retireSite(siteId: string, reason?: string) {
+  const { retirement } = await apiRequest(`/api/sites/${encodeURIComponent(siteId)}/retire`, {
+    method: "POST",
+    body: reason ? { reason } : {},
+    schema: retirementResultSchema,
+  });
+  return retirement;
+}
+
+export function retireSiteMutationOptions(queryClient: QueryClient) {
+  return mutationOptions({
+    mutationKey: ["sites", "retire"],
+    mutationFn: (input: { siteId: string; reason?: string }) =>
+      retireSite(input.siteId, input.reason),
+    // Site lists, floors, due lists and actions all change: refresh every cached read.
+    onSuccess: () => queryClient.invalidateQueries(),
+  });
+}
+
+export function useRetireSite() {
+  const queryClient = useQueryClient();
+  return useMutation(retireSiteMutationOptions(queryClient));
+}
