@@ -11,13 +11,21 @@ export interface NewMail {
   html: string | null;
 }
 
-/** Call inside the transaction of the change that causes the e-mail. */
-export async function enqueueMail(tx: DbOrTx, mail: NewMail): Promise<string> {
+/**
+ * Call inside the transaction of the change that causes the e-mail, naming the person it is for
+ * (their row decides which network's lists show it).
+ */
+export async function enqueueMail(
+  tx: DbOrTx,
+  mail: NewMail,
+  recipient: { id: string } | null,
+): Promise<string> {
   const [row] = await tx
     .insert(outbox)
     .values({
       topic: mail.topic,
       recipient: mail.to,
+      recipientId: recipient?.id ?? null,
       subject: mail.subject,
       textBody: mail.text,
       htmlBody: mail.html,

@@ -255,13 +255,17 @@ describe("when PostgreSQL goes away", () => {
     expect(written.status).toBe(201);
     const check = connectDatabase(url, { max: 1 });
     try {
-      const mailId = await enqueueMail(check.db, {
-        topic: "outage-check",
-        to: "after-outage@example.org",
-        subject: "Sent after PostgreSQL came back",
-        text: "The e-mail worker carries on.",
-        html: null,
-      });
+      const mailId = await enqueueMail(
+        check.db,
+        {
+          topic: "outage-check",
+          to: "after-outage@example.org",
+          subject: "Sent after PostgreSQL came back",
+          text: "The e-mail worker carries on.",
+          html: null,
+        },
+        null,
+      );
       await until(
         "the e-mail worker sends",
         async () => {

@@ -4,7 +4,7 @@ import path from "node:path";
 
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
 
-import { insertNetwork, insertSite } from "../factories/records";
+import { insertGrant, insertNetwork, insertSite, insertUser } from "../factories/records";
 import { api, createTestApp, type TestApp } from "../helpers/app";
 import { signInAs, type SignedInPerson } from "../helpers/auth";
 import { createMailTestApp, type MailTestApp } from "../helpers/mail";
@@ -63,6 +63,48 @@ describe("demo mailbox", () => {
     expect(recipients(seenByB.body)).toEqual(["orla.venn@example.org"]);
     // Nothing of the other network's invitation reaches the page, not even its link.
     expect(JSON.stringify(seenByA.body)).not.toContain("orla.venn");
+  });
+
+  it("when one address has an account in network B and a pending invitation from network A, then neither network's mailbox shows the other's mail to it", async () => {
+    const address = `wren.halloway.${Date.now()}@example.org`;
+    const { db } = mail.deps;
+    const held = await insertUser(db, adminB.user.networkId, {
+      email: address,
+      displayName: "Wren Halloway",
+      password: "a passphrase of network B",
+    });
+    await insertGrant(db, held.id, "auditor", siteB);
+
+    // Network A invites the address; its holder is told by e-mail, network B is told nothing.
+    const invite = await as(adminA)
+      .post("/api/people/invitations")
+      .send({
+        email: address,
+        name: "Wren Halloway",
+        grants: [{ role: "auditor", siteId: siteA }],
+      });
+    expect(invite.status).toBe(201);
+    // Network B's account asks for a reset link: its mail carries a live link into network B.
+    const reset = await api(mail.app).post("/api/auth/password-reset").send({ email: address });
+    expect(reset.status).toBeLessThan(300);
+    await mail.catcher.waitFor(
+      (messages) => messages.filter((message) => message.to.includes(address)).length >= 2,
+    );
+
+    const subjectsTo = async (person: SignedInPerson) => {
+      const response = await as(person).get("/api/dev/mailbox");
+      expect(response.status).toBe(200);
+      return (response.body.messages as { to: string[]; subject: string; text: string }[]).filter(
+        (message) => message.to.includes(address),
+      );
+    };
+    const seenByA = await subjectsTo(adminA);
+    const seenByB = await subjectsTo(adminB);
+    expect(seenByA).toHaveLength(1);
+    expect(seenByB).toHaveLength(1);
+    expect(JSON.stringify(seenByA)).not.toContain("/reset-password/");
+    expect(JSON.stringify(seenByB)).toContain("/reset-password/");
+    expect(seenByB[0]!.subject).not.toBe(seenByA[0]!.subject);
   });
 
   it("when the catcher is running, then the installation says the mailbox exists", async () => {

@@ -30,7 +30,7 @@ describe("e-mail outbox", () => {
     await mail.catcher.stop();
     const ids: string[] = [];
     for (let n = 0; n < 10; n += 1) {
-      ids.push(await db.transaction((tx) => enqueueMail(tx, event(n, "down"))));
+      ids.push(await db.transaction((tx) => enqueueMail(tx, event(n, "down"), null)));
       mail.deps.notifyOutbox();
     }
     // The worker has tried and failed at least once while the server was down.
@@ -61,7 +61,7 @@ describe("e-mail outbox", () => {
     await mail.worker.stop();
     const ids = await db.transaction(async (tx) => {
       const made: string[] = [];
-      for (let n = 0; n < 20; n += 1) made.push(await enqueueMail(tx, event(n, "two")));
+      for (let n = 0; n < 20; n += 1) made.push(await enqueueMail(tx, event(n, "two"), null));
       return made;
     });
     const [first, second] = [mail.extraWorker(), mail.extraWorker()];
@@ -76,7 +76,7 @@ describe("e-mail outbox", () => {
     const { db } = mail.deps;
     await expect(
       db.transaction(async (tx) => {
-        await enqueueMail(tx, event(1, "rollback"));
+        await enqueueMail(tx, event(1, "rollback"), null);
         throw new Error("the change failed");
       }),
     ).rejects.toThrow("the change failed");
@@ -86,7 +86,7 @@ describe("e-mail outbox", () => {
   it("when a process died while sending, then the e-mail is marked uncertain and never sent again", async () => {
     const { db } = mail.deps;
     await mail.worker.stop();
-    const id = await db.transaction((tx) => enqueueMail(tx, event(1, "died")));
+    const id = await db.transaction((tx) => enqueueMail(tx, event(1, "died"), null));
     // A worker claims the row and its process stops before the send finishes.
     expect((await claimNext(db, "worker-that-died"))?.id).toBe(id);
     await db
@@ -110,7 +110,7 @@ describe("e-mail outbox", () => {
     });
     const { db } = mail.deps;
     await mail.catcher.stop();
-    const id = await db.transaction((tx) => enqueueMail(tx, event(1, "fail")));
+    const id = await db.transaction((tx) => enqueueMail(tx, event(1, "fail"), null));
     mail.deps.notifyOutbox();
     await expect
       .poll(async () => (await db.select().from(outbox).where(eq(outbox.id, id)))[0]!.status, {

@@ -1,5 +1,7 @@
 import { index, integer, pgEnum, pgTable, text, timestamp, uuid } from "drizzle-orm/pg-core";
 
+import { users } from "./users";
+
 export const outboxStatusEnum = pgEnum("outbox_status", [
   "pending",
   "sending",
@@ -19,6 +21,11 @@ export const outbox = pgTable(
     id: uuid("id").primaryKey().defaultRandom(),
     topic: text("topic").notNull(),
     recipient: text("recipient").notNull(),
+    /**
+     * The person the e-mail is for. An address may belong to an account in one network and to a
+     * pending invitation in another, so a network's lists of its mail follow this, never the address.
+     */
+    recipientId: uuid("recipient_id").references(() => users.id, { onDelete: "set null" }),
     subject: text("subject").notNull(),
     /** Dropped once sent: bodies may carry one-time links. */
     textBody: text("text_body"),
@@ -32,5 +39,8 @@ export const outbox = pgTable(
     lastError: text("last_error"),
     createdAt: timestamp("created_at", { withTimezone: true }).notNull().defaultNow(),
   },
-  (table) => [index("outbox_due_idx").on(table.status, table.nextAttemptAt)],
+  (table) => [
+    index("outbox_due_idx").on(table.status, table.nextAttemptAt),
+    index("outbox_recipient_idx").on(table.recipientId),
+  ],
 );

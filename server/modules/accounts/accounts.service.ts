@@ -162,6 +162,7 @@ export async function requestPasswordReset(
         link,
         minutes: deps.env.LINTEL_PASSWORD_RESET_MINUTES,
       }),
+      person,
     );
     await recordChange(
       tx,

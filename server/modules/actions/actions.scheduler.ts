@@ -61,7 +61,7 @@ export function createActionScheduler(options: ActionSchedulerOptions) {
             : notice.kind === "due-soon"
               ? mails.dueSoonMail(facts)
               : mails.reminderMail(facts, notice.weeks!);
-        await enqueueMail(tx, mail);
+        await enqueueMail(tx, mail, assignee);
         return true;
       });
       if (sent) queued += 1;

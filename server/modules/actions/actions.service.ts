@@ -342,6 +342,7 @@ export async function recordFindings(
           ),
           null,
         ),
+        lead,
       );
       queued += 1;
     }
@@ -534,6 +535,7 @@ export async function sendForVerification(move: Move, note: string): Promise<Act
           move.auth.user.name,
           note,
         ),
+        auditor,
       );
     }
     return auditors.length;
@@ -577,7 +579,7 @@ async function tellAssignee(
   if (!row.assigneeId) return 0;
   const assignee = await repo.findPerson(tx, row.assigneeId);
   if (!assignee) return 0;
-  await enqueueMail(tx, build(mailFacts(move.deps.env, row, assignee)));
+  await enqueueMail(tx, build(mailFacts(move.deps.env, row, assignee)), assignee);
   return 1;
 }
 
@@ -662,6 +664,7 @@ export async function assignAction(move: Move, assigneeId: string): Promise<Acti
     await enqueueMail(
       tx,
       mails.assignedMail(mailFacts(move.deps.env, row, assignee), move.auth.user.name),
+      assignee,
     );
     return 1;
   });

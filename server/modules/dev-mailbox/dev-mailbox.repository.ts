@@ -1,13 +1,23 @@
-import { eq, sql } from "drizzle-orm";
+import { and, eq, inArray } from "drizzle-orm";
 
 import type { DbOrTx } from "../../db/client";
-import { users } from "../../db/schema/index";
+import { outbox, users } from "../../db/schema/index";
 
-/** Every address of the network's people, invited ones included, lower-cased. */
-export async function addressesOfNetwork(db: DbOrTx, networkId: string): Promise<Set<string>> {
+/**
+ * Of the outbox ids given, those queued for a person of the network. An address may be held by
+ * an account in one network and by a pending invitation in another, so the person the e-mail
+ * was queued for decides, not the address.
+ */
+export async function mailIdsOfNetwork(
+  db: DbOrTx,
+  networkId: string,
+  ids: readonly string[],
+): Promise<Set<string>> {
+  if (ids.length === 0) return new Set();
   const rows = await db
-    .select({ email: sql<string>`lower(${users.email})` })
-    .from(users)
-    .where(eq(users.networkId, networkId));
-  return new Set(rows.map((row) => row.email));
+    .select({ id: outbox.id })
+    .from(outbox)
+    .innerJoin(users, eq(users.id, outbox.recipientId))
+    .where(and(eq(users.networkId, networkId), inArray(outbox.id, [...ids])));
+  return new Set(rows.map((row) => row.id));
 }

@@ -1,11 +1,12 @@
 import { readdir, readFile } from "node:fs/promises";
 import path from "node:path";
 
+import { responseText } from "@shared/schemas/common";
 import { mailboxMessageSchema, type MailboxMessage } from "@shared/schemas/people";
 
 import type { AppDeps } from "../../lib/routes";
 import { defineRoute } from "../../lib/routes";
-import { addressesOfNetwork } from "./dev-mailbox.repository";
+import { mailIdsOfNetwork } from "./dev-mailbox.repository";
 
 /** The catcher's inbox exists only where the process running this app also runs the catcher. */
 const mailCatcherRuns = (deps: AppDeps) => deps.mailCatcherDir !== null;
@@ -19,31 +20,49 @@ function parseJson(raw: string): unknown {
   }
 }
 
+/** The outbox row a message was sent from: its Message-ID is `<outbox id@host>`. */
+const outboxIdPattern = /^<([0-9a-f]{8}-[0-9a-f]{4}-[0-9a-f]{4}-[0-9a-f]{4}-[0-9a-f]{12})@[^>]*>$/i;
+
+/** A file the catcher wrote: the message the page shows, and the Message-ID it arrived with. */
+const caughtFileSchema = mailboxMessageSchema.extend({ messageId: responseText().nullable() });
+
+/** How many of the newest files one request looks through. */
+const filesScanned = 2000;
+
 /**
- * The newest `limit` messages whose every recipient is one of `addresses`. An e-mail address
- * belongs to one person, and a person to one network, so a network's administrators read only
- * what was sent to their own people.
+ * The newest `limit` messages that Lintel queued for people of the network. The outbox row names
+ * the person each e-mail was for, so a network's administrators read only what was sent to their
+ * own people, even where another network's pending invitation shares an address.
  */
 async function readMailbox(
-  dir: string,
-  addresses: ReadonlySet<string>,
+  deps: AppDeps,
+  networkId: string,
   limit: number,
 ): Promise<MailboxMessage[]> {
+  const dir = deps.mailCatcherDir!;
   const files = (await readdir(dir).catch(() => [] as string[]))
     .filter((name) => name.endsWith(".json"))
     .sort()
-    .reverse();
-  const messages: MailboxMessage[] = [];
+    .reverse()
+    .slice(0, filesScanned);
+  const candidates: { id: string; message: MailboxMessage }[] = [];
   for (const file of files) {
-    if (messages.length >= limit) break;
     const raw = await readFile(path.join(dir, file), "utf8").catch(() => "");
-    const parsed = mailboxMessageSchema.safeParse(parseJson(raw));
+    const parsed = caughtFileSchema.safeParse(parseJson(raw));
     if (!parsed.success) continue;
-    const { to } = parsed.data;
-    if (to.length > 0 && to.every((address) => addresses.has(address.toLowerCase())))
-      messages.push(parsed.data);
+    const { messageId, ...message } = parsed.data;
+    const id = outboxIdPattern.exec(messageId ?? "")?.[1]?.toLowerCase();
+    if (id) candidates.push({ id, message });
   }
-  return messages;
+  const ours = await mailIdsOfNetwork(
+    deps.db,
+    networkId,
+    candidates.map((candidate) => candidate.id),
+  );
+  return candidates
+    .filter((candidate) => ours.has(candidate.id))
+    .slice(0, limit)
+    .map((candidate) => candidate.message);
 }
 
 export const devMailboxRoutes = [
@@ -63,8 +82,7 @@ export const devMailboxRoutes = [
     access: { kind: "network", permission: "read:dev-mailbox:network" },
     mountedWhen: mailCatcherRuns,
     async handle({ res, deps, auth }) {
-      const addresses = await addressesOfNetwork(deps.db, auth!.user.networkId);
-      res.json({ messages: await readMailbox(deps.mailCatcherDir!, addresses, 200) });
+      res.json({ messages: await readMailbox(deps, auth!.user.networkId, 200) });
     },
   }),
 ];

@@ -35,11 +35,15 @@ function toMail(row: Row): UndeliveredMail {
 }
 
 /**
- * The outbox keeps no network: an e-mail belongs to the network of the person it is addressed to
- * (addresses are unique across networks), invited people included.
+ * An e-mail belongs to the network of the person it was queued for. Rows queued before the
+ * outbox named its person fall back to the account that holds the address (never another
+ * network's pending invitation to the same address).
  */
 const ofNetwork = (networkId: string) =>
-  sql`join users u on lower(u.email) = lower(o.recipient) and u.network_id = ${networkId}`;
+  sql`join users u on u.network_id = ${networkId}
+        and (u.id = o.recipient_id
+             or (o.recipient_id is null and lower(u.email) = lower(o.recipient)
+                 and not u.held_elsewhere))`;
 
 /** E-mail of the network that may not have arrived, newest first. */
 export async function listUndelivered(
