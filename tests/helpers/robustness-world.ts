@@ -90,6 +90,12 @@ export interface World {
       zoneType: "anteroom" | "donning_zone" | "isolation_room" | "doffing_area",
     ) => Promise<void>;
     jpeg: () => Promise<Buffer>;
+    /** A floor of site A with one space, nothing audited. */
+    floor: () => Promise<{ id: string }>;
+    /** A site of the network with a floor and a space, nothing audited. */
+    site: () => Promise<{ id: string }>;
+    /** Retires a place over HTTP as an administrator would, so a restore has something to undo. */
+    retire: (kind: "spaces" | "floors" | "sites", id: string) => Promise<void>;
     /** An e-mail to a person of the network that a crash left neither sent nor failed. */
     uncertainMail: () => Promise<string>;
     cookie: (caller: CallerName) => Promise<string>;
@@ -278,6 +284,23 @@ export async function seedWorld(app: TestApp): Promise<World> {
         );
       },
       jpeg,
+      async floor() {
+        const made = await insertFloor(db, siteA);
+        await insertSpace(db, made);
+        return made;
+      },
+      async site() {
+        const made = await insertSite(db, networkId);
+        await insertSpace(db, await insertFloor(db, made.id));
+        return made;
+      },
+      async retire(kind, id) {
+        const response = await api(app.app, { cookie: await cookie("administrator (network)") })
+          .post(`/api/${kind}/${id}/retire`)
+          .send({});
+        if (response.status !== 200)
+          throw new Error(`retire ${kind}: ${response.status} ${JSON.stringify(response.body)}`);
+      },
       async uncertainMail() {
         const person = await freshPerson();
         const [row] = await db

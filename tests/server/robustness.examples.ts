@@ -181,6 +181,44 @@ export const examples: Record<string, RouteExample> = {
   "DELETE /spaces/:spaceId": {
     control: async (w) => ({ params: { spaceId: (await w.fresh.space()).id } }),
   },
+  "POST /spaces/:spaceId/retire": {
+    control: async (w) => ({
+      params: { spaceId: (await w.fresh.space()).id },
+      body: { reason: "Ward converted to offices" },
+    }),
+  },
+  "POST /spaces/:spaceId/restore": {
+    async control(w) {
+      const space = await w.fresh.space();
+      await w.fresh.retire("spaces", space.id);
+      return { params: { spaceId: space.id }, body: { reason: "Ward reopened" } };
+    },
+  },
+  "DELETE /floors/:floorId": {
+    control: async (w) => ({ params: { floorId: (await w.fresh.floor()).id } }),
+  },
+  "POST /floors/:floorId/retire": {
+    control: async (w) => ({ params: { floorId: (await w.fresh.floor()).id }, body: {} }),
+  },
+  "POST /floors/:floorId/restore": {
+    async control(w) {
+      const floor = await w.fresh.floor();
+      await w.fresh.retire("floors", floor.id);
+      return { params: { floorId: floor.id }, body: {} };
+    },
+  },
+  "POST /sites/:siteId/retire": {
+    as: "administrator (network)",
+    control: async (w) => ({ params: { siteId: (await w.fresh.site()).id }, body: {} }),
+  },
+  "POST /sites/:siteId/restore": {
+    as: "administrator (network)",
+    async control(w) {
+      const site = await w.fresh.site();
+      await w.fresh.retire("sites", site.id);
+      return { params: { siteId: site.id }, body: {} };
+    },
+  },
   "PATCH /spaces/:spaceId/cadence": {
     control: (w) => ({ params: { spaceId: w.spaceA }, body: { cadenceDays: 14 } }),
   },
