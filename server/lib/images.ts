@@ -73,6 +73,11 @@ export function readUpload(req: Request, res: Response, field: string): Promise<
   });
 }
 
+/** The fingerprint an image is known by: SHA-256 of the bytes as uploaded, hex. */
+export function sha256Of(buffer: Buffer): string {
+  return createHash("sha256").update(buffer).digest("hex");
+}
+
 export interface ProcessedImage {
   sha256: string;
   originalBytes: number;
@@ -113,7 +118,7 @@ export async function processImage(
       .webp({ quality: 75 })
       .toBuffer();
     return {
-      sha256: createHash("sha256").update(input).digest("hex"),
+      sha256: sha256Of(input),
       originalBytes: input.length,
       display: { data: display.data, width: display.info.width, height: display.info.height },
       thumb: { data: thumb },

@@ -18,6 +18,9 @@ export const actionStatusLabels: Record<ActionStatus, string> = {
 
 export const actionParamsSchema = z.strictObject({ actionId: uuidSchema });
 
+/** The text fields beside a proof photo: the id the phone made, reused when it sends again. */
+export const proofFieldsSchema = z.strictObject({ id: uuidSchema });
+
 const boolFlag = z.enum(["true", "false"], { message: "Use true or false." });
 
 /** Filters of a site's list; the map asks for the open ones on one floor. */

@@ -17,6 +17,7 @@ afterEach(() => {
 });
 
 const actionUrl = `/actions/${actionId}`;
+const uuid = /^[0-9a-f]{8}-[0-9a-f]{4}-4[0-9a-f]{3}-[89ab][0-9a-f]{3}-[0-9a-f]{12}$/;
 const colleague = { id: "9f0a1b2c-3d4e-4f5a-8b6c-7d8e9f0a1b2c", name: "Alder Quinn" };
 
 function stubAction(me: typeof facilitiesLead, detail: ActionDetail, extra = {}) {
@@ -246,6 +247,54 @@ describe("the action page", () => {
     const upload = calls.find((call) => call.method === "POST");
     expect(upload?.body).toBeInstanceOf(FormData);
     expect((upload?.body as FormData).get("photo")).toBeInstanceOf(File);
+    expect((upload?.body as FormData).get("id")).toMatch(uuid);
+  });
+
+  it("when a proof's reply is lost, then the photo is sent again under the same id, also when chosen again; a new photo gets a new id", async () => {
+    const detail = buildActionDetail({ status: "in_progress" });
+    let replies = [503, 503, 503, 201, 201];
+    const { calls } = stubAction(facilitiesLead, detail, {
+      [`GET /api/actions/${actionId}`]: () => jsonResponse(detail),
+      [`POST /api/actions/${actionId}/proofs`]: () => {
+        const [status, ...rest] = replies;
+        replies = rest;
+        return status === 201
+          ? jsonResponse(detail, 201)
+          : errorResponse(503, "unavailable", "Lintel cannot reach its database just now.");
+      },
+    });
+    const { user } = renderApp(actionUrl);
+    const photo = new File([new Uint8Array([0xff, 0xd8, 0xff])], "fix.jpg", {
+      type: "image/jpeg",
+      lastModified: 1_700_000_000_000,
+    });
+    const sentIds = () =>
+      calls
+        .filter((call) => call.method === "POST")
+        .map((call) => (call.body as FormData).get("id"));
+
+    await user.upload(await screen.findByLabelText("Add a photo of the fix"), photo);
+    // Sent, then twice more by itself; the third failure is shown.
+    expect(
+      await screen.findByText(/cannot reach its database/, {}, { timeout: 3000 }),
+    ).toBeTruthy();
+    expect(sentIds()).toHaveLength(3);
+
+    await user.upload(screen.getByLabelText("Add a photo of the fix"), photo);
+    await waitFor(() => expect(sentIds()).toHaveLength(4));
+    await waitFor(() => expect(screen.queryByText(/cannot reach its database/)).toBeNull());
+    const [first, ...again] = sentIds();
+    expect(first).toMatch(uuid);
+    expect(again).toEqual([first, first, first]);
+
+    const another = new File([new Uint8Array([0xff, 0xd8, 0xfe])], "fix-2.jpg", {
+      type: "image/jpeg",
+      lastModified: 1_700_000_100_000,
+    });
+    await user.upload(screen.getByLabelText("Add a photo of the fix"), another);
+    await waitFor(() => expect(sentIds()).toHaveLength(5));
+    expect(sentIds()[4]).toMatch(uuid);
+    expect(sentIds()[4]).not.toBe(first);
   });
   it("when a photo of the fix is still uploading, then sending for verification waits for it", async () => {
     const detail = buildActionDetail({ status: "in_progress" });

@@ -176,6 +176,51 @@ describe("the phone's audit store and its sync queue", () => {
     expect(await store.countChanges()).toEqual({ waiting: 0, held: 0 });
   });
 
+  it("when a second tab sends what it read before the first tab submitted, then every replay is accepted and nothing is held", async () => {
+    const items = doffingItems();
+    const [chair, stations] = items;
+    const server = new FakeLintel(items);
+    const audit = await startDraft();
+    await store.saveAnswer(
+      audit.auditId,
+      chair!.id,
+      { ...emptyAnswer, outcome: "fail", note: "  No dirty chair  " },
+      at(1),
+    );
+    await store.saveAnswer(
+      audit.auditId,
+      stations!.id,
+      { ...emptyAnswer, outcome: "pass", count: 3 },
+      at(2),
+    );
+    const photoId = testId();
+    await store.addPhoto({
+      id: photoId,
+      auditId: audit.auditId,
+      itemId: chair!.id,
+      bytes: photoBytes(),
+      type: "image/jpeg",
+      name: "chair.jpg",
+      takenAt: at(3).toISOString(),
+    });
+    await store.requestSubmit(audit.auditId, at(4));
+    // The other tab read the queue, then this one sent everything and submitted.
+    const readByOtherTab = await store.queuedChanges();
+    expect((await syncOnce(store, server)).kind).toBe("done");
+    expect(server.submitted.has(audit.auditId)).toBe(true);
+
+    const otherTab = { ...store, queuedChanges: async () => readByOtherTab };
+    expect(await syncOnce(otherTab, server)).toEqual({ kind: "done", sent: 5 });
+
+    // Each went again with the same id and content, so the submitted audit took them as replays
+    // (the photo's bytes were let go once the server confirmed it, so it is not sent again).
+    const sent = server.calls.filter((call) => !call.startsWith("start"));
+    expect(sent.slice(4)).toEqual(sent.slice(0, 4).filter((call) => !call.startsWith("photo")));
+    expect(sent.slice(4)).toHaveLength(3);
+    expect(await store.countChanges()).toEqual({ waiting: 0, held: 0 });
+    expect((await store.getAudit(audit.auditId))?.state).toBe("submitted");
+  });
+
   it("when the connection fails part-way, then what was not sent waits, in order, for the next sync", async () => {
     const items = doffingItems();
     const [chair, stations] = items;

@@ -75,6 +75,7 @@ describe("corrective action e-mail and notices", () => {
       await as(lead).post(`/api/actions/${action.id}/start`);
       await as(lead)
         .post(`/api/actions/${action.id}/proofs`)
+        .field("id", crypto.randomUUID())
         .attach("photo", await jpegWithGps(), "fix.jpg");
       await as(lead)
         .post(`/api/actions/${action.id}/verification-request`)
@@ -175,6 +176,7 @@ describe("corrective action e-mail and notices", () => {
     await as(lead).post(`/api/actions/${action.id}/start`);
     await as(lead)
       .post(`/api/actions/${action.id}/proofs`)
+      .field("id", crypto.randomUUID())
       .attach("photo", await jpegWithGps(), "fix.jpg");
     await as(lead)
       .post(`/api/actions/${action.id}/verification-request`)
@@ -191,6 +193,7 @@ describe("corrective action e-mail and notices", () => {
     await as(lead).post(`/api/actions/${action.id}/start`);
     await as(lead)
       .post(`/api/actions/${action.id}/proofs`)
+      .field("id", crypto.randomUUID())
       .attach("photo", await jpegWithGps(), "fix.jpg");
     await as(lead).post(`/api/actions/${action.id}/verification-request`).send({ note: "Mopped" });
     await as(auditor).post(`/api/actions/${action.id}/verify`).send({ note: "Dry now" });

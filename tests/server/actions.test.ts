@@ -90,6 +90,7 @@ describe("corrective actions", () => {
   async function proof(actionId: string, person = lead) {
     return as(person)
       .post(`/api/actions/${actionId}/proofs`)
+      .field("id", crypto.randomUUID())
       .attach(
         "photo",
         await jpegWithGps({ colour: `#${crypto.randomUUID().slice(0, 6)}` }),
@@ -249,6 +250,7 @@ describe("corrective actions", () => {
     // A file that is not a picture is refused by name, and loses nothing.
     const notImage = await as(lead)
       .post(`/api/actions/${id}/proofs`)
+      .field("id", crypto.randomUUID())
       .attach("photo", Buffer.from("not a picture"), "fix.txt");
     expect(notImage.status).toBe(415);
 

@@ -313,6 +313,7 @@ const samples: Record<string, Sample> = {
     prepare: async (w) => ({
       url: `/api/actions/${await actionAtA(w, "in_progress")}/proofs`,
       file: { field: "photo", content: w.planPng, name: "fixed.png" },
+      fields: { id: crypto.randomUUID() },
     }),
     ok: 201,
     allowed: leadsAtA,

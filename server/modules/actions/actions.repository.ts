@@ -14,6 +14,7 @@ import {
   correctiveActions,
   findings,
   floors,
+  images,
   roleGrants,
   siteDuePolicies,
   sites,
@@ -267,9 +268,20 @@ export async function countProofs(db: DbOrTx, actionId: string, round: number) {
   return row?.n ?? 0;
 }
 
+/** A stored proof with the SHA-256 of the bytes it was uploaded as. */
+export async function findProof(db: DbOrTx, proofId: string) {
+  const [row] = await db
+    .select({ id: actionProofs.id, actionId: actionProofs.actionId, sha256: images.sha256 })
+    .from(actionProofs)
+    .innerJoin(images, eq(images.id, actionProofs.imageId))
+    .where(eq(actionProofs.id, proofId));
+  return row ?? null;
+}
+
+/** null when the id is taken (the same upload a moment ago, or another action's proof). */
 export async function insertProof(db: DbOrTx, values: typeof actionProofs.$inferInsert) {
-  const [row] = await db.insert(actionProofs).values(values).returning();
-  return row!;
+  const [row] = await db.insert(actionProofs).values(values).onConflictDoNothing().returning();
+  return row ?? null;
 }
 
 /** The action's moves, oldest first, from the append-only change log. */

@@ -10,6 +10,7 @@ import {
   actionStatusLabels,
   assigneeBodySchema,
   duePolicySchema,
+  proofFieldsSchema,
 } from "@shared/schemas/actions";
 import { siteParamsSchema } from "@shared/schemas/site";
 import { zoneTypeLabels } from "@shared/zones";
@@ -17,6 +18,7 @@ import { zoneTypeLabels } from "@shared/zones";
 import { asCell, csvPreamble } from "../../lib/csv";
 import { readUpload } from "../../lib/images";
 import { defineRoute, type Access } from "../../lib/routes";
+import { parseInput } from "../../middleware/validate";
 import * as actions from "./actions.service";
 
 const viaAction = (permission: Permission): Access => ({
@@ -149,19 +151,17 @@ export const actionRoutes = [
   defineRoute({
     method: "post",
     path: "/actions/:actionId/proofs",
-    summary: "Attach a photo of the fix (multipart: photo)",
+    summary: "Attach a photo of the fix with an id made by the device (multipart: photo, id)",
     access: viaAction("work:action:site"),
     params: actionParamsSchema,
     async handle({ req, res, deps, auth, params, requestId }) {
       const buffer = await readUpload(req, res, "photo");
-      res
-        .status(201)
-        .json(
-          await actions.addProof(
-            { deps, auth: auth!, actionId: params.actionId, requestId },
-            buffer,
-          ),
-        );
+      const fields = parseInput(proofFieldsSchema, { ...req.body }, "body");
+      const { created, detail } = await actions.addProof(
+        { deps, auth: auth!, actionId: params.actionId, requestId },
+        { id: fields.id, buffer },
+      );
+      res.status(created ? 201 : 200).json(detail);
     },
   }),
   defineRoute({

@@ -17,7 +17,7 @@ import type { Database, DbOrTx, Tx } from "../../db/client";
 import type { Env } from "../../env";
 import { AppError, notFound } from "../../lib/app-error";
 import { recordChange, type Actor } from "../../lib/change-log";
-import { storeImage } from "../../lib/images";
+import { sha256Of, storeImage } from "../../lib/images";
 import type { AppDeps, SignedIn } from "../../lib/routes";
 import { enqueueMail } from "../../outbox/outbox.repository";
 import * as mails from "./actions.emails";
@@ -483,30 +483,68 @@ export async function startAction(move: Move): Promise<ActionDetail> {
 }
 
 /** A photo of the fix; counts for the current attempt only. */
-export async function addProof(move: Move, buffer: Buffer): Promise<ActionDetail> {
-  const current = await repo.lockAction(move.deps.db, move.actionId);
+const proofIdInUse = () =>
+  new AppError("conflict", 409, "That proof id is already used for another photo.", {
+    fields: { id: "This proof id is already used for another photo; make a new one." },
+  });
+
+/**
+ * The proof already stored under this id when the upload is the same one again (same action and
+ * bytes), so a phone retrying after a lost reply stores it once; another upload under the id is
+ * a 409. null when the id is new.
+ */
+async function storedProofFor(
+  db: DbOrTx,
+  actionId: string,
+  upload: { id: string; sha256: string },
+): Promise<{ id: string } | null> {
+  const stored = await repo.findProof(db, upload.id);
+  if (!stored) return null;
+  if (stored.actionId !== actionId || stored.sha256 !== upload.sha256) throw proofIdInUse();
+  return stored;
+}
+
+/** Adds a photo of the fix under the id the phone made; the same upload again adds nothing. */
+export async function addProof(
+  move: Move,
+  input: { id: string; buffer: Buffer },
+): Promise<{ created: boolean; detail: ActionDetail }> {
+  const upload = { id: input.id, sha256: sha256Of(input.buffer) };
+  if (await storedProofFor(move.deps.db, move.actionId, upload)) {
+    return { created: false, detail: await finish(move, 0) };
+  }
+  const current = await repo.findAction(move.deps.db, move.actionId);
   if (!current) throw notFound("That corrective action");
   if (current.status !== "open" && current.status !== "in_progress")
     throw wrongStatus(current.status, "open or in progress");
   const image = await storeImage(move.deps, {
     siteId: current.siteId,
     uploadedBy: move.auth.user.id,
-    buffer,
+    buffer: input.buffer,
     field: "photo",
   });
-  await move.deps.db.transaction(async (tx) => {
-    const action = await lockFor(tx, move.actionId, ["open", "in_progress"], "open or in progress");
+  const created = await move.deps.db.transaction(async (tx) => {
+    const action = await repo.lockAction(tx, move.actionId);
+    if (!action) throw notFound("That corrective action");
+    // The same upload, sent twice at once, waited here for the first one.
+    if (await storedProofFor(tx, move.actionId, upload)) return false;
+    if (action.status !== "open" && action.status !== "in_progress")
+      throw wrongStatus(action.status, "open or in progress");
     const proof = await repo.insertProof(tx, {
+      id: input.id,
       actionId: action.id,
       imageId: image.id,
       round: action.proofRound,
       uploadedBy: move.auth.user.id,
     });
+    // Another action's proof took the id a moment ago.
+    if (!proof) throw proofIdInUse();
     await logMove(tx, actorOf(move), action, "proof_added", {
       after: { status: action.status, proofId: proof.id, imageId: image.id },
     });
+    return true;
   });
-  return finish(move, 0);
+  return { created, detail: await finish(move, 0) };
 }
 
 /** Needs proof of this attempt and a note; the site's auditors are told. */

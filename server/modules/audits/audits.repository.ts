@@ -4,11 +4,13 @@ import type { Answer, Audit } from "@shared/schemas/audits";
 
 import type { DbOrTx } from "../../db/client";
 import {
+  actionProofs,
   auditAnswers,
   auditPhotos,
   audits,
   checklistVersions,
   floors,
+  images,
   spaceCadences,
   spaces,
   users,
@@ -57,9 +59,10 @@ export async function findAudit(db: DbOrTx, auditId: string): Promise<Audit | nu
   return row ? toAudit(row) : null;
 }
 
-export async function lockAudit(db: DbOrTx, auditId: string) {
-  const [row] = await db.select().from(audits).where(eq(audits.id, auditId)).for("update");
-  return row ?? null;
+/** The audit, holding its row lock until the transaction ends (the joined rows stay unlocked). */
+export async function lockAudit(db: DbOrTx, auditId: string): Promise<Audit | null> {
+  const [row] = await auditQuery(db).where(eq(audits.id, auditId)).for("update", { of: audits });
+  return row ? toAudit(row) : null;
 }
 
 export async function insertAudit(
@@ -117,6 +120,23 @@ export async function answersOf(db: DbOrTx, auditId: string): Promise<Answer[]> 
   return rows.map((row) => ({ ...row, unit: row.unit as Answer["unit"] }));
 }
 
+export async function findAnswer(db: DbOrTx, auditId: string, itemId: string) {
+  const [row] = await db
+    .select(answerColumns)
+    .from(auditAnswers)
+    .where(and(eq(auditAnswers.auditId, auditId), eq(auditAnswers.itemId, itemId)));
+  return row ? { ...row, unit: row.unit as Answer["unit"] } : null;
+}
+
+/** Where an answer id is already used, if anywhere. */
+export async function findAnswerOwner(db: DbOrTx, answerId: string) {
+  const [row] = await db
+    .select({ auditId: auditAnswers.auditId, itemId: auditAnswers.itemId })
+    .from(auditAnswers)
+    .where(eq(auditAnswers.id, answerId));
+  return row ?? null;
+}
+
 /** One answer per item: a repeat (same device id, or the same item again) updates it in place. */
 export async function upsertAnswer(
   db: DbOrTx,
@@ -142,6 +162,7 @@ export async function photosOf(db: DbOrTx, auditId: string) {
     .orderBy(asc(auditPhotos.createdAt));
 }
 
+/** A stored photo with the SHA-256 of the bytes it was uploaded as. */
 export async function findPhoto(db: DbOrTx, photoId: string) {
   const [row] = await db
     .select({
@@ -149,10 +170,30 @@ export async function findPhoto(db: DbOrTx, photoId: string) {
       auditId: auditPhotos.auditId,
       itemId: auditPhotos.itemId,
       imageId: auditPhotos.imageId,
+      sha256: images.sha256,
     })
     .from(auditPhotos)
+    .innerJoin(images, eq(images.id, auditPhotos.imageId))
     .where(eq(auditPhotos.id, photoId));
   return row ?? null;
+}
+
+/** The audits whose photos show the image, and whether anything else (a plan, a proof) does. */
+export async function usesOfImage(db: DbOrTx, imageId: string) {
+  const [inAudits, inProofs, inPlans] = await Promise.all([
+    db
+      .select({ status: audits.status, auditorId: audits.auditorId })
+      .from(auditPhotos)
+      .innerJoin(audits, eq(audits.id, auditPhotos.auditId))
+      .where(eq(auditPhotos.imageId, imageId)),
+    db
+      .select({ id: actionProofs.id })
+      .from(actionProofs)
+      .where(eq(actionProofs.imageId, imageId))
+      .limit(1),
+    db.select({ id: floors.id }).from(floors).where(eq(floors.planImageId, imageId)).limit(1),
+  ]);
+  return { audits: inAudits, elsewhere: inProofs.length > 0 || inPlans.length > 0 };
 }
 
 export async function insertPhoto(db: DbOrTx, values: typeof auditPhotos.$inferInsert) {

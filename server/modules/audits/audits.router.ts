@@ -59,8 +59,8 @@ export const auditRoutes = [
     summary: "An audit with its checklist, answers and photos",
     access: viaAudit("read:site:site"),
     params: auditParamsSchema,
-    async handle({ res, deps, params }) {
-      res.json(await audits.auditDetail(deps.db, params.auditId));
+    async handle({ res, deps, auth, params }) {
+      res.json(await audits.auditDetailFor(deps.db, auth!, params.auditId));
     },
   }),
   defineRoute({

@@ -7,7 +7,9 @@ import {
 import { can } from "@shared/permissions";
 import type {
   AmendmentBody,
+  Answer,
   AnswerBody,
+  Audit,
   AuditDetail,
   MyDueEntry,
   ReadingUnit,
@@ -16,10 +18,11 @@ import type {
 import type { ChecklistItem } from "@shared/schemas/checklists";
 import type { ZoneType } from "@shared/zones";
 
-import type { Database, DbOrTx } from "../../db/client";
+import type { Database, DbOrTx, Tx } from "../../db/client";
 import { AppError, forbidden, notFound } from "../../lib/app-error";
 import { recordChange, type Actor } from "../../lib/change-log";
-import { storeImage } from "../../lib/images";
+import { databaseCodeOf } from "../../lib/database-errors";
+import { sha256Of, storeImage } from "../../lib/images";
 import type { AppDeps, SignedIn } from "../../lib/routes";
 import {
   checklistItemsOf,
@@ -56,32 +59,72 @@ export async function siteOfSpace(db: Database, spaceId: string) {
   return (await repo.findSpaceForAudit(db, spaceId))?.siteId ?? null;
 }
 
-export async function auditDetail(db: Database, auditId: string): Promise<AuditDetail> {
+async function roomOf(db: DbOrTx, spaceId: string): Promise<AuditDetail["room"]> {
+  const space = await repo.findSpaceForAudit(db, spaceId);
+  const ventilated =
+    space && (space.zoneType === "isolation_room" || space.zoneType === "anteroom");
+  return ventilated
+    ? {
+        volumeM3: space.volumeM3,
+        constructionClass: space.constructionClass,
+        minimumAirChanges: space.constructionClass
+          ? minimumAirChanges[space.constructionClass]
+          : null,
+      }
+    : null;
+}
+
+export async function auditDetail(db: DbOrTx, auditId: string): Promise<AuditDetail> {
   const audit = await repo.findAudit(db, auditId);
   if (!audit) throw notFound("That audit");
-  const [items, answers, photos, space] = await Promise.all([
+  const [items, answers, photos, room] = await Promise.all([
     checklistItemsOf(db, audit.checklistVersionId),
     repo.answersOf(db, auditId),
     repo.photosOf(db, auditId),
-    repo.findSpaceForAudit(db, audit.spaceId),
+    roomOf(db, audit.spaceId),
   ]);
-  const ventilated =
-    space && (space.zoneType === "isolation_room" || space.zoneType === "anteroom");
-  return {
-    audit,
-    items,
-    answers,
-    photos,
-    room: ventilated
-      ? {
-          volumeM3: space.volumeM3,
-          constructionClass: space.constructionClass,
-          minimumAirChanges: space.constructionClass
-            ? minimumAirChanges[space.constructionClass]
-            : null,
-        }
-      : null,
-  };
+  return { audit, items, answers, photos, room };
+}
+
+/**
+ * A draft is its auditor's work in progress: besides them only the site's administrators see it.
+ * Everyone else at the site is told it does not exist, as lists leave it out.
+ */
+function canSee(audit: Pick<Audit, "status" | "auditorId" | "siteId">, auth: SignedIn) {
+  return (
+    audit.status === "submitted" ||
+    audit.auditorId === auth.user.id ||
+    can(auth.grants, "update:site:site", audit.siteId)
+  );
+}
+
+/** The audit as the person may see it (404 for someone else's draft). */
+export async function auditDetailFor(
+  db: Database,
+  auth: SignedIn,
+  auditId: string,
+): Promise<AuditDetail> {
+  const audit = await repo.findAudit(db, auditId);
+  if (!audit || !canSee(audit, auth)) throw notFound("That audit");
+  return auditDetail(db, auditId);
+}
+
+/**
+ * Whether an image of the site is shown only in drafts the person may not see, so it is not theirs
+ * to see either. An image also on a submitted audit, the person's own draft, a plan or a proof is.
+ */
+export async function imageHiddenFrom(
+  db: Database,
+  auth: SignedIn,
+  image: { id: string; siteId: string },
+): Promise<boolean> {
+  if (can(auth.grants, "update:site:site", image.siteId)) return false;
+  const uses = await repo.usesOfImage(db, image.id);
+  return (
+    uses.audits.length > 0 &&
+    !uses.elsewhere &&
+    uses.audits.every((audit) => audit.status === "draft" && audit.auditorId !== auth.user.id)
+  );
 }
 
 /** Starts the audit with the id the device made; the same request again returns the same audit. */
@@ -138,13 +181,33 @@ export async function startAudit(
   return { created, detail: await auditDetail(deps.db, auditId) };
 }
 
-async function requireOwnDraft(db: Database, auth: SignedIn, auditId: string) {
-  const audit = await repo.findAudit(db, auditId);
-  if (!audit) throw notFound("That audit");
-  if (audit.auditorId !== auth.user.id) throw forbidden();
-  if (audit.status === "submitted") throw readOnly();
-  return audit;
+/**
+ * Every write to an audit — an answer, a photo, the submission, an amendment — runs here: the
+ * audit's row lock is taken first, so a write either lands while the audit is a draft or finds it
+ * submitted, and the submission decides its verdict from exactly the answers that stay stored.
+ */
+async function withLockedAudit<T>(
+  db: Database,
+  auth: SignedIn | null,
+  auditId: string,
+  work: (tx: Tx, audit: Audit) => Promise<T>,
+): Promise<T> {
+  return db.transaction(async (tx) => {
+    const audit = await repo.lockAudit(tx, auditId);
+    if (!audit || (auth && !canSee(audit, auth))) throw notFound("That audit");
+    return work(tx, audit);
+  });
 }
+
+/** Only the auditor who started an audit writes to it. */
+function requireAuditor(audit: Audit, auth: SignedIn) {
+  if (audit.auditorId !== auth.user.id) throw forbidden();
+}
+
+const idInUse = (what: string) =>
+  new AppError("conflict", 409, `That ${what} id is already used for something else.`, {
+    fields: { id: `This ${what} id is already used for something else; make a new one.` },
+  });
 
 const unitsFor: Record<string, readonly ReadingUnit[]> = {
   pressure: ["Pa", "inH2O"],
@@ -234,6 +297,23 @@ function decideAnswer(item: ChecklistItem, body: AnswerBody, room: AuditDetail["
   }
 }
 
+type DecidedAnswer = ReturnType<typeof decideAnswer>;
+
+function sameAnswer(stored: Answer, decided: DecidedAnswer) {
+  return (
+    stored.outcome === decided.outcome &&
+    stored.value === decided.value &&
+    stored.unit === decided.unit &&
+    stored.count === decided.count &&
+    stored.choice === decided.choice &&
+    stored.note === decided.note
+  );
+}
+
+/**
+ * Stores the answer while the audit is a draft. Once it is submitted, the same answer sent again
+ * (the phone retrying after a lost reply) gets the stored answer back; any other answer is a 409.
+ */
 export async function saveAnswer(
   deps: AppDeps,
   auth: SignedIn,
@@ -241,13 +321,60 @@ export async function saveAnswer(
   itemId: string,
   body: AnswerBody,
 ) {
-  await requireOwnDraft(deps.db, auth, auditId);
-  const detail = await auditDetail(deps.db, auditId);
-  const item = detail.items.find((candidate) => candidate.id === itemId);
-  if (!item) throw notFound("That checklist item in this audit");
-  const decided = decideAnswer(item, body, detail.room);
-  return repo.upsertAnswer(deps.db, { id: body.id, auditId, itemId, ...decided });
+  return withLockedAudit(deps.db, auth, auditId, async (tx, audit) => {
+    requireAuditor(audit, auth);
+    const [items, room] = await Promise.all([
+      checklistItemsOf(tx, audit.checklistVersionId),
+      roomOf(tx, audit.spaceId),
+    ]);
+    const item = items.find((candidate) => candidate.id === itemId);
+    if (!item) throw notFound("That checklist item in this audit");
+    const decided = decideAnswer(item, body, room);
+    const owner = await repo.findAnswerOwner(tx, body.id);
+    if (owner && (owner.auditId !== auditId || owner.itemId !== itemId)) throw idInUse("answer");
+    if (audit.status === "submitted") {
+      const stored = await repo.findAnswer(tx, auditId, itemId);
+      if (stored && sameAnswer(stored, decided)) return stored;
+      throw readOnly();
+    }
+    try {
+      return await repo.upsertAnswer(tx, { id: body.id, auditId, itemId, ...decided });
+    } catch (error) {
+      // Another audit took the id between the check and the insert.
+      if (databaseCodeOf(error) === "23505") throw idInUse("answer");
+      throw error;
+    }
+  });
 }
+
+type StoredPhoto = NonNullable<Awaited<ReturnType<typeof repo.findPhoto>>>;
+
+/**
+ * The photo already stored under this id, when the upload is the same one again (same audit, item
+ * and bytes); a different upload under a taken id is a 409. null when the id is new.
+ */
+async function storedPhotoFor(
+  db: DbOrTx,
+  auditId: string,
+  input: { id: string; itemId: string | null; sha256: string },
+): Promise<StoredPhoto | null> {
+  const stored = await repo.findPhoto(db, input.id);
+  if (!stored) return null;
+  if (
+    stored.auditId !== auditId ||
+    stored.itemId !== input.itemId ||
+    stored.sha256 !== input.sha256
+  ) {
+    throw idInUse("photo");
+  }
+  return stored;
+}
+
+const photoOf = (photo: { id: string; itemId: string | null; imageId: string }) => ({
+  id: photo.id,
+  itemId: photo.itemId,
+  imageId: photo.imageId,
+});
 
 export async function addPhoto(
   deps: AppDeps,
@@ -255,35 +382,39 @@ export async function addPhoto(
   auditId: string,
   input: { id: string; itemId: string | null; buffer: Buffer },
 ) {
-  const existing = await repo.findPhoto(deps.db, input.id);
-  if (existing) {
-    if (existing.auditId !== auditId)
-      throw new AppError("conflict", 409, "That photo id belongs to another audit.");
-    return {
-      created: false,
-      photo: { id: existing.id, itemId: existing.itemId, imageId: existing.imageId },
-    };
-  }
-  const audit = await requireOwnDraft(deps.db, auth, auditId);
+  const audit = await repo.findAudit(deps.db, auditId);
+  if (!audit || !canSee(audit, auth)) throw notFound("That audit");
+  requireAuditor(audit, auth);
+  const upload = { id: input.id, itemId: input.itemId, sha256: sha256Of(input.buffer) };
+  const replayed = await storedPhotoFor(deps.db, auditId, upload);
+  if (replayed) return { created: false, photo: photoOf(replayed) };
+  if (audit.status === "submitted") throw readOnly();
   if (input.itemId) {
     const items = await checklistItemsOf(deps.db, audit.checklistVersionId);
     if (!items.some((item) => item.id === input.itemId))
       throw invalid("itemId", "That item is not in this audit.");
   }
+  // The picture goes to storage before the lock is taken, so a slow upload holds nobody up.
   const image = await storeImage(deps, {
     siteId: audit.siteId,
     uploadedBy: auth.user.id,
     buffer: input.buffer,
     field: "photo",
   });
-  const photo = await repo.insertPhoto(deps.db, {
-    id: input.id,
-    auditId,
-    itemId: input.itemId,
-    imageId: image.id,
+  return withLockedAudit(deps.db, auth, auditId, async (tx, locked) => {
+    const doubled = await storedPhotoFor(tx, auditId, upload);
+    if (doubled) return { created: false, photo: photoOf(doubled) };
+    if (locked.status === "submitted") throw readOnly();
+    const photo = await repo.insertPhoto(tx, {
+      id: input.id,
+      auditId,
+      itemId: input.itemId,
+      imageId: image.id,
+    });
+    if (photo) return { created: true, photo };
+    // Another audit took the id a moment ago.
+    throw idInUse("photo");
   });
-  // A doubled request may have inserted it a moment ago.
-  return { created: Boolean(photo), photo: photo ?? (await repo.findPhoto(deps.db, input.id))! };
 }
 
 /**
@@ -296,58 +427,59 @@ export async function submitAudit(
   auditId: string,
   requestId: string,
 ): Promise<AuditDetail> {
-  const current = await repo.findAudit(deps.db, auditId);
-  if (!current) throw notFound("That audit");
-  if (current.auditorId !== auth.user.id) throw forbidden();
-  if (current.status === "submitted") return auditDetail(deps.db, auditId);
-
-  const detail = await auditDetail(deps.db, auditId);
-  const answers = new Map(detail.answers.map((answer) => [answer.itemId, answer]));
-  const photographed = new Set(detail.photos.map((photo) => photo.itemId));
-  const problems: Record<string, string> = {};
-  for (const item of detail.items) {
-    const answer = answers.get(item.id);
-    if (!answer?.outcome) problems[`items.${item.id}`] = "Not answered yet.";
-    else if (answer.outcome === "not_applicable" && item.severity === "critical" && !answer.note) {
-      problems[`items.${item.id}`] = "Not applicable on a critical item needs a note saying why.";
-    } else if (answer.outcome === "fail" && item.photoOnFail && !photographed.has(item.id)) {
-      problems[`items.${item.id}`] = "Add a photo of what failed.";
+  const queued = await withLockedAudit(deps.db, auth, auditId, async (tx, current) => {
+    requireAuditor(current, auth);
+    // Submitting again (a retry after a lost reply) returns the same result.
+    if (current.status === "submitted") return 0;
+    // Read under the lock: no answer or photo can change between here and the commit.
+    const detail = await auditDetail(tx, auditId);
+    const answers = new Map(detail.answers.map((answer) => [answer.itemId, answer]));
+    const photographed = new Set(detail.photos.map((photo) => photo.itemId));
+    const problems: Record<string, string> = {};
+    for (const item of detail.items) {
+      const answer = answers.get(item.id);
+      if (!answer?.outcome) problems[`items.${item.id}`] = "Not answered yet.";
+      else if (
+        answer.outcome === "not_applicable" &&
+        item.severity === "critical" &&
+        !answer.note
+      ) {
+        problems[`items.${item.id}`] = "Not applicable on a critical item needs a note saying why.";
+      } else if (answer.outcome === "fail" && item.photoOnFail && !photographed.has(item.id)) {
+        problems[`items.${item.id}`] = "Add a photo of what failed.";
+      }
     }
-  }
-  if (Object.keys(problems).length > 0) {
-    throw new AppError(
-      "validation_failed",
-      400,
-      `${Object.keys(problems).length} item(s) need attention before submitting.`,
-      { fields: problems },
-    );
-  }
+    if (Object.keys(problems).length > 0) {
+      throw new AppError(
+        "validation_failed",
+        400,
+        `${Object.keys(problems).length} item(s) need attention before submitting.`,
+        { fields: problems },
+      );
+    }
 
-  const scored = detail.items.map((item) => ({
-    severity: item.severity,
-    outcome: answers.get(item.id)!.outcome!,
-  }));
-  const verdict = verdictOf(scored);
-  const score = scoreOf(scored);
-  // Every failed item becomes a finding followed up by a corrective action, in the same commit.
-  const failed = detail.items.flatMap((item) => {
-    const answer = answers.get(item.id)!;
-    return answer.outcome === "fail"
-      ? [
-          {
-            itemId: item.id,
-            key: item.key,
-            text: item.text,
-            severity: item.severity,
-            note: answer.note,
-          },
-        ]
-      : [];
-  });
-  const actor = { userId: auth.user.id, requestId };
-  const queued = await deps.db.transaction(async (tx) => {
-    const locked = await repo.lockAudit(tx, auditId);
-    if (locked?.status === "submitted") return 0;
+    const scored = detail.items.map((item) => ({
+      severity: item.severity,
+      outcome: answers.get(item.id)!.outcome!,
+    }));
+    const verdict = verdictOf(scored);
+    const score = scoreOf(scored);
+    // Every failed item becomes a finding followed up by a corrective action, in the same commit.
+    const failed = detail.items.flatMap((item) => {
+      const answer = answers.get(item.id)!;
+      return answer.outcome === "fail"
+        ? [
+            {
+              itemId: item.id,
+              key: item.key,
+              text: item.text,
+              severity: item.severity,
+              note: answer.note,
+            },
+          ]
+        : [];
+    });
+    const actor = { userId: auth.user.id, requestId };
     const submittedAt = new Date();
     await repo.markSubmitted(tx, auditId, { verdict, score, submittedAt });
     await recordChange(tx, actor, {
@@ -383,26 +515,25 @@ export async function amendAudit(
   body: AmendmentBody,
   actor: Actor,
 ): Promise<AuditDetail> {
-  const detail = await auditDetail(deps.db, auditId);
-  if (detail.audit.status !== "submitted") {
-    throw new AppError(
-      "conflict",
-      409,
-      "Only submitted audits are amended; the auditor can still change a draft.",
-    );
-  }
-  const before = detail.answers.find((answer) => answer.itemId === body.itemId);
-  if (!before) throw invalid("itemId", "That item has no answer in this audit.");
-  const item = detail.items.find((candidate) => candidate.id === body.itemId)!;
-  if (
-    body.outcome === "not_applicable" &&
-    item.severity === "critical" &&
-    !(body.note ?? before.note)
-  ) {
-    throw invalid("note", "Not applicable on a critical item needs a note saying why.");
-  }
-  const queued = await deps.db.transaction(async (tx) => {
-    await repo.lockAudit(tx, auditId);
+  const queued = await withLockedAudit(deps.db, null, auditId, async (tx) => {
+    const detail = await auditDetail(tx, auditId);
+    if (detail.audit.status !== "submitted") {
+      throw new AppError(
+        "conflict",
+        409,
+        "Only submitted audits are amended; the auditor can still change a draft.",
+      );
+    }
+    const before = detail.answers.find((answer) => answer.itemId === body.itemId);
+    if (!before) throw invalid("itemId", "That item has no answer in this audit.");
+    const item = detail.items.find((candidate) => candidate.id === body.itemId)!;
+    if (
+      body.outcome === "not_applicable" &&
+      item.severity === "critical" &&
+      !(body.note ?? before.note)
+    ) {
+      throw invalid("note", "Not applicable on a critical item needs a note saying why.");
+    }
     await repo.setAnswerOutcome(tx, auditId, body.itemId, body.outcome, body.note);
     const outcomes = detail.items.flatMap((candidate) => {
       const outcome =

@@ -7,6 +7,7 @@ import { notFound } from "../../lib/app-error";
 import { readUpload, storeImage } from "../../lib/images";
 import { findImageForServing } from "../../lib/images.repository";
 import { defineRoute } from "../../lib/routes";
+import { imageHiddenFrom } from "../audits/audits.service";
 
 export const imageRoutes = [
   defineRoute({
@@ -44,9 +45,11 @@ export const imageRoutes = [
     },
     params: imageParamsSchema,
     query: imageQuerySchema,
-    async handle({ res, deps, params, query }) {
+    async handle({ res, deps, auth, params, query }) {
       const image = await findImageForServing(deps.db, params.imageId);
-      if (!image) throw notFound("That image");
+      // A photo of someone else's draft is as hidden as the draft.
+      if (!image || (await imageHiddenFrom(deps.db, auth!, { id: params.imageId, ...image })))
+        throw notFound("That image");
       const stored = await deps.storage.get(
         query.variant === "thumb" ? image.thumbKey : image.displayKey,
       );

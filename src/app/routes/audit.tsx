@@ -18,7 +18,7 @@ function AuditNotFound() {
       <EmptyState
         headingLevel={1}
         title="This audit is not available"
-        description="It is not kept on this phone, and Lintel does not know it or it belongs to a site where you hold no role."
+        description="It is not kept on this phone, and Lintel does not know it, it belongs to a site where you hold no role, or it is another auditor's draft (shown once submitted)."
         action={<TextLink to={paths.home.getHref()}>Back to my sites</TextLink>}
       />
     </>

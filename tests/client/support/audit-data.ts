@@ -128,9 +128,41 @@ export function buildDetail(
 export const connectionLost = () =>
   new ApiError({ status: 0, code: "network_unavailable", message: "No connection to Lintel." });
 
+const submittedConflict = () =>
+  new ApiError({
+    status: 409,
+    code: "conflict",
+    message: "This audit is submitted and can no longer change.",
+  });
+
+function sameAnswerFields(a: AnswerBody, b: AnswerBody): boolean {
+  return (
+    a.outcome === b.outcome &&
+    (a.value ?? null) === (b.value ?? null) &&
+    (a.unit ?? null) === (b.unit ?? null) &&
+    (a.count ?? null) === (b.count ?? null) &&
+    (a.choice ?? null) === (b.choice ?? null) &&
+    (a.note ?? null) === (b.note ?? null)
+  );
+}
+
+function answerReply(body: AnswerBody, itemId: string): Answer {
+  return {
+    id: body.id,
+    itemId,
+    outcome: body.outcome,
+    value: body.value ?? null,
+    unit: body.unit ?? null,
+    count: body.count ?? null,
+    choice: body.choice ?? null,
+    note: body.note ?? null,
+  };
+}
+
 /**
  * A stand-in for the server with its idempotency rules: audits, answers and photos are keyed by
- * the ids the phone made, so the same request twice stores one thing.
+ * the ids the phone made, so the same request twice stores one thing; a submitted audit accepts
+ * only the same answer, photo or submission again.
  */
 export class FakeLintel implements SyncTransport {
   readonly calls: string[] = [];
@@ -181,23 +213,21 @@ export class FakeLintel implements SyncTransport {
         });
       }
       const stored = this.answers.get(`${auditId}/${itemId}`);
+      // Like the server: once submitted, only the same answer again is accepted (and changes nothing).
+      if (this.submitted.has(auditId)) {
+        if (!stored || !sameAnswerFields(stored, body)) throw submittedConflict();
+        return answerReply(stored, itemId);
+      }
       this.answers.set(`${auditId}/${itemId}`, { ...body, id: stored?.id ?? body.id, itemId });
-      return {
-        id: stored?.id ?? body.id,
-        itemId,
-        outcome: body.outcome,
-        value: body.value ?? null,
-        unit: body.unit ?? null,
-        count: body.count ?? null,
-        choice: body.choice ?? null,
-        note: body.note ?? null,
-      };
+      return answerReply({ ...body, id: stored?.id ?? body.id }, itemId);
     });
   }
 
   async uploadPhoto(auditId: string, photo: { id: string; itemId: string; file: Blob }) {
     return this.run(`photo ${photo.id}`, () => {
-      if (!this.photos.has(photo.id)) {
+      const stored = this.photos.get(photo.id);
+      if (this.submitted.has(auditId) && stored?.itemId !== photo.itemId) throw submittedConflict();
+      if (!stored) {
         this.photos.set(photo.id, { itemId: photo.itemId, bytes: photo.file.size });
       }
       return {

@@ -25,6 +25,7 @@ import { useReopenAction } from "../api/reopen-action";
 import { useRequestVerification } from "../api/request-verification";
 import { useStartAction } from "../api/start-action";
 import { useVerifyAction } from "../api/verify-action";
+import { createProofIds, mayResendUpload } from "../lib/proof-ids";
 
 export interface ActionMovesProps {
   detail: ActionDetail;
@@ -138,6 +139,7 @@ export const proofInputLabel = "Add a photo of the fix";
 /** Opens the camera on a phone; the photo uploads at once and joins this attempt's proof. */
 function ProofPicker({ actionId, hasCurrentProof, proofError, onAdded }: ProofPickerProps) {
   const addProof = useAddProof(actionId);
+  const [proofIds] = useState(() => createProofIds());
   const inputId = useId();
   const hintId = `${inputId}-hint`;
   const errorId = `${inputId}-error`;
@@ -148,7 +150,19 @@ function ProofPicker({ actionId, hasCurrentProof, proofError, onAdded }: ProofPi
     const file = event.target.files?.[0];
     event.target.value = "";
     if (!file) return;
-    addProof.mutate(file, { onSuccess: onAdded });
+    addProof.mutate(
+      { id: proofIds.idFor(file), file },
+      {
+        onSuccess: () => {
+          proofIds.settle(file);
+          onAdded();
+        },
+        onError: (error) => {
+          // Kept after a lost reply, so choosing the same picture again sends the same id.
+          if (!mayResendUpload(error)) proofIds.settle(file);
+        },
+      },
+    );
   };
 
   return (

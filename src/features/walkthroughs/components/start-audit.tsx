@@ -2,9 +2,9 @@ import { useEffect, useState } from "react";
 
 import { Alert } from "@/components/ui/alert";
 import { Spinner } from "@/components/ui/spinner";
+import { newDeviceId } from "@/lib/device-ids";
 
 import { auditDevice, hasOfflineStorage } from "../lib/audit-device";
-import { newDeviceId } from "../lib/device-ids";
 
 export interface StartAuditProps {
   spaceId: string;

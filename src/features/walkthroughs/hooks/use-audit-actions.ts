@@ -1,8 +1,9 @@
 import { useMemo } from "react";
 
+import { newDeviceId } from "@/lib/device-ids";
+
 import { type AnswerFields, type AuditReview, reviewAudit } from "../lib/answer-rules";
 import { auditDevice } from "../lib/audit-device";
-import { newDeviceId } from "../lib/device-ids";
 import { preparePhoto } from "../lib/photo-file";
 import { refusalsByItem } from "../lib/refusals";
 

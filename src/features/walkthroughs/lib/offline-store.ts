@@ -7,8 +7,9 @@ import {
   type StoreNames,
 } from "idb";
 
+import { newDeviceId } from "@/lib/device-ids";
+
 import type { AnswerFields } from "./answer-rules";
-import { newDeviceId } from "./device-ids";
 import { fromStoredUnit } from "./reading-units";
 
 /**

@@ -1,5 +1,6 @@
 /**
- * A new random (version 4) id for something made on this phone: an audit, an answer, a photo.
+ * A new random (version 4) id for something made on this phone: an audit, an answer, a photo, a
+ * proof of a fix.
  * `crypto.randomUUID` exists only on secure origins; a phone reaching Lintel over plain http on the
  * ward network still has `getRandomValues`.
  */
