@@ -1,5 +1,6 @@
 import type { z } from "zod";
 
+import { proofFieldsSchema } from "@shared/schemas/actions";
 import { auditPhotoFieldsSchema } from "@shared/schemas/audits";
 
 import { buildSite } from "../factories/records";
@@ -351,9 +352,16 @@ export const examples: Record<string, RouteExample> = {
     control: async (w) => ({ params: { actionId: await w.fresh.action("open") } }),
   },
   "POST /actions/:actionId/proofs": {
+    newIds: ["fields.id"],
     control: async (w) => ({
       params: { actionId: await w.fresh.action("in_progress") },
-      upload: { field: "photo", file: await w.fresh.jpeg(), name: "fixed.jpg" },
+      upload: {
+        field: "photo",
+        file: await w.fresh.jpeg(),
+        name: "fixed.jpg",
+        fields: { id: newId() },
+      },
+      uploadSchema: proofFieldsSchema,
     }),
   },
   "POST /actions/:actionId/verification-request": {
