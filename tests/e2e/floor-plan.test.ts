@@ -64,6 +64,7 @@ describe("drawing on a floor plan on a phone (390×844)", () => {
 
     // A new floor at Wexley.
     await page
+      .getByRole("list", { name: "Sites" })
       .getByRole("link", { name: /Wexley Rehabilitation Centre/ })
       .first()
       .click();

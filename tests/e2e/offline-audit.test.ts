@@ -22,7 +22,9 @@ describe("an audit on a phone that loses its connection half-way (390×844)", ()
     await page.getByRole("button", { name: "Sign in" }).click();
     await page.getByRole("heading", { level: 1, name: "My sites" }).waitFor();
 
+    // The site itself, not a fix to verify there that the home page may also list.
     await page
+      .getByRole("list", { name: "Sites" })
       .getByRole("link", { name: /Wexley Rehabilitation Centre/ })
       .first()
       .click();

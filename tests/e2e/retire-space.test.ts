@@ -39,6 +39,7 @@ describe("retiring a space on a phone (390×844)", () => {
     await signIn(admin.page, "admin@example.org", password);
     await admin.page.getByRole("heading", { level: 1, name: "My sites" }).waitFor();
     await admin.page
+      .getByRole("list", { name: "Sites" })
       .getByRole("link", { name: /Wexley Rehabilitation Centre/ })
       .first()
       .click();

@@ -262,6 +262,7 @@ describe("fixes awaiting verification on the auditor's home page", () => {
     await as(lead).post(`/api/actions/${action!.id}/start`);
     await as(lead)
       .post(`/api/actions/${action!.id}/proofs`)
+      .field("id", crypto.randomUUID())
       .attach("photo", await jpegWithGps(), "fix.jpg");
     const sent = await as(lead)
       .post(`/api/actions/${action!.id}/verification-request`)
