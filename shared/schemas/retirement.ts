@@ -1,7 +1,7 @@
 import { z } from "zod";
 
 import { zoneTypes } from "../zones";
-import { text, uuidSchema } from "./common";
+import { responseText, text, uuidSchema } from "./common";
 
 /** Retiring or restoring a site, floor or space; the reason goes into the change log. */
 export const retirementBodySchema = z.strictObject({
@@ -16,9 +16,9 @@ export const retirementResultSchema = z.object({
   retirement: z.object({
     kind: z.enum(retiredKinds),
     id: uuidSchema,
-    name: z.string(),
+    name: responseText(),
     /** When it was retired; null after a restore. */
-    retiredAt: z.string().nullable(),
+    retiredAt: responseText().nullable(),
     /** Floors and spaces retired or restored by this one step, the item itself included. */
     floors: z.number().int(),
     spaces: z.number().int(),
@@ -30,14 +30,14 @@ export type RetirementResult = z.infer<typeof retirementResultSchema>["retiremen
 
 const retiredBase = {
   id: uuidSchema,
-  name: z.string(),
-  retiredAt: z.string(),
-  retiredByName: z.string().nullable(),
+  name: responseText(),
+  retiredAt: responseText(),
+  retiredByName: responseText().nullable(),
 };
 
 export const retiredFloorSchema = z.object({
   ...retiredBase,
-  building: z.string(),
+  building: responseText(),
   level: z.number().int(),
 });
 export type RetiredFloor = z.infer<typeof retiredFloorSchema>;
@@ -46,7 +46,7 @@ export const retiredSpaceSchema = z.object({
   ...retiredBase,
   zoneType: z.enum(zoneTypes),
   floorId: uuidSchema,
-  floorName: z.string(),
+  floorName: responseText(),
   /** Retired with its floor: it comes back when the floor is restored. */
   floorRetired: z.boolean(),
 });
