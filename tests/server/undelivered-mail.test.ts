@@ -148,6 +148,31 @@ describe("e-mail that may not have arrived", () => {
     ).toHaveLength(0);
   });
 
+  it("when another network has a pending invitation to the same address, then its administrator still sees none of this network's mail to it", async () => {
+    const { mailId } = await actionWhoseMailWasInterrupted();
+    const otherNetwork = (await insertNetwork(mail.deps.db)).id;
+    const otherSite = (await insertSite(mail.deps.db, otherNetwork)).id;
+    const stranger = await signInAs(otherNetwork, [{ role: "administrator", siteId: null }], {
+      app: mail,
+    });
+    const invited = await as(stranger)
+      .post("/api/people/invitations")
+      .send({
+        email: lead.user.email,
+        name: lead.user.displayName,
+        grants: [{ role: "auditor", siteId: otherSite }],
+      });
+    expect(invited.status).toBe(201);
+
+    const listed = await as(stranger).get("/api/mail/undelivered");
+    expect(listed.status).toBe(200);
+    expect((listed.body.mail as UndeliveredMail[]).map((m) => m.id)).not.toContain(mailId);
+    expect((await as(stranger).post(`/api/mail/${mailId}/resend`).send({})).status).toBe(404);
+    // This network's administrator still sees it.
+    const ours = await as(admin).get("/api/mail/undelivered");
+    expect((ours.body.mail as UndeliveredMail[]).map((m) => m.id)).toContain(mailId);
+  });
+
   it("when someone who is not a network administrator asks, then both routes refuse with 403 and nothing is queued", async () => {
     const { mailId } = await actionWhoseMailWasInterrupted();
     const siteAdmin = await signInAs(networkId, [{ role: "administrator", siteId }], {
