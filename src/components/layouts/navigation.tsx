@@ -54,7 +54,7 @@ export function Navigation({ items, className }: NavigationProps) {
                 to={item.to}
                 aria-current={current ? "page" : undefined}
                 className={cn(
-                  "flex min-h-16 flex-col items-center justify-center gap-1 border-t-4 px-0.5 text-center text-xs leading-tight font-semibold break-words transition-colors min-[420px]:px-2 min-[420px]:text-sm",
+                  "flex min-h-16 flex-col items-center justify-center gap-1 border-t-4 px-0.5 text-center text-[11px] leading-tight font-semibold whitespace-nowrap transition-colors min-[420px]:px-2 min-[420px]:text-sm",
                   "md:min-h-tap md:flex-row md:justify-start md:gap-3 md:rounded-lg md:border-t-0 md:px-3 md:py-2 md:text-base",
                   current
                     ? "border-brand-700 bg-brand-50 text-brand-800"
