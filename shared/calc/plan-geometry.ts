@@ -26,7 +26,12 @@ export function scaleFromReference(a: PlanPoint, b: PlanPoint, distanceMetres: n
   const units = planDistance(a, b);
   if (!(units > 0)) throw new RangeError("The two reference points must be apart.");
   if (!(distanceMetres > 0)) throw new RangeError("The real distance must be more than zero.");
-  return distanceMetres / units;
+  const scale = distanceMetres / units;
+  // Points a hair apart, or a vanishing distance, can overflow to Infinity or round to zero.
+  if (!Number.isFinite(scale) || !(scale > 0)) {
+    throw new RangeError("The scale must come out as a finite number above zero.");
+  }
+  return scale;
 }
 
 export function distanceMetres(a: PlanPoint, b: PlanPoint, metresPerUnit: number): number {

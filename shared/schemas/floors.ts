@@ -1,5 +1,6 @@
 import { z } from "zod";
 
+import { isUsableScale } from "../calc/hand-rub-spacing";
 import { constructionClasses, fixtureKinds, zoneTypes } from "../zones";
 import { numberInput, requiredText, text, uuidSchema, responseText } from "./common";
 
@@ -52,7 +53,18 @@ export const scaleBodySchema = z
   .refine((body) => body.a.x !== body.b.x || body.a.y !== body.b.y, {
     message: "Choose two different points.",
     path: ["b"],
-  });
+  })
+  .refine(
+    // Points a hair apart or a vanishing distance would store a scale of zero or infinity.
+    (body) => {
+      const units = Math.hypot(body.b.x - body.a.x, body.b.y - body.a.y);
+      return units === 0 || isUsableScale(body.distanceMetres / units);
+    },
+    {
+      message: "This distance and these points give no usable scale; pick points further apart.",
+      path: ["distanceMetres"],
+    },
+  );
 export type ScaleBody = z.infer<typeof scaleBodySchema>;
 
 const polygonSchema = z

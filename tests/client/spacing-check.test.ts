@@ -86,4 +86,15 @@ describe("hand-rub spacing check", () => {
   it("when a distance rounds up to a whole foot, then the feet carry over", () => {
     expect(spacingPairMessage(0.3047)).toContain("0.30 m (1 ft 0.0 in) apart");
   });
+
+  it("when the floor's scale is zero, negative or not a number, then spacing is not checked and the page asks for the scale", () => {
+    const second = buildFixture({ id: "a2", x: 1000, y: 301 });
+    for (const bad of [0, -0.025, Number.NaN, Number.POSITIVE_INFINITY]) {
+      const check = checkHandRubSpacing([first, second], bad);
+      expect(check.kind).toBe("no-scale");
+      expect(check.message).toBe(
+        "Spacing between hand-rub stations cannot be checked until the scale of this floor is set.",
+      );
+    }
+  });
 });

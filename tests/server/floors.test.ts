@@ -93,6 +93,31 @@ describe("floors, spaces and fixtures", () => {
     expect(response.body.error.fields).toHaveProperty("b");
   });
 
+  it("when the scale is zero, negative, not a number, or works out to zero or infinity, then 400 names the distance and the scale already set stays", async () => {
+    const floor = await newFloor("Scale kept");
+    const good = await as(admin)
+      .put(`/api/floors/${floor.id}/scale`)
+      .send({ a: { x: 100, y: 100 }, b: { x: 250, y: 300 }, distanceMetres: 5 });
+    expect(good.status).toBe(200);
+    const bodies = [
+      { a: { x: 0, y: 0 }, b: { x: 100, y: 0 }, distanceMetres: 0 },
+      { a: { x: 0, y: 0 }, b: { x: 100, y: 0 }, distanceMetres: -5 },
+      { a: { x: 0, y: 0 }, b: { x: 100, y: 0 }, distanceMetres: "five" },
+      { a: { x: 0, y: 0 }, b: { x: 100, y: 0 }, distanceMetres: null },
+      // Points a hair apart: 5 m over 5e-324 units is an infinite scale.
+      { a: { x: 0, y: 0 }, b: { x: 5e-324, y: 0 }, distanceMetres: 5 },
+      // A vanishing distance over two million units rounds to a scale of zero.
+      { a: { x: -1_000_000, y: 0 }, b: { x: 1_000_000, y: 0 }, distanceMetres: 5e-324 },
+    ];
+    for (const body of bodies) {
+      const response = await as(admin).put(`/api/floors/${floor.id}/scale`).send(body);
+      expect(response.status, JSON.stringify(body)).toBe(400);
+      expect(response.body.error.fields).toHaveProperty("distanceMetres");
+    }
+    const detail = await as(admin).get(`/api/floors/${floor.id}`);
+    expect(detail.body.floor.metresPerUnit).toBe(0.02);
+  });
+
   it("when a fixture is placed outside its space, then 400 names the position and nothing is stored", async () => {
     const floor = await newFloor("Fixtures");
     const space = (

@@ -1,4 +1,5 @@
 import type { PlanPoint } from "@shared/calc/plan-geometry";
+import { isUsableScale } from "@shared/calc/hand-rub-spacing";
 import type { FloorDetail, Space } from "@shared/schemas/floors";
 import { fixtureKindLabels, fixtureKinds, type FixtureKind, type ZoneType } from "@shared/zones";
 import type { Map as LeafletMap } from "leaflet";
@@ -70,7 +71,8 @@ export function FloorWorkspace({
   pinKey,
 }: FloorWorkspaceProps) {
   const { floor, suites, spaces, fixtures } = detail;
-  const metresPerUnit = floor.metresPerUnit;
+  // A scale that measures nothing (zero, negative, not finite) counts as no scale at all.
+  const metresPerUnit = isUsableScale(floor.metresPerUnit) ? floor.metresPerUnit : null;
 
   const [tool, dispatch] = useReducer(mapToolReducer, idleTool);
   const [selectedSpaceId, setSelectedSpaceId] = useState<string | null>(null);

@@ -1,4 +1,8 @@
-import { closeDispenserPairs, minimumDispenserSpacingMetres } from "@shared/calc/hand-rub-spacing";
+import {
+  closeDispenserPairs,
+  isUsableScale,
+  minimumDispenserSpacingMetres,
+} from "@shared/calc/hand-rub-spacing";
 import { formatLength, metresToInches } from "@shared/calc/plan-geometry";
 import type { Fixture } from "@shared/schemas/floors";
 
@@ -26,7 +30,7 @@ export function checkHandRubSpacing(
   metresPerUnit: number | null,
 ): SpacingCheck {
   const stations = fixtures.filter((fixture) => fixture.kind === "hand_rub_station");
-  if (metresPerUnit === null) {
+  if (!isUsableScale(metresPerUnit)) {
     return {
       kind: "no-scale",
       stationCount: stations.length,
