@@ -1,4 +1,5 @@
 import { inchesOfWaterToPascals } from "@shared/calc/ventilation";
+import { cautionText } from "@shared/cautions";
 import type { Audit } from "@shared/schemas/audits";
 import { screen, within } from "@testing-library/react";
 import { afterEach, describe, expect, it, vi } from "vitest";
@@ -95,6 +96,21 @@ describe("a space's audit history", () => {
     expect(rows[1]!.textContent).toContain("100%");
     expect(rows[0]!.getAttribute("href")).toBe(`/audits/${auditId}`);
     expect(screen.getByRole("link", { name: "Start audit" })).toBeTruthy();
+  });
+
+  it("when the history opens, then the standing caution says the verdicts are Lintel's own rules on top of the cited sources", async () => {
+    const detail = submittedDetail();
+    stubApi({
+      "GET /api/auth/me": () => jsonResponse(auditor),
+      [`GET /api/spaces/${isolationSpaceId}/audits`]: () => jsonResponse({ audits: [detail.audit] }),
+    });
+    renderApp(`/spaces/${isolationSpaceId}/audits`);
+
+    expect(await screen.findByRole("list", { name: "Audits" })).toBeTruthy();
+    const caution = screen.getByRole("complementary", { name: "Caution" });
+    expect(caution.textContent).toBe(cautionText);
+    expect(caution.textContent).toContain("Lintel's own rules on top of the cited sources");
+    expect(caution.textContent).toContain("not a certification");
   });
 
   it("when a submitted audit is opened, then it is read-only with readings in the unit entered, notes and photo thumbnails", async () => {

@@ -1,6 +1,7 @@
 import "fake-indexeddb/auto";
 
 import { scoreOf, verdictOf } from "@shared/calc/verdict";
+import { cautionText } from "@shared/cautions";
 import type { AnswerBody, AuditDetail, ScheduleEntry } from "@shared/schemas/audits";
 import type { ChecklistItem } from "@shared/schemas/checklists";
 import { cleanup, screen, within } from "@testing-library/react";
@@ -287,6 +288,25 @@ describe("an audit on the phone", () => {
     );
     await vi.waitFor(() => expect(server.answerCalls.length).toBeGreaterThanOrEqual(2));
     expect(server.submits).toBe(0);
+  });
+
+  it("when the auditor switches to the list of answers mid-audit, then the standing caution is shown under it", async () => {
+    const items = doffingItems();
+    const { fallback } = auditEndpoints(items);
+    stubApi(signedInAuditor(), fallback);
+    const { user } = renderApp(`/sites/${tamsinGeneral.id}/due`);
+
+    await startFromDueList(user, "Doffing area 1");
+    await user.click(screen.getByRole("button", { name: "Pass" }));
+    await user.click(screen.getByRole("button", { name: "List" }));
+
+    const list = await screen.findByRole("list", { name: "All items" });
+    expect(within(list).getAllByRole("button")).toHaveLength(items.length);
+    const caution = screen.getByRole("complementary", { name: "Caution" });
+    expect(caution.textContent).toBe(cautionText);
+    expect(caution.textContent).toContain("Lintel's own rules on top of the cited sources");
+    // Under the list, where the auditor reads the answers.
+    expect(list.compareDocumentPosition(caution) & Node.DOCUMENT_POSITION_FOLLOWING).toBeTruthy();
   });
 
   it("when a critical item is marked not applicable, then a note is asked for, and the note settles it", async () => {

@@ -22,6 +22,7 @@ import { answeredDraftAudit, insertFloor, insertSpace } from "../factories/audit
 import { insertNetwork, insertSite } from "../factories/records";
 import { api, testApp } from "../helpers/app";
 import { signInAs, type SignedInPerson } from "../helpers/auth";
+import { readExport } from "../helpers/csv";
 
 // Computed here independently of the server: the Wilson score interval (Newcombe 1998, method 3)
 // and Newcombe's hybrid score interval for a difference (Newcombe 1998, method 10), z for 95%.
@@ -360,7 +361,7 @@ describe("committee view", () => {
     expect(body.spaces.every((space) => space.lastVerdict !== null)).toBe(true);
   });
 
-  it("when the report and the CSVs are downloaded, then they are a PDF naming the network and rows of the comparison and audits", async () => {
+  it("when the report and the CSVs are downloaded, then they are a PDF naming the network and CSVs of the comparison and audits that parse with the header first and the caution last", async () => {
     const pdf = await as(committee)
       .get(`/api/committee/report?from=${from}&to=${to}`)
       .buffer(true)
@@ -382,19 +383,23 @@ describe("committee view", () => {
       `/api/committee/comparison/export?from=${from}&to=${to}`,
     );
     expect(comparison.headers["content-type"]).toMatch(/^text\/csv/);
-    const lines = comparison.text
-      .replace(/^\uFEFF/, "")
-      .trim()
-      .split("\n");
-    expect(lines[0]).toMatch(/^site,measure,successes,n,rate,95% lower,95% upper/);
-    expect(lines.filter((line) => line.includes("Readiness"))).toHaveLength(3);
+    const comparisonCsv = readExport(comparison.text);
+    expect(comparisonCsv.header.slice(0, 7)).toEqual([
+      "site",
+      "measure",
+      "successes",
+      "n",
+      "rate",
+      "95% lower",
+      "95% upper",
+    ]);
+    expect(comparisonCsv.rows.filter((row) => row[1]!.startsWith("Readiness"))).toHaveLength(3);
 
     const auditsCsv = await as(committee).get(`/api/committee/audits/export?from=${from}&to=${to}`);
-    const auditLines = auditsCsv.text
-      .replace(/^\uFEFF/, "")
-      .trim()
-      .split("\n");
-    expect(auditLines.length - 1).toBe(seeded.length + 1); // plus the one submitted over HTTP
+    const audits = readExport(auditsCsv.text);
+    expect(audits.header[0]).toBe("audit id");
+    expect(audits.rows).toHaveLength(seeded.length + 1); // plus the one submitted over HTTP
+    expect(audits.objects.every((row) => row["verdict"] !== "")).toBe(true);
   });
 
   it("when the audits are exported in small batches, then every audit comes once, oldest first", async () => {

@@ -15,7 +15,7 @@ import {
 import { siteParamsSchema } from "@shared/schemas/site";
 import { zoneTypeLabels } from "@shared/zones";
 
-import { asCell, csvPreamble } from "../../lib/csv";
+import { asCell, cautionRow, csvPreamble } from "../../lib/csv";
 import { readUpload } from "../../lib/images";
 import { defineRoute, type Access } from "../../lib/routes";
 import { parseInput } from "../../middleware/validate";
@@ -32,6 +32,26 @@ const atSite = (permission: Permission): Access => ({
   permission,
   siteOf: async (params) => params.siteId!,
 });
+
+const actionExportColumns = [
+  "id",
+  "site",
+  "floor",
+  "space",
+  "zone type",
+  "item",
+  "severity",
+  "status",
+  "owner",
+  "opened (UTC)",
+  "due (UTC)",
+  "due (site time)",
+  "overdue",
+  "closed (UTC)",
+  "days to close",
+  "findings",
+  "link",
+];
 
 export const actionRoutes = [
   defineRoute({
@@ -79,25 +99,7 @@ export const actionRoutes = [
         ),
         {
           header: true,
-          columns: [
-            "id",
-            "site",
-            "floor",
-            "space",
-            "zone type",
-            "item",
-            "severity",
-            "status",
-            "owner",
-            "opened (UTC)",
-            "due (UTC)",
-            "due (site time)",
-            "overdue",
-            "closed (UTC)",
-            "days to close",
-            "findings",
-            "link",
-          ],
+          columns: actionExportColumns,
         },
       );
       const day = new Date().toISOString().slice(0, 10);
@@ -105,7 +107,7 @@ export const actionRoutes = [
         .status(200)
         .type("text/csv; charset=utf-8")
         .attachment(`corrective-actions-${day}.csv`)
-        .send(`${csvPreamble}${csv}`);
+        .send(`${csvPreamble}${csv}${cautionRow(actionExportColumns.length)}`);
     },
   }),
   defineRoute({

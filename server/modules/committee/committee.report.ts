@@ -2,6 +2,7 @@ import { createRequire } from "node:module";
 
 import PDFDocument from "pdfkit";
 
+import { cautionText } from "@shared/cautions";
 import { itemCategoryLabels } from "@shared/checklists/categories";
 import { formatInZone } from "@shared/calc/due";
 import type { ComparisonResponse, TrendsResponse } from "@shared/schemas/committee";
@@ -14,9 +15,6 @@ const fonts = {
   regular: require.resolve("@fontsource/noto-sans/files/noto-sans-latin-400-normal.woff"),
   bold: require.resolve("@fontsource/noto-sans/files/noto-sans-latin-700-normal.woff"),
 };
-
-export const reportCaution =
-  "Lintel supports an infection prevention programme; it does not replace it. Ventilation figures are the auditors' readings, not a certification: defer to the facility's engineers, local codes and the authority having jurisdiction. Readiness verdicts and scores are Lintel's own rules, not a published standard.";
 
 export type OverdueRow = Awaited<ReturnType<typeof overdueActions>>[number];
 
@@ -108,7 +106,7 @@ export function buildMonthlyReport(input: ReportInput): Promise<Buffer> {
     .text(
       `${comparison.zoneType ? zoneTypeLabels[comparison.zoneType] : "All zone types"} · generated ${input.generatedAt.toISOString().slice(0, 16).replace("T", " ")} UTC by Lintel`,
     );
-  doc.moveDown(0.6).fontSize(9).fillColor(warn).text(reportCaution, { width });
+  doc.moveDown(0.6).fontSize(9).fillColor(warn).text(cautionText, { width });
 
   heading("Readiness by site");
   doc
@@ -295,7 +293,7 @@ export function buildMonthlyReport(input: ReportInput): Promise<Buffer> {
       ]),
     );
 
-  doc.moveDown(1).fontSize(8).fillColor(warn).text(reportCaution, left, doc.y, { width });
+  doc.moveDown(1).fontSize(8).fillColor(warn).text(cautionText, left, doc.y, { width });
   doc.end();
   return done;
 }

@@ -7,7 +7,7 @@ import { committeeQuerySchema, committeeSiteParamsSchema } from "@shared/schemas
 import { zoneTypeLabels } from "@shared/zones";
 
 import { notFound } from "../../lib/app-error";
-import { asCell, csvPreamble } from "../../lib/csv";
+import { asCell, cautionRow, csvPreamble } from "../../lib/csv";
 import { defineRoute, type Access } from "../../lib/routes";
 import { requireSite } from "../sites/sites.service";
 import { buildMonthlyReport } from "./committee.report";
@@ -91,27 +91,28 @@ export const committeeRoutes = [
           ]);
         }
       }
+      const columns = [
+        "site",
+        "measure",
+        "successes",
+        "n",
+        "rate",
+        "95% lower",
+        "95% upper",
+        `small sample (n < ${result.minimumRankedSample})`,
+        "rank",
+      ];
       const csv = stringify(
         rows.map((row) => row.map(asCell)),
         {
           header: true,
-          columns: [
-            "site",
-            "measure",
-            "successes",
-            "n",
-            "rate",
-            "95% lower",
-            "95% upper",
-            `small sample (n < ${result.minimumRankedSample})`,
-            "rank",
-          ],
+          columns,
         },
       );
       res
         .type("text/csv; charset=utf-8")
         .attachment(`site-comparison-${fileStamp(query)}.csv`)
-        .send(`${csvPreamble}${csv}`);
+        .send(`${csvPreamble}${csv}${cautionRow(columns.length)}`);
     },
   }),
   defineRoute({
@@ -124,9 +125,19 @@ export const committeeRoutes = [
       const sites = await committee.readableSites(deps.db, auth!.user.networkId, auth!.grants);
       const ids = sites.map((site) => site.id);
       res.type("text/csv; charset=utf-8").attachment(`audits-${fileStamp(query)}.csv`);
-      res.write(
-        `${csvPreamble}${stringify([["audit id", "site", "floor", "space", "zone type", "auditor", "submitted (UTC)", "submitted (site time)", "verdict", "score"]])}`,
-      );
+      const columns = [
+        "audit id",
+        "site",
+        "floor",
+        "space",
+        "zone type",
+        "auditor",
+        "submitted (UTC)",
+        "submitted (site time)",
+        "verdict",
+        "score",
+      ];
+      res.write(`${csvPreamble}${stringify([columns])}`);
       await exportAuditRows(deps.db, ids, query, async (page) => {
         const chunk = stringify(
           page.map((row) =>
@@ -146,7 +157,7 @@ export const committeeRoutes = [
         );
         if (!res.write(chunk)) await new Promise((resolve) => res.once("drain", resolve));
       });
-      res.end();
+      res.end(cautionRow(columns.length));
     },
   }),
   defineRoute({

@@ -1,7 +1,6 @@
-import { cn } from "@/lib/cn";
+import { cautionText } from "@shared/cautions";
 
-export const cautionText =
-  "Lintel supports an infection prevention programme; it does not replace it. Ventilation figures are the auditor's readings, not a certification: defer to the facility's engineers, local codes and the authority having jurisdiction.";
+import { cn } from "@/lib/cn";
 
 export interface CautionNoteProps {
   className?: string;

@@ -6,6 +6,7 @@ import { Alert } from "@/components/ui/alert";
 import { Badge } from "@/components/ui/badge";
 import { Button } from "@/components/ui/button";
 import { Card } from "@/components/ui/card";
+import { CautionNote } from "@/components/ui/caution-note";
 import { EmptyState } from "@/components/ui/empty-state";
 import { Spinner } from "@/components/ui/spinner";
 import { VerdictBadge } from "@/components/ui/verdict-badge";
@@ -145,6 +146,7 @@ export function AuditHistory({ spaceId, auditHref, startAction, backLink }: Audi
             </ol>
           ) : null}
         </section>
+        <CautionNote />
       </div>
     </>
   );

@@ -5,6 +5,7 @@ import { type ReactNode, useEffect, useMemo, useRef, useState } from "react";
 
 import { Alert } from "@/components/ui/alert";
 import { Button } from "@/components/ui/button";
+import { CautionNote } from "@/components/ui/caution-note";
 import { Spinner } from "@/components/ui/spinner";
 import { cn } from "@/lib/cn";
 import { formatDateTime } from "@/lib/format";
@@ -219,6 +220,7 @@ function DraftWalkthrough({ auditId, detail, snapshot }: DraftProps) {
             flagged={flagged}
             onOpen={(opened) => go("one", opened)}
           />
+          <CautionNote />
         </>
       ) : null}
 
