@@ -102,7 +102,8 @@ describe("a space's audit history", () => {
     const detail = submittedDetail();
     stubApi({
       "GET /api/auth/me": () => jsonResponse(auditor),
-      [`GET /api/spaces/${isolationSpaceId}/audits`]: () => jsonResponse({ audits: [detail.audit] }),
+      [`GET /api/spaces/${isolationSpaceId}/audits`]: () =>
+        jsonResponse({ audits: [detail.audit] }),
     });
     renderApp(`/spaces/${isolationSpaceId}/audits`);
 
