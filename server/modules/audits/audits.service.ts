@@ -222,11 +222,11 @@ function decideAnswer(item: ChecklistItem, body: AnswerBody, room: AuditDetail["
   }
 }
 
+/** The same answer again; the entered value follows from the stored value and unit. */
 function sameAnswer(stored: Answer, decided: DecidedAnswer) {
   return (
     stored.outcome === decided.outcome &&
     stored.value === decided.value &&
-    stored.enteredValue === decided.enteredValue &&
     stored.unit === decided.unit &&
     stored.count === decided.count &&
     stored.choice === decided.choice &&
