@@ -2,7 +2,14 @@ import { randomUUID } from "node:crypto";
 
 import { eq, inArray } from "drizzle-orm";
 
-import { scoreOf, verdictOf, type Outcome, type Severity } from "@shared/calc/verdict";
+import {
+  type JudgedAnswer,
+  type Outcome,
+  type Severity,
+  readinessOf,
+  rulesVersion,
+  scoreOf,
+} from "@shared/calc/verdict";
 import type { ChecklistItem } from "@shared/schemas/checklists";
 import type { ZoneType } from "@shared/zones";
 
@@ -115,7 +122,7 @@ export async function createDemoAuditHistory(
       const progress = 1 - (now.getTime() - at) / (365 * day);
       const trend = Math.max(0.2, 1 - profile.improving * (progress - 0.5) * 2);
       const auditId = randomUUID();
-      const outcomes: { severity: Severity; outcome: Outcome }[] = [];
+      const outcomes: JudgedAnswer[] = [];
       for (const item of version.items) {
         const outcome: Outcome =
           random() < 0.03 && item.severity !== "critical"
@@ -123,15 +130,18 @@ export async function createDemoAuditHistory(
             : random() < profile.fail[item.severity] * trend
               ? "fail"
               : "pass";
-        outcomes.push({ severity: item.severity, outcome });
+        outcomes.push({ key: item.key, text: item.text, severity: item.severity, outcome });
         const row: typeof auditAnswers.$inferInsert = {
           id: randomUUID(),
           auditId,
           itemId: item.id,
           outcome,
         };
-        if (item.response === "reading" && outcome !== "not_applicable")
-          Object.assign(row, reading(item, outcome === "pass", random, minimumAch));
+        if (item.response === "reading" && outcome !== "not_applicable") {
+          const read = reading(item, outcome === "pass", random, minimumAch);
+          // Demo readings are entered in the stored unit, so the entered value is the stored one.
+          Object.assign(row, { ...read, enteredValue: read.value });
+        }
         if (item.response === "count" && outcome !== "not_applicable")
           row.count = outcome === "pass" ? 2 + Math.floor(random() * 2) : 1;
         if (item.response === "choice" && outcome !== "not_applicable")
@@ -140,6 +150,7 @@ export async function createDemoAuditHistory(
         answerRows.push(row);
       }
       const submittedAt = new Date(at + (20 + random() * 40) * 60 * 1000);
+      const readiness = readinessOf(space.zoneType, outcomes);
       auditRows.push({
         id: auditId,
         siteId: space.siteId,
@@ -149,7 +160,9 @@ export async function createDemoAuditHistory(
         status: "submitted",
         startedAt: new Date(at),
         submittedAt,
-        verdict: verdictOf(outcomes),
+        verdict: readiness.verdict,
+        verdictReasons: readiness.reasons,
+        rulesVersion,
         score: scoreOf(outcomes),
       });
     }

@@ -67,5 +67,9 @@ export function purgeMinutes(airChanges: number, efficiencyPercent: number): num
 /** Minimum air changes per hour for an airborne infection isolation room by construction class. */
 export const minimumAirChanges = { new_or_renovated: 12, existing: 6 } as const;
 
-/** At least 2.5 Pa negative to the corridor. */
+/**
+ * At least 2.5 Pa negative to the corridor; the CDC states the same differential as 0.01 in. w.c.
+ * (water gauge), which is 2.49 Pa: a reading is judged against the figure stated in its own unit.
+ */
 export const minimumNegativePressurePascals = 2.5;
+export const negativePressureInchesOfWater = 0.01;

@@ -5,9 +5,9 @@ import { zoneTypes } from "../zones";
 import { checklistItemSchema } from "./checklists";
 import { numberInput, text, uuidSchema, responseText } from "./common";
 
-/** Units an auditor may enter a reading in; the server stores SI (Pa, m³/h). */
-export const readingUnits = ["Pa", "inH2O", "m3/h", "cfm", "percent", "ach", "min"] as const;
-export type ReadingUnit = (typeof readingUnits)[number];
+import { readingUnits } from "../calc/answer-rules";
+
+export { readingUnits, type ReadingUnit } from "../calc/answer-rules";
 
 export const outcomes = ["pass", "fail", "not_applicable"] as const;
 
@@ -52,6 +52,8 @@ export const answerSchema = z.object({
   value: z.number().nullable(),
   /** The unit the auditor entered, to show the value the same way. */
   unit: z.enum(readingUnits).nullable(),
+  /** The reading as entered, in `unit`: thresholds are met in the unit a reading was entered in. */
+  enteredValue: z.number().nullable().optional(),
   count: z.number().nullable(),
   choice: responseText().nullable(),
   note: responseText().nullable(),
@@ -82,6 +84,10 @@ export const auditSchema = z.object({
   verdict: z.enum(verdicts).nullable(),
   /** Weighted pass rate in [0, 1]. */
   score: z.number().nullable(),
+  /** The version of the readiness rules that decided the verdict; null while a draft. */
+  rulesVersion: z.number().int().nullable().optional(),
+  /** Why the verdict, in words; null for verdicts decided before reasons were kept. */
+  verdictReasons: z.array(responseText()).nullable().optional(),
 });
 export type Audit = z.infer<typeof auditSchema>;
 

@@ -1,11 +1,12 @@
 import { z } from "zod";
 
+import { quantities } from "../calc/answer-rules";
 import { severities } from "../calc/verdict";
 import { zoneTypes } from "../zones";
 import { numberInput, requiredText, text, uuidSchema, responseText } from "./common";
 
 export const responseKinds = ["check", "reading", "count", "choice"] as const;
-export const quantities = ["pressure", "airflow", "air_changes", "percent", "minutes"] as const;
+export { quantities } from "../calc/answer-rules";
 
 export const thresholdSchema = z.strictObject({
   op: z.enum([">=", "<="], { message: "Choose at least or at most." }),

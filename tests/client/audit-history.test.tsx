@@ -1,4 +1,5 @@
 import { inchesOfWaterToPascals } from "@shared/calc/ventilation";
+import { airflowNotConfirmedReason } from "@shared/calc/verdict";
 import { cautionText } from "@shared/cautions";
 import type { Audit } from "@shared/schemas/audits";
 import { screen, within } from "@testing-library/react";
@@ -133,6 +134,45 @@ describe("a space's audit history", () => {
     expect(thumbnail.getAttribute("src")).toBe(`/api/images/${imageId}?variant=thumb`);
     expect(screen.queryByRole("button", { name: "Pass" })).toBeNull();
     expect(screen.queryByRole("button", { name: "Submit audit" })).toBeNull();
+  });
+});
+
+describe("why an audit's verdict is what it is", () => {
+  it("when a submitted audit has reasons, then its page lists them in words with the rules version", async () => {
+    const detail = submittedDetail();
+    detail.audit = {
+      ...detail.audit,
+      rulesVersion: 2,
+      verdictReasons: [`Critical item failed: ${detail.items[0]!.text}`, airflowNotConfirmedReason],
+    };
+    stubApi({
+      "GET /api/auth/me": () => jsonResponse(auditor),
+      [`GET /api/audits/${auditId}`]: () => jsonResponse(detail),
+    });
+    renderApp(`/audits/${auditId}`);
+
+    expect(await screen.findByRole("heading", { level: 2, name: "Not ready" })).toBeTruthy();
+    const why = screen.getByRole("list", { name: "Why" });
+    expect(
+      within(why)
+        .getAllByRole("listitem")
+        .map((li) => li.textContent),
+    ).toEqual([`Critical item failed: ${detail.items[0]!.text}`, airflowNotConfirmedReason]);
+    expect(screen.getByText("Decided by Lintel's readiness rules, version 2.")).toBeTruthy();
+  });
+
+  it("when a verdict was decided before reasons were kept, then the page says so and lists none", async () => {
+    const detail = submittedDetail();
+    detail.audit = { ...detail.audit, rulesVersion: 1, verdictReasons: null };
+    stubApi({
+      "GET /api/auth/me": () => jsonResponse(auditor),
+      [`GET /api/audits/${auditId}`]: () => jsonResponse(detail),
+    });
+    renderApp(`/audits/${auditId}`);
+
+    expect(await screen.findByRole("heading", { level: 2, name: "Not ready" })).toBeTruthy();
+    expect(screen.queryByRole("list", { name: "Why" })).toBeNull();
+    expect(screen.getByText("Decided by Lintel's readiness rules, version 1.")).toBeTruthy();
   });
 });
 

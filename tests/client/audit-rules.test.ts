@@ -138,7 +138,11 @@ describe("what stands between a draft and submitting it", () => {
       [items[3]!.id, answer({ outcome: "not_applicable" })],
     ]);
     // critical 5 failed, major 3 + 3 passed, minor not applicable: 6 / 11.
-    expect(provisionalResult(items, answers)).toEqual({ verdict: "not_ready", score: 6 / 11 });
+    expect(provisionalResult("doffing_area", items, answers)).toEqual({
+      verdict: "not_ready",
+      reasons: [`Critical item failed: ${items[0]!.text}`],
+      score: 6 / 11,
+    });
   });
 });
 

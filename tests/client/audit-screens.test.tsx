@@ -1,6 +1,6 @@
 import "fake-indexeddb/auto";
 
-import { scoreOf, verdictOf } from "@shared/calc/verdict";
+import { readinessOf, rulesVersion, scoreOf } from "@shared/calc/verdict";
 import { cautionText } from "@shared/cautions";
 import type { AnswerBody, AuditDetail, ScheduleEntry } from "@shared/schemas/audits";
 import type { ChecklistItem } from "@shared/schemas/checklists";
@@ -133,6 +133,8 @@ function auditEndpoints(
     }
     server.submits += 1;
     const scored = detail.items.map((item) => ({
+      key: item.key,
+      text: item.text,
       severity: item.severity,
       outcome: detail.answers.find((answer) => answer.itemId === item.id)!.outcome!,
     }));
@@ -140,7 +142,10 @@ function auditEndpoints(
       ...detail.audit,
       status: "submitted",
       submittedAt: "2026-03-02T09:40:00.000Z",
-      verdict: verdictOf(scored),
+      ...(({ verdict, reasons }) => ({ verdict, verdictReasons: reasons }))(
+        readinessOf(detail.audit.zoneType, scored),
+      ),
+      rulesVersion,
       score: scoreOf(scored),
     };
     return jsonResponse(detail);

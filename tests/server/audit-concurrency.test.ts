@@ -3,7 +3,7 @@ import { randomInt } from "node:crypto";
 import { and, eq } from "drizzle-orm";
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
 
-import { scoreOf, verdictOf, type Severity } from "@shared/calc/verdict";
+import { readinessOf, scoreOf, type Severity } from "@shared/calc/verdict";
 
 import { createApp } from "../../server/app";
 import { connectDatabase, type DatabaseHandle } from "../../server/db/client";
@@ -22,6 +22,7 @@ import { testEnv } from "../helpers/test-env";
 
 interface Item {
   id: string;
+  key: string;
   severity: Severity;
   response: string;
   text: string;
@@ -71,7 +72,10 @@ describe("audit submit racing answer writes", () => {
       auditorId: auditor.user.id,
       fail: [],
     });
-    const detail = (await as().get(`/api/audits/${auditId}`)).body as { items: Item[] };
+    const detail = (await as().get(`/api/audits/${auditId}`)).body as {
+      audit: { zoneType: string };
+      items: Item[];
+    };
     const checks = detail.items.filter((item) => item.response === "check");
     // Eight items may turn to fail; each already has its photo, so a fail never blocks the submit.
     const changing = checks.slice(0, 8);
@@ -121,11 +125,13 @@ describe("audit submit racing answer writes", () => {
 
     // The verdict and score, worked out again from what is stored, are the ones recorded.
     const scored = detail.items.map((item) => ({
+      key: item.key,
+      text: item.text,
       severity: item.severity,
       outcome: byItem.get(item.id)!.outcome!,
     }));
     expect(audit!.status).toBe("submitted");
-    expect(audit!.verdict).toBe(verdictOf(scored));
+    expect(audit!.verdict).toBe(readinessOf(detail.audit.zoneType, scored).verdict);
     expect(audit!.score).toBeCloseTo(scoreOf(scored)!, 12);
     // Nothing stored after the submit; every stored fail has its finding.
     for (const answer of stored) {

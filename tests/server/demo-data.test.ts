@@ -140,6 +140,41 @@ describe("demo data", () => {
     }
   });
 
+  it("when the demo history is loaded, then every verdict records rules version 2 and isolation rooms are ready only with inward airflow confirmed", async () => {
+    const { db, logger, storage } = testApp().deps;
+    await runDemoSteps(db, logger, demoStepList, { storage });
+    const rows = await db
+      .select({
+        verdict: audits.verdict,
+        rulesVersion: audits.rulesVersion,
+        reasons: audits.verdictReasons,
+        // Whether the pressure item or the visual test passed in this audit.
+        confirmed: sql<boolean>`exists (
+          select 1 from ${auditAnswers} a join checklist_items i on i.id = a.item_id
+          where a.audit_id = ${audits.id} and a.outcome = 'pass'
+            and i.key in ('room.pressure', 'room.smoke-test'))`,
+      })
+      .from(audits)
+      .innerJoin(sites, eq(sites.id, audits.siteId))
+      .innerJoin(networks, eq(networks.id, sites.networkId))
+      .where(
+        and(
+          eq(networks.name, "Tamsin Bay Health"),
+          sql`${audits.spaceId} in (select id from spaces where zone_type = 'isolation_room')`,
+        ),
+      );
+    expect(rows.length).toBeGreaterThan(50);
+    for (const row of rows) {
+      expect(row.rulesVersion).toBe(2);
+      if (row.verdict !== "not_ready") expect(row.confirmed).toBe(true);
+      if (row.verdict !== "ready") expect(row.reasons!.length).toBeGreaterThan(0);
+    }
+    // Still a mix worth showing: the demo is not all "not ready".
+    const share = (verdict: string) => rows.filter((row) => row.verdict === verdict).length;
+    expect(share("ready")).toBeGreaterThan(0);
+    expect(share("not_ready")).toBeLessThan(rows.length);
+  });
+
   const demoSiteNames = [
     "Tamsin Bay General Hospital",
     "Orchard Hill Community Hospital",

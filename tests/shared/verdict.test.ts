@@ -1,31 +1,102 @@
 import { describe, expect, it } from "vitest";
 
-import { scoreOf, verdictOf, type ScoredAnswer } from "@shared/calc/verdict";
+import {
+  airflowNotConfirmedReason,
+  type JudgedAnswer,
+  readinessOf,
+  rulesVersion,
+  scoreOf,
+  type ScoredAnswer,
+} from "@shared/calc/verdict";
 
 // Lintel's own rules (not a published standard): see shared/calc/verdict.ts.
 const answer = (
   severity: ScoredAnswer["severity"],
   outcome: ScoredAnswer["outcome"],
-): ScoredAnswer => ({ severity, outcome });
+  key = `item.${severity}`,
+): JudgedAnswer => ({ key, text: `The ${severity} item`, severity, outcome });
 
-describe("verdict", () => {
-  it("when a critical item fails, then not ready, whatever else passes", () => {
-    expect(
-      verdictOf([answer("critical", "fail"), answer("major", "pass"), answer("minor", "pass")]),
-    ).toBe("not_ready");
+const pressure = (outcome: ScoredAnswer["outcome"]) => answer("critical", outcome, "room.pressure");
+// The default checklist's visual test is major; the rule treats its failure as critical anyway.
+const smoke = (outcome: ScoredAnswer["outcome"]) => answer("major", outcome, "room.smoke-test");
+
+describe("verdict (Lintel's own rules, version 2)", () => {
+  it("when the rules are version 2, then stored verdicts record 2", () => {
+    expect(rulesVersion).toBe(2);
   });
 
-  it("when only major or minor items fail, then ready with conditions", () => {
-    expect(verdictOf([answer("critical", "pass"), answer("minor", "fail")])).toBe(
+  it("when a critical item fails, then not ready, naming the item, whatever else passes", () => {
+    expect(
+      readinessOf("doffing_area", [
+        answer("critical", "fail"),
+        answer("major", "pass"),
+        answer("minor", "pass"),
+      ]),
+    ).toEqual({ verdict: "not_ready", reasons: ["Critical item failed: The critical item"] });
+  });
+
+  it("when only major or minor items fail, then ready with conditions, naming each", () => {
+    expect(readinessOf("anteroom", [answer("critical", "pass"), answer("minor", "fail")])).toEqual({
+      verdict: "ready_with_conditions",
+      reasons: ["Minor item failed: The minor item"],
+    });
+    expect(readinessOf("anteroom", [answer("major", "fail")]).verdict).toBe(
       "ready_with_conditions",
     );
-    expect(verdictOf([answer("major", "fail")])).toBe("ready_with_conditions");
   });
 
-  it("when nothing fails, then ready; not applicable does not fail", () => {
-    expect(verdictOf([answer("critical", "pass"), answer("major", "not_applicable")])).toBe(
-      "ready",
-    );
+  it("when nothing fails outside an isolation room, then ready; not applicable does not fail", () => {
+    expect(
+      readinessOf("donning_zone", [answer("critical", "pass"), answer("major", "not_applicable")]),
+    ).toEqual({ verdict: "ready", reasons: [] });
+  });
+
+  // Lintel's own rule, on top of CDC 2005 TB guidelines, MMWR 54(RR-17): check negative pressure
+  // (smoke tube or monitor) before occupancy and daily while occupied (clause from memory).
+  it("when an isolation room's pressure and visual test are both not applicable, then not ready: inward airflow not confirmed", () => {
+    expect(
+      readinessOf("isolation_room", [
+        pressure("not_applicable"),
+        smoke("not_applicable"),
+        answer("critical", "pass"),
+        answer("major", "pass"),
+      ]),
+    ).toEqual({ verdict: "not_ready", reasons: [airflowNotConfirmedReason] });
+    expect(airflowNotConfirmedReason).toMatch(/^Inward airflow not confirmed/);
+  });
+
+  it("when an isolation room's checklist has neither airflow item, then not ready: inward airflow not confirmed", () => {
+    expect(readinessOf("isolation_room", [answer("critical", "pass")]).reasons).toEqual([
+      airflowNotConfirmedReason,
+    ]);
+  });
+
+  it("when the pressure reading passes or the visual test passes, then inward airflow is confirmed", () => {
+    expect(readinessOf("isolation_room", [pressure("pass"), smoke("not_applicable")])).toEqual({
+      verdict: "ready",
+      reasons: [],
+    });
+    expect(readinessOf("isolation_room", [pressure("not_applicable"), smoke("pass")])).toEqual({
+      verdict: "ready",
+      reasons: [],
+    });
+  });
+
+  // Lintel's own rule: a visual test showing air leaving the room is critical, whatever the
+  // severity the checklist gives the item.
+  it("when the visual (smoke) test fails, then not ready even though the pressure reading passes", () => {
+    const result = readinessOf("isolation_room", [pressure("pass"), smoke("fail")]);
+    expect(result.verdict).toBe("not_ready");
+    expect(result.reasons).toEqual([
+      "Visual (smoke) test failed, which is always critical: The major item",
+    ]);
+  });
+
+  it("when the pressure reading fails and the visual test is not applicable, then both reasons are given", () => {
+    expect(readinessOf("isolation_room", [pressure("fail"), smoke("not_applicable")])).toEqual({
+      verdict: "not_ready",
+      reasons: ["Critical item failed: The critical item", airflowNotConfirmedReason],
+    });
   });
 });
 

@@ -3,6 +3,7 @@ import {
   doublePrecision,
   index,
   integer,
+  jsonb,
   pgEnum,
   pgTable,
   text,
@@ -45,6 +46,10 @@ export const audits = pgTable(
     submittedAt: timestamp("submitted_at", { withTimezone: true }),
     verdict: verdictEnum("verdict"),
     score: doublePrecision("score"),
+    /** The version of the readiness rules that decided the verdict (see shared/calc/verdict.ts). */
+    rulesVersion: integer("rules_version"),
+    /** Why the verdict, in words, as decided; null for verdicts decided before reasons were kept. */
+    verdictReasons: jsonb("verdict_reasons").$type<string[]>(),
     createdAt: timestamp("created_at", { withTimezone: true }).notNull().defaultNow(),
   },
   (table) => [
@@ -71,6 +76,8 @@ export const auditAnswers = pgTable(
     /** SI: Pa, m³/h, percent, air changes per hour, minutes. */
     value: doublePrecision("value"),
     unit: varchar("unit", { length: 10 }),
+    /** The reading as the auditor entered it, in `unit` (thresholds are judged in this unit). */
+    enteredValue: doublePrecision("entered_value"),
     count: integer("count"),
     choice: varchar("choice", { length: 40 }),
     note: text("note"),

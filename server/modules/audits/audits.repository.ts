@@ -32,6 +32,8 @@ const auditColumns = {
   submittedAt: audits.submittedAt,
   verdict: audits.verdict,
   score: audits.score,
+  rulesVersion: audits.rulesVersion,
+  verdictReasons: audits.verdictReasons,
 };
 
 type AuditRow = { startedAt: Date; submittedAt: Date | null; spaceRetiredAt: Date | null } & Omit<
@@ -80,7 +82,13 @@ export async function insertAudit(
 export async function markSubmitted(
   db: DbOrTx,
   auditId: string,
-  values: { verdict: Audit["verdict"]; score: number | null; submittedAt: Date },
+  values: {
+    verdict: Audit["verdict"];
+    score: number | null;
+    submittedAt: Date;
+    rulesVersion: number;
+    verdictReasons: string[];
+  },
 ) {
   await db
     .update(audits)
@@ -107,6 +115,7 @@ const answerColumns = {
   outcome: auditAnswers.outcome,
   value: auditAnswers.value,
   unit: auditAnswers.unit,
+  enteredValue: auditAnswers.enteredValue,
   count: auditAnswers.count,
   choice: auditAnswers.choice,
   note: auditAnswers.note,
@@ -280,10 +289,14 @@ export async function setAnswerOutcome(
 export async function setVerdict(
   db: DbOrTx,
   auditId: string,
-  verdict: Audit["verdict"],
-  score: number | null,
+  values: {
+    verdict: Audit["verdict"];
+    score: number | null;
+    rulesVersion: number;
+    verdictReasons: string[];
+  },
 ) {
-  await db.update(audits).set({ verdict, score }).where(eq(audits.id, auditId));
+  await db.update(audits).set(values).where(eq(audits.id, auditId));
 }
 
 /** How many audits, drafts included, the spaces have: any at all is history. */

@@ -1,9 +1,10 @@
-import { scoreOf, verdictOf } from "@shared/calc/verdict";
 import {
-  cfmToCubicMetresPerHour,
-  inchesOfWaterToPascals,
-  minimumAirChanges,
-} from "@shared/calc/ventilation";
+  AnswerRefusal,
+  decideAnswer as decideByRules,
+  type DecidedAnswer,
+} from "@shared/calc/answer-rules";
+import { readinessOf, rulesVersion, scoreOf } from "@shared/calc/verdict";
+import { minimumAirChanges } from "@shared/calc/ventilation";
 import { can } from "@shared/permissions";
 import type {
   AmendmentBody,
@@ -12,7 +13,6 @@ import type {
   Audit,
   AuditDetail,
   MyDueEntry,
-  ReadingUnit,
   ScheduleEntry,
 } from "@shared/schemas/audits";
 import type { ChecklistItem } from "@shared/schemas/checklists";
@@ -209,96 +209,20 @@ const idInUse = (what: string) =>
     fields: { id: `This ${what} id is already used for something else; make a new one.` },
   });
 
-const unitsFor: Record<string, readonly ReadingUnit[]> = {
-  pressure: ["Pa", "inH2O"],
-  airflow: ["m3/h", "cfm"],
-  air_changes: ["ach"],
-  percent: ["percent"],
-  minutes: ["min"],
-};
-
-/** Plausible ranges in SI, beyond which a reading is a typing slip rather than a measurement. */
-const plausible: Record<string, { min: number; max: number; message: string }> = {
-  pressure: {
-    min: -100,
-    max: 100,
-    message: "A pressure differential beyond ±100 Pa is not a plausible room reading.",
-  },
-  airflow: { min: 0, max: 100_000, message: "Airflow must be between 0 and 100,000 m³/h." },
-  air_changes: { min: 0, max: 200, message: "Air changes per hour must be between 0 and 200." },
-  percent: { min: 0, max: 100, message: "A percentage is between 0 and 100." },
-  minutes: { min: 0, max: 10_000, message: "Minutes must be between 0 and 10,000." },
-};
-
-function toSi(quantity: string, value: number, unit: ReadingUnit): number {
-  if (unit === "inH2O") return inchesOfWaterToPascals(value);
-  if (unit === "cfm") return cfmToCubicMetresPerHour(value);
-  return value;
-}
-
-function meets(threshold: { op: ">=" | "<="; value: number }, value: number) {
-  return threshold.op === ">=" ? value >= threshold.value : value <= threshold.value;
-}
-
 /**
- * Works out what to store for an answer: readings in SI units, and the outcome decided by the
- * item's threshold where it has one (the auditor may still mark the item not applicable).
+ * The answer rules live in shared/ (the phone judges with the same ones); here a refusal becomes
+ * a 400 naming the field.
  */
 function decideAnswer(item: ChecklistItem, body: AnswerBody, room: AuditDetail["room"]) {
-  const base = {
-    outcome: body.outcome,
-    value: null as number | null,
-    unit: null as ReadingUnit | null,
-    count: null as number | null,
-    choice: null as string | null,
-    note: body.note ?? null,
-  };
-  if (body.outcome === "not_applicable" || body.outcome === null) return base;
-
-  switch (item.response) {
-    case "check":
-      return base;
-    case "reading": {
-      if (body.value === undefined || body.value === null)
-        throw invalid("value", "Enter the reading.");
-      const quantity = item.quantity ?? "pressure";
-      const unit = body.unit ?? unitsFor[quantity]![0]!;
-      if (!unitsFor[quantity]!.includes(unit))
-        throw invalid("unit", `Use ${unitsFor[quantity]!.join(" or ")} for this reading.`);
-      const value = toSi(quantity, body.value, unit);
-      const range = plausible[quantity]!;
-      if (!Number.isFinite(value) || value < range.min || value > range.max)
-        throw invalid("value", range.message);
-      let outcome = body.outcome;
-      if (item.threshold) outcome = meets(item.threshold, value) ? "pass" : "fail";
-      else if (quantity === "air_changes" && room?.minimumAirChanges)
-        outcome = value >= room.minimumAirChanges ? "pass" : "fail";
-      return { ...base, outcome, value, unit };
-    }
-    case "count": {
-      if (body.count === undefined || body.count === null)
-        throw invalid("count", "Enter the count.");
-      const outcome = item.threshold
-        ? meets(item.threshold, body.count)
-          ? "pass"
-          : "fail"
-        : body.outcome;
-      return { ...base, outcome, count: body.count };
-    }
-    case "choice": {
-      const choice = item.choices?.find((option) => option.value === body.choice);
-      if (!choice) throw invalid("choice", "Choose one of the options.");
-      return {
-        ...base,
-        outcome: choice.passes ? ("pass" as const) : ("fail" as const),
-        choice: choice.value,
-      };
-    }
+  try {
+    return decideByRules(item, body, room);
+  } catch (error) {
+    if (error instanceof AnswerRefusal) throw invalid(error.field, error.message);
+    throw error;
   }
 }
 
-type DecidedAnswer = ReturnType<typeof decideAnswer>;
-
+/** The same answer again; the entered value follows from the stored value and unit. */
 function sameAnswer(stored: Answer, decided: DecidedAnswer) {
   return (
     stored.outcome === decided.outcome &&
@@ -459,10 +383,12 @@ export async function submitAudit(
     }
 
     const scored = detail.items.map((item) => ({
+      key: item.key,
+      text: item.text,
       severity: item.severity,
       outcome: answers.get(item.id)!.outcome!,
     }));
-    const verdict = verdictOf(scored);
+    const { verdict, reasons } = readinessOf(current.zoneType, scored);
     const score = scoreOf(scored);
     // Every failed item becomes a finding followed up by a corrective action, in the same commit.
     const failed = detail.items.flatMap((item) => {
@@ -481,13 +407,19 @@ export async function submitAudit(
     });
     const actor = { userId: auth.user.id, requestId };
     const submittedAt = new Date();
-    await repo.markSubmitted(tx, auditId, { verdict, score, submittedAt });
+    await repo.markSubmitted(tx, auditId, {
+      verdict,
+      score,
+      submittedAt,
+      rulesVersion,
+      verdictReasons: reasons,
+    });
     await recordChange(tx, actor, {
       action: "audit.submitted",
       entity: "audit",
       entityId: auditId,
       siteId: current.siteId,
-      after: { verdict, score },
+      after: { verdict, score, rulesVersion, reasons },
     });
     await countSubmittedAudit(tx, {
       siteId: current.siteId,
@@ -540,11 +472,14 @@ export async function amendAudit(
         candidate.id === body.itemId
           ? body.outcome
           : detail.answers.find((answer) => answer.itemId === candidate.id)?.outcome;
-      return outcome ? [{ severity: candidate.severity, outcome }] : [];
+      return outcome
+        ? [{ key: candidate.key, text: candidate.text, severity: candidate.severity, outcome }]
+        : [];
     });
-    const verdict = verdictOf(outcomes);
+    // An amendment decides again under the current rules, whichever version decided before.
+    const { verdict, reasons } = readinessOf(detail.audit.zoneType, outcomes);
     const score = scoreOf(outcomes);
-    await repo.setVerdict(tx, auditId, verdict, score);
+    await repo.setVerdict(tx, auditId, { verdict, score, rulesVersion, verdictReasons: reasons });
     await recordChange(tx, actor, {
       action: "audit.amended",
       entity: "audit",
@@ -555,12 +490,15 @@ export async function amendAudit(
         outcome: before.outcome,
         note: before.note,
         verdict: detail.audit.verdict,
+        rulesVersion: detail.audit.rulesVersion,
       },
       after: {
         itemId: body.itemId,
         outcome: body.outcome,
         note: body.note ?? before.note,
         verdict,
+        rulesVersion,
+        reasons,
       },
       reason: body.reason,
     });

@@ -5,6 +5,7 @@ import PDFDocument from "pdfkit";
 import { cautionText } from "@shared/cautions";
 import { itemCategoryLabels } from "@shared/checklists/categories";
 import { formatInZone } from "@shared/calc/due";
+import { rulesVersion } from "@shared/calc/verdict";
 import type { ComparisonResponse, TrendsResponse } from "@shared/schemas/committee";
 import { zoneTypeLabels } from "@shared/zones";
 
@@ -113,7 +114,7 @@ export function buildMonthlyReport(input: ReportInput): Promise<Buffer> {
     .fontSize(9)
     .fillColor(muted)
     .text(
-      `Share of submitted audits with a "ready" verdict, with 95% Wilson score intervals (Newcombe 1998). Sites with fewer than ${comparison.minimumRankedSample} audits are flagged and not ranked. Network: ${percent(comparison.network.rate)} of ${comparison.network.n} audits.`,
+      `Share of submitted audits with a "ready" verdict, with 95% Wilson score intervals (Newcombe 1998). Sites with fewer than ${comparison.minimumRankedSample} audits are flagged and not ranked. Network: ${percent(comparison.network.rate)} of ${comparison.network.n} audits. Under the readiness rules version ${rulesVersion}, an isolation room is "not ready" unless inward airflow was confirmed in the audit (a pressure reading meeting the threshold or a passing visual test); each audit's page gives the reasons for its verdict.`,
       { width },
     );
   doc.moveDown(0.4).fillColor(ink);

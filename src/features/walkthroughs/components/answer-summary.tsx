@@ -70,7 +70,7 @@ export function rowsFromServer(detail: AuditDetail): AnswerRow[] {
           ...answer,
           value:
             answer.value !== null && answer.unit !== null
-              ? fromStoredUnit(answer.value, answer.unit)
+              ? (answer.enteredValue ?? fromStoredUnit(answer.value, answer.unit))
               : answer.value,
         }
       : null;

@@ -10,6 +10,10 @@ import { AnswerSummary, type AnswerRow } from "./answer-summary";
 
 export interface AuditOutcomeProps {
   verdict: Verdict;
+  /** Why, in words; null when the verdict was decided before reasons were kept. */
+  reasons: readonly string[] | null;
+  /** The version of the readiness rules that decided it; null when not recorded. */
+  rulesVersion: number | null;
   score: number | null;
   /** Worked out on the phone; the server has not confirmed it yet. */
   provisional: boolean;
@@ -22,13 +26,16 @@ export interface AuditOutcomeProps {
 /** The end of an audit: the verdict large, the score, and what failed. */
 export function AuditOutcome({
   verdict,
-  score,
+  reasons,
+  rulesVersion,
   provisional,
+  score,
   rows,
   byline,
   actions,
 }: AuditOutcomeProps) {
   const failedId = useId();
+  const reasonsId = useId();
   const failed = rows.filter((row) => row.outcome === "fail");
   return (
     <div className="flex flex-col gap-5">
@@ -42,6 +49,25 @@ export function AuditOutcome({
           </div>
         ) : null}
         <VerdictBanner verdict={verdict} />
+        {reasons && reasons.length > 0 ? (
+          <div className="flex flex-col gap-1">
+            <h2 id={reasonsId} className="text-base font-semibold">
+              Why
+            </h2>
+            <ul aria-labelledby={reasonsId} className="list-disc pl-5 text-base">
+              {reasons.map((reason) => (
+                <li key={reason} className="break-words">
+                  {reason}
+                </li>
+              ))}
+            </ul>
+          </div>
+        ) : null}
+        <p className="text-sm text-ink-muted">
+          {rulesVersion === null
+            ? "Decided by Lintel's readiness rules before their version was recorded."
+            : `Decided by Lintel's readiness rules, version ${rulesVersion}.`}
+        </p>
         <p className="text-lg">
           Score <strong className="text-2xl">{formatScore(score)}</strong>
           <span className="block text-sm text-ink-muted">

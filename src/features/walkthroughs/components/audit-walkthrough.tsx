@@ -1,3 +1,4 @@
+import { rulesVersion } from "@shared/calc/verdict";
 import type { AuditDetail } from "@shared/schemas/audits";
 import type { ChecklistItem } from "@shared/schemas/checklists";
 import { zoneTypeLabels } from "@shared/zones";
@@ -283,10 +284,12 @@ export function AuditWalkthrough({ snapshot, afterLinks }: AuditWalkthroughProps
     body = <DraftWalkthrough auditId={audit.auditId} detail={detail} snapshot={snapshot} />;
   } else {
     const confirmed = audit.state === "submitted" && detail.audit.verdict !== null;
-    const local = provisionalResult(detail.items, answers);
+    const local = provisionalResult(detail.audit.zoneType, detail.items, answers);
     body = (
       <AuditOutcome
         verdict={confirmed ? detail.audit.verdict! : local.verdict}
+        reasons={confirmed ? (detail.audit.verdictReasons ?? null) : local.reasons}
+        rulesVersion={confirmed ? (detail.audit.rulesVersion ?? null) : rulesVersion}
         score={confirmed ? detail.audit.score : local.score}
         provisional={!confirmed}
         rows={rowsFromPhone(detail.items, answers, photos)}
@@ -346,6 +349,8 @@ export function SubmittedAudit({
       {audit.status === "submitted" && audit.verdict ? (
         <AuditOutcome
           verdict={audit.verdict}
+          reasons={audit.verdictReasons ?? null}
+          rulesVersion={audit.rulesVersion ?? null}
           score={audit.score}
           provisional={false}
           rows={rows}

@@ -1,8 +1,13 @@
-import { type Outcome, scoreOf, type Verdict, verdictOf } from "@shared/calc/verdict";
+import {
+  meetsThreshold,
+  outcomeOfEntry,
+  type Threshold,
+  thresholdFor,
+} from "@shared/calc/answer-rules";
+import { type Outcome, readinessOf, scoreOf, type Verdict } from "@shared/calc/verdict";
 import type { AuditDetail, ReadingUnit } from "@shared/schemas/audits";
 import type { ChecklistItem } from "@shared/schemas/checklists";
-
-import { toStoredUnit } from "./reading-units";
+import type { ZoneType } from "@shared/zones";
 
 /** What an auditor records against one item, as entered (readings in the unit chosen). */
 export interface AnswerFields {
@@ -16,11 +21,7 @@ export interface AnswerFields {
 
 export type RoomFacts = AuditDetail["room"];
 
-export interface Threshold {
-  op: ">=" | "<=";
-  /** In the stored unit (Pa, m³/h, ACH, percent, minutes). */
-  value: number;
-}
+export type { Threshold };
 
 export const emptyAnswer: AnswerFields = {
   outcome: null,
@@ -31,27 +32,8 @@ export const emptyAnswer: AnswerFields = {
   note: null,
 };
 
-/**
- * The limit a reading or count is judged against. An air-change reading without a limit of its own
- * takes the one for the room's construction class.
- */
-export function thresholdFor(item: ChecklistItem, room: RoomFacts): Threshold | null {
-  if (item.threshold) return item.threshold;
-  if (item.response === "reading" && item.quantity === "air_changes" && room?.minimumAirChanges) {
-    return { op: ">=", value: room.minimumAirChanges };
-  }
-  return null;
-}
-
-// Readings converted between units land a hair either side of the limit; that is not a fail.
-const tolerance = 1e-9;
-
-export function meetsThreshold(storedValue: number, threshold: Threshold): boolean {
-  const slack = tolerance * Math.max(1, Math.abs(threshold.value));
-  return threshold.op === ">="
-    ? storedValue >= threshold.value - slack
-    : storedValue <= threshold.value + slack;
-}
+/** The shared answer rules (the server judges with the same ones). */
+export { meetsThreshold, thresholdFor };
 
 /**
  * Whether the value itself decides pass or fail (a reading or count with a limit, or a choice);
@@ -71,22 +53,7 @@ export function outcomeFromEntry(
   fields: AnswerFields,
   room: RoomFacts,
 ): Outcome | null {
-  if (item.response === "choice") {
-    const picked = item.choices?.find((choice) => choice.value === fields.choice);
-    if (!picked) return null;
-    return picked.passes ? "pass" : "fail";
-  }
-  const threshold = thresholdFor(item, room);
-  if (!threshold) return null;
-  if (item.response === "reading") {
-    if (fields.value === null || fields.unit === null) return null;
-    return meetsThreshold(toStoredUnit(fields.value, fields.unit), threshold) ? "pass" : "fail";
-  }
-  if (item.response === "count") {
-    if (fields.count === null) return null;
-    return meetsThreshold(fields.count, threshold) ? "pass" : "fail";
-  }
-  return null;
+  return outcomeOfEntry(item, fields, room);
 }
 
 export const criticalNotApplicableMessage =
@@ -177,16 +144,20 @@ export function reviewAudit(
   };
 }
 
-/** The verdict and score the answers give, worked out on the phone before the server confirms. */
+/**
+ * The verdict, its reasons and the score the answers give, worked out on the phone with the same
+ * rules as the server, before the server confirms.
+ */
 export function provisionalResult(
+  zoneType: ZoneType,
   items: readonly ChecklistItem[],
   answers: ReadonlyMap<string, AnswerFields>,
-): { verdict: Verdict; score: number | null } {
+): { verdict: Verdict; reasons: string[]; score: number | null } {
   const scored = items.flatMap((item) => {
     const outcome = answers.get(item.id)?.outcome;
-    return outcome ? [{ severity: item.severity, outcome }] : [];
+    return outcome ? [{ key: item.key, text: item.text, severity: item.severity, outcome }] : [];
   });
-  return { verdict: verdictOf(scored), score: scoreOf(scored) };
+  return { ...readinessOf(zoneType, scored), score: scoreOf(scored) };
 }
 
 /** "84%" from a score in [0, 1]. */

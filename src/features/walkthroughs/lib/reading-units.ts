@@ -1,13 +1,13 @@
 import {
-  cfmToCubicMetresPerHour,
-  cubicMetresPerCubicFoot,
-  inchesOfWaterToPascals,
-  pascalsToInchesOfWater,
-} from "@shared/calc/ventilation";
-import type { ReadingUnit } from "@shared/schemas/audits";
-import type { ChecklistItem } from "@shared/schemas/checklists";
+  fromSi,
+  type Quantity,
+  type ReadingUnit,
+  storedUnitOf,
+  toSi,
+  unitsForQuantity,
+} from "@shared/calc/answer-rules";
 
-export type Quantity = NonNullable<ChecklistItem["quantity"]>;
+export type { Quantity };
 
 export interface UnitChoice {
   unit: ReadingUnit;
@@ -29,42 +29,25 @@ const units: Record<ReadingUnit, UnitChoice> = {
   min: { unit: "min", label: "minutes", symbol: "min", decimals: 0 },
 };
 
-/** The units an auditor may read each quantity in; the first is the stored (SI) one. */
+/** The units an auditor may read each quantity in (the shared rules); the first is the stored one. */
+const choicesOf = (quantity: Quantity) => unitsForQuantity[quantity].map((unit) => units[unit]);
 export const unitsByQuantity: Record<Quantity, readonly UnitChoice[]> = {
-  pressure: [units.Pa, units.inH2O],
-  airflow: [units["m3/h"], units.cfm],
-  air_changes: [units.ach],
-  percent: [units.percent],
-  minutes: [units.min],
+  pressure: choicesOf("pressure"),
+  airflow: choicesOf("airflow"),
+  air_changes: choicesOf("air_changes"),
+  percent: choicesOf("percent"),
+  minutes: choicesOf("minutes"),
 };
 
 export function defaultUnit(quantity: Quantity): ReadingUnit {
-  return unitsByQuantity[quantity][0]!.unit;
+  return storedUnitOf(quantity);
 }
 
 /** A value as read in `unit` → the stored unit (Pa, m³/h; the others are stored as read). */
-export function toStoredUnit(value: number, unit: ReadingUnit): number {
-  switch (unit) {
-    case "inH2O":
-      return inchesOfWaterToPascals(value);
-    case "cfm":
-      return cfmToCubicMetresPerHour(value);
-    default:
-      return value;
-  }
-}
+export const toStoredUnit = toSi;
 
 /** A stored value → the unit the auditor chose, to show it the way it was read. */
-export function fromStoredUnit(value: number, unit: ReadingUnit): number {
-  switch (unit) {
-    case "inH2O":
-      return pascalsToInchesOfWater(value);
-    case "cfm":
-      return value / (cubicMetresPerCubicFoot * 60);
-    default:
-      return value;
-  }
-}
+export const fromStoredUnit = fromSi;
 
 function trimZeros(text: string): string {
   return text.includes(".") ? text.replace(/\.?0+$/, "") : text;
