@@ -77,7 +77,8 @@ export async function createDemoAuditHistory(
   siteIds: Record<DemoSiteKey, string>,
   now = new Date(),
 ) {
-  await ensureDefaultChecklists(tx, networkId);
+  // The year of history was audited on version 1 of the defaults; a later step brings version 2.
+  await ensureDefaultChecklists(tx, networkId, 1);
   const random = mulberry32(20261202);
   const [auditor, auditor2] = await Promise.all(
     ["auditor@example.org", "auditor2@example.org"].map(

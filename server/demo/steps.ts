@@ -5,6 +5,7 @@ import type { ConstructionClass } from "@shared/zones";
 import { hashPassword } from "../auth/password";
 import { networks, roleGrants, sites, users } from "../db/schema/index";
 import { recordChange } from "../lib/change-log";
+import { ensureDefaultChecklists } from "../modules/checklists/checklists.service";
 import { createDemoAuditHistory } from "./audit-history";
 import { createDemoCorrectiveActions } from "./corrective-actions";
 import { createDemoFloor, type DemoFloorPlan } from "./floor-plans";
@@ -196,10 +197,21 @@ const correctiveActionsHistory: DemoStep = {
   },
 };
 
+const checklistDefaultsV2: DemoStep = {
+  id: "2026-12-03-checklist-defaults-v2",
+  description: "version 2 of the default checklists, published over the unedited version 1",
+  async run(tx) {
+    const demo = await findDemoSites(tx);
+    if (!demo) return;
+    await ensureDefaultChecklists(tx, demo.networkId);
+  },
+};
+
 /** In release order; append new steps, never reorder or rename released ones. */
 export const demoStepList: DemoStep[] = [
   networkSitesPeople,
   floorPlans,
   auditHistory,
   correctiveActionsHistory,
+  checklistDefaultsV2,
 ];

@@ -51,6 +51,8 @@ export const checklistsResponseSchema = z.object({
       zoneType: z.enum(zoneTypes),
       published: checklistVersionSchema,
       draft: checklistVersionSchema.nullable(),
+      /** Set while the draft holds a newer revision of Lintel's defaults offered to the network. */
+      defaultUpdate: z.object({ revision: z.number().int() }).nullable(),
     }),
   ),
 });

@@ -46,7 +46,7 @@ function version(zoneType: ZoneType, overrides: Partial<ChecklistVersion> = {}):
 function checklists() {
   return {
     checklists: (["isolation_room", "anteroom", "donning_zone", "doffing_area"] as const).map(
-      (zoneType) => ({ zoneType, published: version(zoneType), draft: null }),
+      (zoneType) => ({ zoneType, published: version(zoneType), draft: null, defaultUpdate: null }),
     ),
   };
 }
@@ -130,5 +130,25 @@ describe("the checklist editor", () => {
     await vi.waitFor(() => expect(text.getAttribute("aria-invalid")).toBe("true"));
     expect(screen.getAllByLabelText("Severity")[3]!.getAttribute("aria-invalid")).toBe("true");
     expect(calls.some((call) => call.method === "PUT")).toBe(false);
+  });
+
+  it("when the network edited a checklist and Lintel's defaults moved on, then the page says the new default waits as a draft beside the network's version", async () => {
+    const list = checklists();
+    const doffing = list.checklists.find((entry) => entry.zoneType === "doffing_area")!;
+    Object.assign(doffing, {
+      published: version("doffing_area", { version: 2 }),
+      draft: version("doffing_area", { version: 3, status: "draft", publishedAt: null }),
+      defaultUpdate: { revision: 2 },
+    });
+    stubApi({ ...signedInAs(administrator), "GET /api/checklists": () => jsonResponse(list) });
+    renderApp("/admin/checklists");
+
+    const card = (await screen.findByRole("heading", { name: "Doffing area" })).closest("section")!;
+    expect(within(card).getByText("Lintel's default checklist has a version 2")).toBeTruthy();
+    expect(card.textContent).toMatch(/waits as the draft of version 3, beside your version 2/);
+    expect(card.textContent).toMatch(/every audit uses version 2/);
+    // The other kinds of space have no offer, so they say nothing of it.
+    const room = screen.getByRole("heading", { name: "Isolation room" }).closest("section")!;
+    expect(room.textContent).not.toMatch(/default checklist has a version/);
   });
 });

@@ -5,6 +5,7 @@ import {
   auditAnswers,
   audits,
   changeLog,
+  checklistVersions,
   correctiveActions,
   demoSteps,
   findings,
@@ -173,6 +174,41 @@ describe("demo data", () => {
     const share = (verdict: string) => rows.filter((row) => row.verdict === verdict).length;
     expect(share("ready")).toBeGreaterThan(0);
     expect(share("not_ready")).toBeLessThan(rows.length);
+  });
+
+  it("when the demo starts, then its year of audits stays on version 1 and version 2 of each default checklist is published", async () => {
+    const { db, logger, storage } = testApp().deps;
+    await runDemoSteps(db, logger, demoStepList, { storage });
+    const [network] = await db
+      .select({ id: networks.id })
+      .from(networks)
+      .where(eq(networks.name, "Tamsin Bay Health"));
+    const versions = await db
+      .select({
+        zoneType: checklistVersions.zoneType,
+        version: checklistVersions.version,
+        status: checklistVersions.status,
+      })
+      .from(checklistVersions)
+      .where(eq(checklistVersions.networkId, network!.id));
+    for (const zoneType of ["isolation_room", "anteroom", "donning_zone", "doffing_area"]) {
+      expect(
+        versions
+          .filter((v) => v.zoneType === zoneType)
+          .map((v) => [v.version, v.status])
+          .sort(),
+        zoneType,
+      ).toEqual([
+        [1, "published"],
+        [2, "published"],
+      ]);
+    }
+    const auditedOn = await db
+      .selectDistinct({ version: checklistVersions.version })
+      .from(audits)
+      .innerJoin(checklistVersions, eq(checklistVersions.id, audits.checklistVersionId))
+      .where(eq(checklistVersions.networkId, network!.id));
+    expect(auditedOn).toEqual([{ version: 1 }]);
   });
 
   const demoSiteNames = [

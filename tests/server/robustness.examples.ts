@@ -284,8 +284,9 @@ export const examples: Record<string, RouteExample> = {
   },
   "DELETE /checklists/:zoneType/draft": {
     async control(w) {
-      await w.fresh.checklistDraft("isolation_room");
-      return { params: { zoneType: "isolation_room" } };
+      // An isolation-room draft must keep its airflow items; a doffing draft has no such rule.
+      await w.fresh.checklistDraft("doffing_area");
+      return { params: { zoneType: "doffing_area" } };
     },
   },
 

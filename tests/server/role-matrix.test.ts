@@ -454,14 +454,14 @@ const samples: Record<string, Sample> = {
       await checklistSaveDraft(
         testApp().deps.db,
         world.networkId,
-        "isolation_room",
+        "doffing_area",
         {
-          title: "Room",
-          items: [{ text: "Door", severity: "major", response: "check", photoOnFail: false }],
+          title: "Doffing",
+          items: [{ text: "Bins", severity: "major", response: "check", photoOnFail: false }],
         },
         { userId: null, requestId: null },
       );
-      return { url: "/api/checklists/isolation_room/draft" };
+      return { url: "/api/checklists/doffing_area/draft" };
     },
     ok: 204,
     allowed: ["administrator (network)"],

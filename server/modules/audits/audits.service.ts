@@ -5,6 +5,7 @@ import {
 } from "@shared/calc/answer-rules";
 import { readinessOf, rulesVersion, scoreOf } from "@shared/calc/verdict";
 import { minimumAirChanges } from "@shared/calc/ventilation";
+import { notApplicableNeedsNote } from "@shared/checklists/defaults";
 import { can } from "@shared/permissions";
 import type {
   AmendmentBody,
@@ -253,6 +254,8 @@ export async function saveAnswer(
     ]);
     const item = items.find((candidate) => candidate.id === itemId);
     if (!item) throw notFound("That checklist item in this audit");
+    if (body.outcome === "not_applicable" && notApplicableNeedsNote(item.key) && !body.note?.trim())
+      throw invalid("note", "This item can be marked not applicable only with a note saying why.");
     const decided = decideAnswer(item, body, room);
     const owner = await repo.findAnswerOwner(tx, body.id);
     if (owner && (owner.auditId !== auditId || owner.itemId !== itemId)) throw idInUse("answer");

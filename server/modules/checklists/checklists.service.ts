@@ -1,6 +1,14 @@
 import { randomUUID } from "node:crypto";
 
-import { defaultChecklists, type DefaultItem } from "@shared/checklists/defaults";
+import {
+  defaultChecklistRevision,
+  defaultChecklists,
+  requiredIsolationRoomKeys,
+  type DefaultChecklist,
+  type DefaultItem,
+} from "@shared/checklists/defaults";
+import { defaultChecklistsV1 } from "@shared/checklists/defaults-v1";
+import { and, desc, eq, sql } from "drizzle-orm";
 import type {
   ChecklistDraftBody,
   ChecklistsResponse,
@@ -9,6 +17,7 @@ import type {
 import { zoneTypes, type ZoneType } from "@shared/zones";
 
 import type { Database, DbOrTx } from "../../db/client";
+import { changeLog, checklistVersions } from "../../db/schema/index";
 import { AppError, notFound } from "../../lib/app-error";
 import { databaseCodeOf } from "../../lib/database-errors";
 import { recordChange, type Actor } from "../../lib/change-log";
@@ -30,22 +39,101 @@ function itemRow(item: DefaultItem | ChecklistDraftBody["items"][number], positi
   };
 }
 
-/** Publishes version 1 of each default checklist the network does not have yet. */
-export async function ensureDefaultChecklists(db: DbOrTx, networkId: string): Promise<void> {
+const defaultsByRevision: Record<number, Record<ZoneType, DefaultChecklist>> = {
+  1: defaultChecklistsV1,
+  [defaultChecklistRevision]: defaultChecklists,
+};
+
+/** Change-log action that marks which revision of Lintel's defaults a network has been given. */
+const revisionAction = "checklist.default_revision";
+const system: Actor = { userId: null, requestId: null };
+
+interface RevisionRecord {
+  revision: number;
+  outcome: "published" | "draft";
+  draftId: string | null;
+}
+
+/** The newest revision of the defaults recorded against the network's versions of a zone type. */
+async function recordedRevision(
+  db: DbOrTx,
+  networkId: string,
+  zoneType: ZoneType,
+): Promise<RevisionRecord | null> {
+  const [row] = await db
+    .select({ after: changeLog.after })
+    .from(changeLog)
+    .innerJoin(checklistVersions, eq(checklistVersions.id, changeLog.entityId))
+    .where(
+      and(
+        eq(changeLog.action, revisionAction),
+        eq(checklistVersions.networkId, networkId),
+        eq(checklistVersions.zoneType, zoneType),
+      ),
+    )
+    .orderBy(desc(sql`(${changeLog.after}->>'revision')::int`))
+    .limit(1);
+  return (row?.after as RevisionRecord | undefined) ?? null;
+}
+
+/**
+ * Gives the network each zone type's default checklist, up to `revision` of Lintel's defaults.
+ * A network without one gets the defaults published as its version 1. A network still on an
+ * older default it never edited gets the new default published as its next version (audits
+ * already done keep the version they started with). A network that published its own version
+ * gets the new default as a draft beside it, for its administrator to merge; while it has a
+ * draft of its own open, the offer waits.
+ */
+export async function ensureDefaultChecklists(
+  db: DbOrTx,
+  networkId: string,
+  revision = defaultChecklistRevision,
+): Promise<void> {
   for (const zoneType of zoneTypes) {
-    if (await repo.latestPublished(db, networkId, zoneType)) continue;
-    const defaults = defaultChecklists[zoneType];
+    const latest = await repo.latestPublished(db, networkId, zoneType);
+    const recorded = latest ? await recordedRevision(db, networkId, zoneType) : null;
+    // Version 1 published by the system before revisions were recorded is revision 1.
+    const current = recorded?.revision ?? (latest ? 1 : 0);
+    if (current >= revision) continue;
+    const defaults = defaultsByRevision[revision]![zoneType];
     try {
       await db.transaction(async (tx) => {
+        if (!latest) {
+          const version = await repo.insertVersion(tx, {
+            networkId,
+            zoneType,
+            version: 1,
+            status: "published",
+            title: defaults.title,
+            publishedAt: new Date(),
+          });
+          await repo.replaceItems(tx, version.id, defaults.items.map(itemRow));
+          await recordRevision(tx, version.id, zoneType, { revision, outcome: "published" });
+          return;
+        }
+        const draft = await repo.findDraft(tx, networkId, zoneType);
+        if (draft) return;
+        const unedited =
+          latest.publishedBy === null &&
+          (latest.version === 1 || recorded?.outcome === "published");
         const version = await repo.insertVersion(tx, {
           networkId,
           zoneType,
-          version: 1,
-          status: "published",
-          title: defaults.title,
-          publishedAt: new Date(),
+          version: await repo.nextVersionNumber(tx, networkId, zoneType),
+          status: unedited ? "published" : "draft",
+          title: unedited ? defaults.title : latest.title,
+          publishedAt: unedited ? new Date() : null,
         });
         await repo.replaceItems(tx, version.id, defaults.items.map(itemRow));
+        if (unedited)
+          await recordRevision(tx, version.id, zoneType, { revision, outcome: "published" });
+        // Recorded against the network's own version, which stays if the draft is discarded.
+        else
+          await recordRevision(tx, latest.id, zoneType, {
+            revision,
+            outcome: "draft",
+            draftId: version.id,
+          });
       });
     } catch (error) {
       // Another request published it at the same moment: theirs stands.
@@ -54,15 +142,49 @@ export async function ensureDefaultChecklists(db: DbOrTx, networkId: string): Pr
   }
 }
 
+async function recordRevision(
+  tx: DbOrTx,
+  versionId: string,
+  zoneType: ZoneType,
+  record: { revision: number; outcome: RevisionRecord["outcome"]; draftId?: string },
+): Promise<void> {
+  await recordChange(tx, system, {
+    action: revisionAction,
+    entity: "checklist",
+    entityId: versionId,
+    siteId: null,
+    after: { zoneType, draftId: null, ...record },
+  });
+}
+
+/** Refuses an isolation-room checklist without the items that confirm inward airflow. */
+function assertRequiredItems(zoneType: ZoneType, keys: readonly string[]): void {
+  if (zoneType !== "isolation_room") return;
+  const missing = requiredIsolationRoomKeys.filter((key) => !keys.includes(key));
+  if (missing.length === 0) return;
+  const message = `An isolation-room checklist must keep ${missing.join(" and ")}: together they confirm that air moves into the room.`;
+  throw new AppError("validation_failed", 400, message, { fields: { items: message } });
+}
+
 export async function listChecklists(db: Database, networkId: string): Promise<ChecklistsResponse> {
   await ensureDefaultChecklists(db, networkId);
   const versions = await repo.currentVersions(db, networkId);
   return {
-    checklists: zoneTypes.map((zoneType) => ({
-      zoneType,
-      published: versions.find((v) => v.zoneType === zoneType && v.status === "published")!,
-      draft: versions.find((v) => v.zoneType === zoneType && v.status === "draft") ?? null,
-    })),
+    checklists: await Promise.all(
+      zoneTypes.map(async (zoneType) => {
+        const draft = versions.find((v) => v.zoneType === zoneType && v.status === "draft") ?? null;
+        const recorded = draft ? await recordedRevision(db, networkId, zoneType) : null;
+        return {
+          zoneType,
+          published: versions.find((v) => v.zoneType === zoneType && v.status === "published")!,
+          draft,
+          defaultUpdate:
+            recorded?.outcome === "draft" && recorded.draftId === draft?.id
+              ? { revision: recorded.revision }
+              : null,
+        };
+      }),
+    ),
   };
 }
 
@@ -81,6 +203,7 @@ export async function saveDraft(
       fields: { items: "Two items share a key." },
     });
   }
+  assertRequiredItems(zoneType, keys);
   return db.transaction(async (tx) => {
     let draft = await repo.findDraft(tx, networkId, zoneType);
     draft ??= await repo.insertVersion(tx, {
@@ -121,6 +244,10 @@ export async function publishDraft(
   return db.transaction(async (tx) => {
     const draft = await repo.findDraft(tx, networkId, zoneType);
     if (!draft) throw notFound("A draft of this checklist");
+    assertRequiredItems(
+      zoneType,
+      (await repo.itemsOfVersion(tx, draft.id)).map((item) => item.key),
+    );
     const publishedAt = new Date();
     await repo.updateVersion(tx, draft.id, {
       status: "published",

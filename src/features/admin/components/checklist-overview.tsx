@@ -2,6 +2,7 @@ import type { ChecklistsResponse, ChecklistVersion } from "@shared/schemas/check
 import { type ZoneType, zoneTypeLabels } from "@shared/zones";
 import { useId } from "react";
 
+import { Alert } from "@/components/ui/alert";
 import { Badge } from "@/components/ui/badge";
 import { Button } from "@/components/ui/button";
 import { Card } from "@/components/ui/card";
@@ -23,7 +24,7 @@ function ChecklistCard({
   onEdit: (zoneType: ZoneType) => void;
 }) {
   const headingId = useId();
-  const { published, draft } = entry;
+  const { published, draft, defaultUpdate } = entry;
   const items = [...published.items].sort((a, b) => a.position - b.position);
   return (
     <Card>
@@ -49,6 +50,19 @@ function ChecklistCard({
             </Button>
           </div>
         </div>
+        {defaultUpdate && draft ? (
+          <Alert
+            tone="info"
+            title={`Lintel's default checklist has a version ${defaultUpdate.revision}`}
+          >
+            <p>
+              Your network changed this checklist, so the new default was not published over it. It
+              waits as the draft of version {draft.version}, beside your version {published.version}
+              . Open the draft, keep your own changes, and publish it when it is right; until then
+              every audit uses version {published.version}.
+            </p>
+          </Alert>
+        ) : null}
         <details>
           <summary className="min-h-tap cursor-pointer py-2 font-semibold text-brand-800">
             Items in version {published.version}
