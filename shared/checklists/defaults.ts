@@ -1,3 +1,4 @@
+import { minimumNegativePressurePascals } from "../calc/ventilation";
 import type { Severity } from "../calc/verdict";
 import type { ZoneType } from "../zones";
 
@@ -303,7 +304,7 @@ export const defaultChecklists: Record<ZoneType, { title: string; items: Default
         severity: "critical",
         response: "reading",
         quantity: "pressure",
-        threshold: { op: "<=", value: -2.5 },
+        threshold: { op: "<=", value: -minimumNegativePressurePascals },
         reference: cdcTb,
         photoOnFail: true,
       },

@@ -2,7 +2,7 @@ import { scoreOf, verdictOf } from "@shared/calc/verdict";
 import {
   cfmToCubicMetresPerHour,
   inchesOfWaterToPascals,
-  minimumAirChanges,
+  minimumAirChangesFor,
 } from "@shared/calc/ventilation";
 import { can } from "@shared/permissions";
 import type {
@@ -67,9 +67,8 @@ async function roomOf(db: DbOrTx, spaceId: string): Promise<AuditDetail["room"]>
     ? {
         volumeM3: space.volumeM3,
         constructionClass: space.constructionClass,
-        minimumAirChanges: space.constructionClass
-          ? minimumAirChanges[space.constructionClass]
-          : null,
+        // An isolation room without a class is judged as new or renovated until one is set.
+        minimumAirChanges: minimumAirChangesFor(space.zoneType, space.constructionClass),
       }
     : null;
 }
