@@ -1,3 +1,5 @@
+import { minimumAirChangesLabel, noConstructionClassNotice } from "@shared/calc/ventilation";
+
 import { CautionNote } from "@/components/ui/caution-note";
 
 import type { VentilationFigures } from "../lib/ventilation-figures";
@@ -37,9 +39,19 @@ export function VentilationPanel({ figures }: { figures: VentilationFigures }) {
               </span>
             ) : null}
           </dd>
+          {figures.typedAirChanges !== null && figures.workedOutAirChanges !== null ? (
+            <>
+              <dt className="text-ink-muted">Typed by the auditor</dt>
+              <dd className="text-right font-semibold">{figure(figures.typedAirChanges)}</dd>
+            </>
+          ) : null}
           <dt className="text-ink-muted">Minimum for this room</dt>
           <dd className="text-right font-semibold">
-            {minimumAirChanges === null ? "Not recorded" : `${minimumAirChanges} ACH`}
+            {figures.judgedClass === null
+              ? minimumAirChanges === null
+                ? "Not recorded"
+                : `≥ ${minimumAirChanges}`
+              : minimumAirChangesLabel(figures.judgedClass)}
           </dd>
           <dt className="text-ink-muted">To remove 99% once empty</dt>
           <dd className="text-right font-semibold">{minutes(figures.minutesTo99)}</dd>
@@ -54,6 +66,14 @@ export function VentilationPanel({ figures }: { figures: VentilationFigures }) {
                 : "Below the minimum for the room's construction class."}
             </JudgementLine>
           </div>
+        ) : null}
+        {figures.classUnset ? (
+          <p className="mt-2 text-sm font-semibold text-ink">{noConstructionClassNotice}</p>
+        ) : null}
+        {figures.airChangesDisagree ? (
+          <p className="mt-2 text-sm font-semibold text-ink">
+            Typed and worked-out air changes differ by more than 10 %.
+          </p>
         ) : null}
         {figures.volumeM3 === null ? (
           <p className="mt-2 text-xs text-ink-muted">
