@@ -422,7 +422,7 @@ export function ItemStep({
           {limit ? (
             <JudgementLine
               outcome={
-                achUnconfirmed
+                achUnconfirmed && liveOutcome === "pass"
                   ? null
                   : liveOutcome === "pass" || liveOutcome === "fail"
                     ? liveOutcome

@@ -17,8 +17,9 @@ function figure(value: number | null, decimals = 1): string {
 /** Air changes, the class minimum and clearance times, with the standing caution beside them. */
 export function VentilationPanel({ figures }: { figures: VentilationFigures }) {
   const { airChanges, minimumAirChanges } = figures;
+  // Typed and worked-out figures that disagree are not judged here: the auditor says which is right.
   const meets =
-    airChanges === null || minimumAirChanges === null
+    airChanges === null || minimumAirChanges === null || figures.airChangesDisagree
       ? null
       : airChanges >= minimumAirChanges
         ? "pass"
@@ -72,7 +73,8 @@ export function VentilationPanel({ figures }: { figures: VentilationFigures }) {
         ) : null}
         {figures.airChangesDisagree ? (
           <p className="mt-2 text-sm font-semibold text-ink">
-            Typed and worked-out air changes differ by more than 10 %.
+            Typed and worked-out air changes differ by more than 10 %: the air-change item says
+            which to keep.
           </p>
         ) : null}
         {figures.volumeM3 === null ? (
