@@ -64,8 +64,59 @@ export function purgeMinutes(airChanges: number, efficiencyPercent: number): num
   return (-Math.log(1 - efficiencyPercent / 100) / airChanges) * 60;
 }
 
-/** Minimum air changes per hour for an airborne infection isolation room by construction class. */
+/**
+ * Minimum air changes per hour for an airborne infection isolation room by construction class:
+ * 12 for new construction or renovation, 6 for existing rooms (to be raised to 12 where feasible).
+ */
 export const minimumAirChanges = { new_or_renovated: 12, existing: 6 } as const;
+
+type ConstructionClass = keyof typeof minimumAirChanges;
+
+/**
+ * The class a room is judged by. An isolation room saved before the class was required has none:
+ * it is held to the stricter figure, new or renovated, until an administrator sets it.
+ */
+export function judgedConstructionClass(
+  zoneType: string,
+  constructionClass: ConstructionClass | null,
+): ConstructionClass | null {
+  if (constructionClass) return constructionClass;
+  return zoneType === "isolation_room" ? "new_or_renovated" : null;
+}
+
+/** The air-change minimum a room is judged by, or null where none applies. */
+export function minimumAirChangesFor(
+  zoneType: string,
+  constructionClass: ConstructionClass | null,
+): number | null {
+  const judged = judgedConstructionClass(zoneType, constructionClass);
+  return judged ? minimumAirChanges[judged] : null;
+}
+
+/** How the minimum is shown wherever it appears, so every screen says the same thing. */
+export function minimumAirChangesLabel(constructionClass: ConstructionClass): string {
+  return constructionClass === "existing"
+    ? `≥ ${minimumAirChanges.existing} (existing rooms only; CDC: raise to ${minimumAirChanges.new_or_renovated} where feasible)`
+    : `≥ ${minimumAirChanges.new_or_renovated} (new or renovated)`;
+}
+
+/** Said beside an isolation room that has no construction class yet. */
+export const noConstructionClassNotice = `No construction class set: judged as new or renovated, ≥ ${minimumAirChanges.new_or_renovated} air changes per hour, until an administrator sets it.`;
+
+/** Typed and worked-out air changes further apart than this share of the worked-out figure disagree. */
+export const airChangesTolerance = 0.1;
+
+/**
+ * Whether the air changes typed by the auditor agree with those worked out from airflow and room
+ * volume: within 10 % of the worked-out figure. Lintel's own rule: a wider gap means one of the
+ * readings, or the recorded volume, is wrong, and the auditor must say which figure is right.
+ */
+export function airChangesAgree(typed: number, computed: number): boolean {
+  if (!Number.isFinite(typed) || !Number.isFinite(computed)) return false;
+  if (computed === 0) return typed === 0;
+  // A hair of slack so that exactly 10 % apart, after floating point, still agrees.
+  return Math.abs(typed - computed) <= airChangesTolerance * Math.abs(computed) * (1 + 1e-12);
+}
 
 /**
  * At least 2.5 Pa negative to the corridor; the CDC states the same differential as 0.01 in. w.c.

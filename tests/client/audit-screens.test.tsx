@@ -456,12 +456,110 @@ describe("readings at an isolation room", () => {
 
     const figures = await screen.findByRole("region", { name: "Ventilation figures" });
     await vi.waitFor(() => expect(within(figures).getByText("12")).toBeTruthy());
-    expect(within(figures).getByText("12 ACH")).toBeTruthy();
+    expect(within(figures).getByText("≥ 12 (new or renovated)")).toBeTruthy();
     // t = ln(100) / 12 × 60 = 23.0 min; ln(1000) / 12 × 60 = 34.5 min (well-mixed room).
     expect(within(figures).getByText("23 min")).toBeTruthy();
     expect(within(figures).getByText("35 min")).toBeTruthy();
     expect(
       within(figures).getByText("At or above the minimum for the room's construction class."),
     ).toBeTruthy();
+  });
+  async function openIsolationAudit(room: NonNullable<AuditDetail["room"]>) {
+    const items = isolationItems();
+    const { fallback } = auditEndpoints(items, {
+      spaceName: "Isolation room 1",
+      zoneType: "isolation_room",
+      room,
+    });
+    stubApi(
+      signedInAuditor([
+        scheduleEntry({
+          spaceId: isolationSpaceId,
+          spaceName: "Isolation room 1",
+          zoneType: "isolation_room",
+        }),
+      ]),
+      fallback,
+    );
+    const { user } = renderApp(`/sites/${tamsinGeneral.id}/due`);
+    await startFromDueList(user, "Isolation room 1");
+    return user;
+  }
+
+  it("when a positive pressure is typed for a room that should be negative, then a warning says so and Negative flips the sign", async () => {
+    const user = await openIsolationAudit({
+      volumeM3: 45,
+      constructionClass: "new_or_renovated",
+      minimumAirChanges: 12,
+    });
+    const negative = screen.getByRole("button", { name: /Negative/ });
+    const positive = screen.getByRole("button", { name: /Positive/ });
+
+    await user.type(screen.getByLabelText("Reading"), "3");
+    expect(positive.getAttribute("aria-pressed")).toBe("true");
+    expect(screen.getByText("Positive reading: air flows out of the room")).toBeTruthy();
+    expect(screen.getByText(/^Fails: limit/)).toBeTruthy();
+
+    await user.click(negative);
+    expect((screen.getByLabelText("Reading") as HTMLInputElement).value).toBe("-3");
+    expect(negative.getAttribute("aria-pressed")).toBe("true");
+    expect(screen.queryByText("Positive reading: air flows out of the room")).toBeNull();
+    expect(await screen.findByText(/^Passes: limit/)).toBeTruthy();
+  });
+
+  it("when typed air changes differ from airflow ÷ volume by more than 10 %, then both show and the item cannot pass until the auditor confirms one", async () => {
+    const user = await openIsolationAudit({
+      volumeM3: 45,
+      constructionClass: "existing",
+      minimumAirChanges: 6,
+    });
+    await user.click(screen.getByRole("button", { name: "Next" }));
+    // 540 m³/h ÷ 45 m³ = 12 ACH worked out.
+    await user.type(screen.getByLabelText("Reading"), "540");
+    await user.click(screen.getByRole("button", { name: "Next" }));
+    await user.type(screen.getByLabelText("Reading"), "8");
+
+    expect(screen.getByText("Typed 8 ACH · worked out from airflow ÷ volume 12 ACH")).toBeTruthy();
+    expect(screen.getByText("Which air-change figure is right?")).toBeTruthy();
+    expect(
+      screen.getByText(
+        "Cannot pass until confirmed: limit ≥ 6 (existing rooms only; CDC: raise to 12 where feasible)",
+      ),
+    ).toBeTruthy();
+
+    await user.click(screen.getByRole("button", { name: "Next" }));
+    await screen.findByRole("heading", { name: "Review and submit" });
+
+    // The review lists it once the phone has stored the answer typed a moment ago.
+    await user.click(await screen.findByRole("button", { name: /differ by more than 10 %/ }));
+    await user.click(await screen.findByRole("button", { name: "The typed 8 ACH is right" }));
+    expect((screen.getByLabelText("Note") as HTMLTextAreaElement).value).toBe(
+      "Air changes confirmed: the typed 8 ACH is right; airflow ÷ volume gives 12 ACH.",
+    );
+    expect(screen.queryByText("Which air-change figure is right?")).toBeNull();
+    expect(screen.getByText(/^Passes: limit ≥ 6/)).toBeTruthy();
+  });
+
+  it("when the worked-out air changes are chosen, then the reading becomes that figure and the two agree", async () => {
+    const user = await openIsolationAudit({
+      volumeM3: 45,
+      constructionClass: null,
+      minimumAirChanges: 12,
+    });
+    await user.click(screen.getByRole("button", { name: "Next" }));
+    await user.type(screen.getByLabelText("Reading"), "540");
+    await user.click(screen.getByRole("button", { name: "Next" }));
+    await user.type(screen.getByLabelText("Reading"), "20");
+    const figures = await screen.findByRole("region", { name: "Ventilation figures" });
+    // A room with no class: judged as new or renovated until an administrator sets it.
+    expect(
+      within(figures).getByText(
+        "No construction class set: judged as new or renovated, ≥ 12 air changes per hour, until an administrator sets it.",
+      ),
+    ).toBeTruthy();
+    await user.click(screen.getByRole("button", { name: "Use the worked-out 12 ACH" }));
+    expect((screen.getByLabelText("Reading") as HTMLInputElement).value).toBe("12");
+    expect(screen.queryByText("Which air-change figure is right?")).toBeNull();
+    expect(screen.getByText("Passes: limit ≥ 12 (new or renovated)")).toBeTruthy();
   });
 });

@@ -100,6 +100,29 @@ describe("a floor with a plan", () => {
     );
   });
 
+  it("when an isolation room has no construction class, then the space list says it is judged as new or renovated until one is set", async () => {
+    stubFloor(
+      administrator,
+      buildFloorDetail({
+        spaces: [
+          room,
+          { ...room, id: corridorBay.id, name: "Room 2", constructionClass: "existing" },
+        ],
+        fixtures: [],
+      }),
+    );
+    renderApp(floorUrl);
+
+    expect(
+      await screen.findByText(
+        "No construction class set: judged as new or renovated, ≥ 12 air changes per hour, until an administrator sets it.",
+      ),
+    ).toBeTruthy();
+    expect(
+      screen.getByText("Air changes: ≥ 6 (existing rooms only; CDC: raise to 12 where feasible)"),
+    ).toBeTruthy();
+  });
+
   it("when the floor has no scale, then the spacing check says it waits for the scale", async () => {
     stubFloor(
       auditor,

@@ -135,6 +135,27 @@ describe("SpaceForm", () => {
     });
   });
 
+  it("when an isolation room is saved without a construction class, then the class is asked for and nothing is sent; choosing one shows its minimum", async () => {
+    const { fetchStub } = stubApi({});
+    const { user } = renderForm();
+
+    await user.selectOptions(screen.getByLabelText("Zone type"), "Isolation room");
+    await user.type(screen.getByLabelText("Name"), "Room");
+    await user.click(screen.getByRole("button", { name: "Save space" }));
+
+    await vi.waitFor(() =>
+      expect(describedText(screen.getByLabelText("Construction class"))).toContain(
+        "Choose a construction class: it decides the air-change minimum.",
+      ),
+    );
+    expect(fetchStub).not.toHaveBeenCalled();
+
+    await user.selectOptions(screen.getByLabelText("Construction class"), "Existing");
+    expect(describedText(screen.getByLabelText("Construction class"))).toContain(
+      "Air changes per hour: ≥ 6 (existing rooms only; CDC: raise to 12 where feasible).",
+    );
+  });
+
   it("when a measurement is not a number, then it says so beside the field", async () => {
     stubApi({});
     const { user } = renderForm();

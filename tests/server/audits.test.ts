@@ -276,6 +276,29 @@ describe("audits", () => {
     }
   });
 
+  it("when an isolation room was stored without a construction class, then 8 ACH fails against 12 (judged as new or renovated)", async () => {
+    // Rooms saved before the class was required: the API refuses them now, so write the row.
+    const [row] = await testApp()
+      .deps.db.insert(spaces)
+      .values({
+        floorId,
+        siteId,
+        zoneType: "isolation_room",
+        name: `Unclassed ${Math.random()}`,
+        polygon: square,
+        volumeM3: 80,
+      })
+      .returning({ id: spaces.id });
+    const { auditId, detail } = await start(row!.id);
+    expect(detail.room).toEqual({ volumeM3: 80, constructionClass: null, minimumAirChanges: 12 });
+    const ach = item(detail, "Air changes per hour");
+    const response = await as(auditor)
+      .put(`/api/audits/${auditId}/answers/${ach.id}`)
+      .send({ id: crypto.randomUUID(), outcome: "pass", value: 8, unit: "ach" });
+    expect(response.status).toBe(200);
+    expect(response.body.answer.outcome).toBe("fail");
+  });
+
   it("when an auditor of another site opens or answers the audit, then 404; a committee member neither reads the draft nor answers", async () => {
     const { auditId, detail } = await start(await newSpace("donning_zone"));
     const otherSite = (await insertSite(testApp().deps.db, networkId)).id;

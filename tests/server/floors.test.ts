@@ -221,6 +221,59 @@ describe("floors, spaces and fixtures", () => {
     ).toMatchObject({ constructionClass: "existing", volumeM3: 81 });
   });
 
+  it("when an isolation room is created or edited without a construction class, then 400 names constructionClass and nothing changes", async () => {
+    const floor = await newFloor("Classes");
+    for (const body of [
+      { zoneType: "isolation_room", name: "AIIR 1", polygon: room },
+      { zoneType: "isolation_room", name: "AIIR 1", polygon: room, constructionClass: null },
+    ]) {
+      const response = await as(admin).post(`/api/floors/${floor.id}/spaces`).send(body);
+      expect(response.status, JSON.stringify(body)).toBe(400);
+      expect(response.body.error.fields, JSON.stringify(body)).toHaveProperty([
+        "constructionClass",
+      ]);
+    }
+    // Other zone types still need none.
+    const anteroom = await as(admin)
+      .post(`/api/floors/${floor.id}/spaces`)
+      .send({ zoneType: "anteroom", name: "Ante 1", polygon: room });
+    expect(anteroom.status).toBe(201);
+    const isolation = await as(admin)
+      .post(`/api/floors/${floor.id}/spaces`)
+      .send({
+        zoneType: "isolation_room",
+        name: "AIIR 2",
+        polygon: room,
+        constructionClass: "existing",
+      });
+    expect(isolation.status).toBe(201);
+
+    for (const [spaceId, body] of [
+      [isolation.body.space.id, { constructionClass: null }],
+      [anteroom.body.space.id, { zoneType: "isolation_room" }],
+    ] as const) {
+      const response = await as(admin).patch(`/api/spaces/${spaceId}`).send(body);
+      expect(response.status, JSON.stringify(body)).toBe(400);
+      expect(response.body.error.fields, JSON.stringify(body)).toHaveProperty([
+        "constructionClass",
+      ]);
+    }
+    const stored = await testApp()
+      .deps.db.select({ zoneType: spaces.zoneType, constructionClass: spaces.constructionClass })
+      .from(spaces)
+      .where(eq(spaces.floorId, floor.id))
+      .orderBy(spaces.zoneType);
+    expect(stored).toEqual([
+      { zoneType: "isolation_room", constructionClass: "existing" },
+      { zoneType: "anteroom", constructionClass: null },
+    ]);
+    // Turning the anteroom into an isolation room with a class is an ordinary edit.
+    const turned = await as(admin)
+      .patch(`/api/spaces/${anteroom.body.space.id}`)
+      .send({ zoneType: "isolation_room", constructionClass: "new_or_renovated" });
+    expect(turned.status).toBe(200);
+  });
+
   it("when an auditor tries to draw a space, then 403 and nothing is stored", async () => {
     const floor = await newFloor("Read only");
     const response = await as(auditor)

@@ -1,12 +1,17 @@
 import { describe, expect, it } from "vitest";
 
+import { defaultChecklists } from "@shared/checklists/defaults";
 import {
+  airChangesAgree,
   airChangesPerHour,
   cfmToCubicMetresPerHour,
   cubicFeetToCubicMetres,
   inchesOfWaterToPascals,
   minimumAirChanges,
+  minimumAirChangesFor,
+  minimumAirChangesLabel,
   minimumNegativePressurePascals,
+  noConstructionClassNotice,
   pascalsToInchesOfWater,
   purgeMinutes,
 } from "@shared/calc/ventilation";
@@ -74,6 +79,61 @@ describe("air changes per hour", () => {
 
   it("when the thresholds are read, then 12 ACH for new or renovated rooms and 6 for existing ones (CDC 2005 TB guidelines)", () => {
     expect(minimumAirChanges).toEqual({ new_or_renovated: 12, existing: 6 });
+  });
+});
+
+describe("air-change minimum by construction class", () => {
+  // CDC 2005 TB guidelines (MMWR 2005;54(RR-17)), with the CDC 1994 wording quoted in a VA design
+  // guide (confirmed): ≥ 12 ACH for new construction or renovation, ≥ 6 ACH for existing rooms,
+  // raised to 12 where feasible. CDC 2003 environmental guideline gives the same two figures.
+  it("when the minimum is shown, then 12 reads as new or renovated and 6 as existing rooms only, to be raised to 12", () => {
+    expect(minimumAirChangesLabel("new_or_renovated")).toBe("≥ 12 (new or renovated)");
+    expect(minimumAirChangesLabel("existing")).toBe(
+      "≥ 6 (existing rooms only; CDC: raise to 12 where feasible)",
+    );
+  });
+
+  // Lintel's own rule: a room without a class is held to the stricter CDC figure until it is set.
+  it("when an isolation room has no construction class, then it is judged as new or renovated (12 ACH)", () => {
+    expect(minimumAirChangesFor("isolation_room", null)).toBe(12);
+    expect(minimumAirChangesFor("isolation_room", "existing")).toBe(6);
+    expect(minimumAirChangesFor("isolation_room", "new_or_renovated")).toBe(12);
+    expect(minimumAirChangesFor("donning_zone", null)).toBeNull();
+    expect(noConstructionClassNotice).toBe(
+      "No construction class set: judged as new or renovated, ≥ 12 air changes per hour, until an administrator sets it.",
+    );
+  });
+});
+
+describe("typed and worked-out air changes", () => {
+  // Lintel's own rule: typed ACH within 10 % of the ACH worked out from airflow ÷ volume agree.
+  it("when the typed figure is within 10 % of the worked-out one, then they agree; beyond, they do not", () => {
+    expect(airChangesAgree(12, 12)).toBe(true);
+    expect(airChangesAgree(11, 12)).toBe(true);
+    expect(airChangesAgree(10.8, 12)).toBe(true); // exactly 10 % below
+    expect(airChangesAgree(13.2, 12)).toBe(true); // exactly 10 % above
+    expect(airChangesAgree(10.79, 12)).toBe(false);
+    expect(airChangesAgree(13.21, 12)).toBe(false);
+    // The defect case: 8 typed where the airflow works out to 14.
+    expect(airChangesAgree(8, 14)).toBe(false);
+  });
+
+  it("when either figure is not a number or the worked-out one is zero, then they agree only if both are zero", () => {
+    expect(airChangesAgree(Number.NaN, 12)).toBe(false);
+    expect(airChangesAgree(12, Number.POSITIVE_INFINITY)).toBe(false);
+    expect(airChangesAgree(0, 0)).toBe(true);
+    expect(airChangesAgree(1, 0)).toBe(false);
+  });
+});
+
+describe("pressure threshold the checklist uses", () => {
+  // CDC 2005 TB guidelines / CDC 2003 environmental guideline: at least 2.5 Pa negative.
+  it("when the default isolation-room checklist is read, then its pressure item is judged at the shared 2.5 Pa", () => {
+    expect(minimumNegativePressurePascals).toBe(2.5);
+    const pressure = defaultChecklists.isolation_room.items.find(
+      (item) => item.key === "room.pressure",
+    );
+    expect(pressure?.threshold).toEqual({ op: "<=", value: -minimumNegativePressurePascals });
   });
 });
 

@@ -4,7 +4,7 @@ import {
   type DecidedAnswer,
 } from "@shared/calc/answer-rules";
 import { readinessOf, rulesVersion, scoreOf } from "@shared/calc/verdict";
-import { minimumAirChanges } from "@shared/calc/ventilation";
+import { minimumAirChangesFor } from "@shared/calc/ventilation";
 import { notApplicableNeedsNote } from "@shared/checklists/defaults";
 import { can } from "@shared/permissions";
 import type {
@@ -68,9 +68,8 @@ async function roomOf(db: DbOrTx, spaceId: string): Promise<AuditDetail["room"]>
     ? {
         volumeM3: space.volumeM3,
         constructionClass: space.constructionClass,
-        minimumAirChanges: space.constructionClass
-          ? minimumAirChanges[space.constructionClass]
-          : null,
+        // An isolation room without a class is judged as new or renovated until one is set.
+        minimumAirChanges: minimumAirChangesFor(space.zoneType, space.constructionClass),
       }
     : null;
 }

@@ -171,6 +171,21 @@ export function createSuite(
   });
 }
 
+/**
+ * An isolation room's air changes are judged by its construction class, so it cannot be saved
+ * without one. Other zone types may leave it empty.
+ */
+function assertConstructionClass(
+  zoneType: SpaceBody["zoneType"],
+  constructionClass: SpaceBody["constructionClass"],
+) {
+  if (zoneType === "isolation_room" && !constructionClass)
+    throw invalid(
+      "constructionClass",
+      "An isolation room needs a construction class: new or renovated, or existing.",
+    );
+}
+
 function assertPolygonOnPlan(
   polygon: [number, number][],
   floor: { planWidth: number | null; planHeight: number | null },
@@ -195,6 +210,7 @@ export function createSpace(
     assertPolygonOnPlan(body.polygon, floor);
     if (body.suiteId && !(await repo.findSuite(tx, body.suiteId, floorId)))
       throw invalid("suiteId", "That suite is not on this floor.");
+    assertConstructionClass(body.zoneType, body.constructionClass);
     const space = await repo.insertSpace(tx, { ...body, floorId, siteId: floor.siteId });
     await recordChange(tx, actor, {
       action: "space.created",
@@ -214,10 +230,15 @@ export function updateSpace(
   actor: Actor,
 ): Promise<Space> {
   return db.transaction(async (tx) => {
-    const before = await repo.findSpace(tx, spaceId);
+    // Locked: the class check below reads the stored zone type and class with this edit.
+    const before = await repo.findSpace(tx, spaceId, { lock: true });
     if (!before) throw notFound("That space");
     const floor = (await repo.findFloorRow(tx, before.floorId))!;
     if (body.polygon) assertPolygonOnPlan(body.polygon, floor);
+    assertConstructionClass(
+      body.zoneType ?? before.zoneType,
+      body.constructionClass !== undefined ? body.constructionClass : before.constructionClass,
+    );
     if (body.suiteId && !(await repo.findSuite(tx, body.suiteId, before.floorId)))
       throw invalid("suiteId", "That suite is not on this floor.");
     const space = await repo.updateSpace(tx, spaceId, body);

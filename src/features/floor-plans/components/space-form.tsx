@@ -1,5 +1,6 @@
 import { zodResolver } from "@hookform/resolvers/zod";
 import type { Space, Suite } from "@shared/schemas/floors";
+import { minimumAirChangesLabel } from "@shared/calc/ventilation";
 import {
   constructionClasses,
   constructionClassLabels,
@@ -75,6 +76,8 @@ export function SpaceForm({
   });
   const zoneType = useWatch({ control, name: "zoneType" });
   const suite = useWatch({ control, name: "suite" });
+  const constructionClass = useWatch({ control, name: "constructionClass" });
+  const chosenClass = constructionClasses.find((value) => value === constructionClass);
 
   const submit = handleSubmit(async (values) => {
     setFormError(null);
@@ -160,8 +163,12 @@ export function SpaceForm({
       {zoneType === "isolation_room" ? (
         <SelectField
           label="Construction class"
-          hint="Decides the air-change threshold the room is audited against."
-          placeholder="Not recorded yet"
+          hint={
+            chosenClass
+              ? `Air changes per hour: ${minimumAirChangesLabel(chosenClass)}.`
+              : "Required: decides the air-change minimum the room is audited against (CDC)."
+          }
+          placeholder="Choose a class"
           options={classOptions}
           error={errors.constructionClass?.message}
           {...register("constructionClass")}

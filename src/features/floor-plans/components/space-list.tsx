@@ -1,4 +1,5 @@
 import type { Fixture, Space, Suite } from "@shared/schemas/floors";
+import { minimumAirChangesLabel, noConstructionClassNotice } from "@shared/calc/ventilation";
 import { fixtureKindLabels, zoneTypeLabels } from "@shared/zones";
 import { type ReactNode, useId, useRef, useState } from "react";
 
@@ -133,6 +134,13 @@ function SpaceItem({
             {zoneTypeLabels[space.zoneType]}
             {area ? ` · ${area}` : ""}
           </span>
+          {space.zoneType === "isolation_room" ? (
+            <span className="block text-sm text-ink-muted">
+              {space.constructionClass
+                ? `Air changes: ${minimumAirChangesLabel(space.constructionClass)}`
+                : noConstructionClassNotice}
+            </span>
+          ) : null}
         </span>
       </button>
       {actions ? <div className="mt-2 flex flex-wrap items-center gap-2">{actions}</div> : null}

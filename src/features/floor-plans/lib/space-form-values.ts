@@ -28,6 +28,13 @@ export const spaceFormSchema = z
     if (!shape.zoneType.safeParse(values.zoneType).success) {
       context.addIssue({ code: "custom", path: ["zoneType"], message: "Choose a zone type." });
     }
+    if (values.zoneType === "isolation_room" && values.constructionClass === "") {
+      context.addIssue({
+        code: "custom",
+        path: ["constructionClass"],
+        message: "Choose a construction class: it decides the air-change minimum.",
+      });
+    }
     if (values.suite === newSuiteValue && values.suiteName === "") {
       context.addIssue({
         code: "custom",

@@ -16,7 +16,7 @@ import type { LocalAuditSnapshot } from "../hooks/use-local-audit";
 import { useSyncStatus } from "../hooks/use-sync-status";
 import { type AnswerFields, provisionalResult, reviewAudit } from "../lib/answer-rules";
 import { refusalsByItem } from "../lib/refusals";
-import { ventilationFigures } from "../lib/ventilation-figures";
+import { unconfirmedAirChanges, ventilationFigures } from "../lib/ventilation-figures";
 import { AnswerSummary, rowsFromPhone, rowsFromServer } from "./answer-summary";
 import { AuditItemList } from "./audit-item-list";
 import { AuditOutcome } from "./audit-outcome";
@@ -123,15 +123,22 @@ function DraftWalkthrough({ auditId, detail, snapshot }: DraftProps) {
     for (const photo of photos) counts.set(photo.itemId, (counts.get(photo.itemId) ?? 0) + 1);
     return counts;
   }, [photos]);
+  const ventilation = useMemo(
+    () => (detail.room ? ventilationFigures(items, answers, detail.room) : null),
+    [items, answers, detail.room],
+  );
   const review = useMemo(
-    () => reviewAudit(items, answers, photoCounts, refusals),
-    [items, answers, photoCounts, refusals],
+    () =>
+      reviewAudit(items, answers, photoCounts, {
+        ...unconfirmedAirChanges(items, answers, ventilation),
+        ...refusals,
+      }),
+    [items, answers, photoCounts, refusals, ventilation],
   );
   const flagged = useMemo(
     () => new Set(review.problems.map((problem) => problem.item.id)),
     [review.problems],
   );
-  const ventilation = detail.room ? ventilationFigures(items, answers, detail.room) : null;
   const removable = useMemo(
     () => new Set(photos.filter((photo) => photo.imageId === null).map((photo) => photo.id)),
     [photos],

@@ -1,3 +1,4 @@
+import { airChangesAgree, minimumAirChangesLabel } from "@shared/calc/ventilation";
 import type { Outcome } from "@shared/calc/verdict";
 import type { ReadingUnit } from "@shared/schemas/audits";
 import type { ChecklistItem } from "@shared/schemas/checklists";
@@ -6,6 +7,7 @@ import { type Ref, useCallback, useEffect, useId, useRef, useState } from "react
 import { Alert } from "@/components/ui/alert";
 import { CautionNote } from "@/components/ui/caution-note";
 import { controlStyles, Field } from "@/components/ui/field";
+import { cn } from "@/lib/cn";
 import { TextAreaField } from "@/components/ui/text-area-field";
 import { parseNumberText } from "@/lib/form-values";
 
@@ -30,7 +32,12 @@ import {
   toStoredUnit,
   unitsByQuantity,
 } from "../lib/reading-units";
-import type { VentilationFigures } from "../lib/ventilation-figures";
+import {
+  airChangesConfirmationLine,
+  airChangesConfirmedPrefix,
+  round1,
+  type VentilationFigures,
+} from "../lib/ventilation-figures";
 import { ChoiceButtons, JudgementLine, OutcomeButtons, SeverityBadge } from "./answer-controls";
 import { PhotoPicker } from "./photo-picker";
 import { VentilationPanel } from "./ventilation-panel";
@@ -92,9 +99,72 @@ function limitText(item: ChecklistItem, room: RoomFacts, unit: ReadingUnit | nul
   const direction = threshold.op === ">=" ? "or more" : "or less";
   if (item.response === "count") return `${threshold.value} ${direction}`;
   if (!item.quantity || !unit) return null;
+  if (item.quantity === "air_changes" && !item.threshold && room?.minimumAirChanges) {
+    // The class minimum, worded the same way everywhere it is shown.
+    const judged = room.constructionClass ?? "new_or_renovated";
+    return minimumAirChangesLabel(judged);
+  }
   const shown = formatReading(fromStoredUnit(threshold.value, unit), unit);
   const others = otherUnits(threshold.value, item.quantity, unit);
   return `${shown} ${direction}${others.length > 0 ? ` (${others.join(", ")})` : ""}`;
+}
+
+type Sign = "negative" | "positive";
+
+/** The sign the typed reading has: a leading minus is negative even before a digit follows. */
+function signOf(text: string): Sign | null {
+  const trimmed = text.trim();
+  if (trimmed.startsWith("-") || trimmed.startsWith("−")) return "negative";
+  const value = numberOrNull(trimmed);
+  return value !== null && value > 0 ? "positive" : null;
+}
+
+function withSign(text: string, sign: Sign): string {
+  const unsigned = text.trim().replace(/^[-−+]\s*/, "");
+  return sign === "negative" ? `-${unsigned}` : unsigned;
+}
+
+/** Whether the item's limit asks for a negative reading (pressure below the corridor's). */
+function expectsNegative(item: ChecklistItem, room: RoomFacts): boolean {
+  const threshold = thresholdFor(item, room);
+  return item.quantity === "pressure" && threshold?.op === "<=" && threshold.value < 0;
+}
+
+/** Negative or positive, as two buttons beside the reading so the sign cannot be missed. */
+function SignChoice({ sign, onChoose }: { sign: Sign | null; onChoose: (sign: Sign) => void }) {
+  const options: { value: Sign; label: string; detail: string }[] = [
+    { value: "negative", label: "− Negative", detail: "air flows in" },
+    { value: "positive", label: "+ Positive", detail: "air flows out" },
+  ];
+  return (
+    <fieldset className="flex flex-col gap-1.5">
+      <legend className="mb-1.5 text-sm font-semibold">Direction of the reading</legend>
+      <div className="grid grid-cols-2 gap-2">
+        {options.map((option) => {
+          const selected = sign === option.value;
+          return (
+            <button
+              key={option.value}
+              type="button"
+              aria-pressed={selected}
+              onClick={() => onChoose(option.value)}
+              className={cn(
+                "flex min-h-tap flex-col items-center justify-center rounded-lg border-2 px-2 py-1.5 text-center leading-tight font-semibold",
+                selected
+                  ? option.value === "negative"
+                    ? "border-brand-700 bg-brand-50 text-brand-800"
+                    : "border-verdict-conditions bg-verdict-conditions/10 text-ink"
+                  : "border-surface-line bg-surface text-ink hover:border-brand-300",
+              )}
+            >
+              <span>{option.label}</span>
+              <span className="text-xs font-normal">{option.detail}</span>
+            </button>
+          );
+        })}
+      </div>
+    </fieldset>
+  );
 }
 
 const saveDelayMs = 600;
@@ -216,6 +286,19 @@ export function ItemStep({
     save({ ...fields, outcome });
   };
 
+  // A tap on the sign is a decision, like Pass or Fail: it is kept at once.
+  const chooseSign = (sign: Sign) => {
+    typed({ value: withSign(texts.value, sign) });
+    flush();
+  };
+
+  const takeWorkedOut = (workedOut: number) => typed({ value: round1(workedOut), unit: "ach" });
+
+  const confirmTyped = (typedAch: number, workedOut: number) => {
+    const line = airChangesConfirmationLine(typedAch, workedOut);
+    typed({ note: texts.note.trim() === "" ? line : `${texts.note.trim()}\n${line}` });
+  };
+
   const liveOutcome = shownOutcome;
   const live = fieldsOf(item, texts, stored);
   const quantity = item.response === "reading" ? item.quantity : null;
@@ -224,6 +307,22 @@ export function ItemStep({
   const limit = limitText(item, room, texts.unit);
   const noteMissing = needsNote(item, { ...stored, outcome: liveOutcome, note: texts.note });
   const photoMissing = needsPhoto(item, { ...stored, outcome: liveOutcome }, photos.length);
+  const negativeExpected = expectsNegative(item, room);
+  const sign = quantity === "pressure" ? signOf(texts.value) : null;
+  const achCheck =
+    quantity === "air_changes" &&
+    ventilation?.workedOutAirChanges != null &&
+    live.value !== null &&
+    live.unit !== null
+      ? {
+          typed: toStoredUnit(live.value, live.unit),
+          workedOut: ventilation.workedOutAirChanges,
+        }
+      : null;
+  const achUnconfirmed =
+    achCheck !== null &&
+    !airChangesAgree(achCheck.typed, achCheck.workedOut) &&
+    !texts.note.includes(airChangesConfirmedPrefix);
   const outcomeOptions: Outcome[] = judged
     ? ["not_applicable"]
     : ["pass", "fail", "not_applicable"];
@@ -290,6 +389,22 @@ export function ItemStep({
               </p>
             )}
           </div>
+          {quantity === "pressure" ? (
+            <>
+              <SignChoice sign={sign} onChoose={chooseSign} />
+              <p className="text-sm text-ink-muted">
+                Negative pressure is entered as a negative number, such as −2.5 Pa or −0.01 in. w.c.
+              </p>
+            </>
+          ) : null}
+          {negativeExpected && live.value !== null && live.value > 0 ? (
+            <Alert role="alert" tone="warning" title="Positive reading: air flows out of the room">
+              <p>
+                This room should be negative to the corridor. If the gauge shows air flowing in,
+                choose Negative; if it really is positive, the room fails this check.
+              </p>
+            </Alert>
+          ) : null}
           {live.value !== null && live.unit ? (
             <p className="text-sm text-ink-muted">
               {formatReading(live.value, live.unit, 4)}
@@ -298,16 +413,55 @@ export function ItemStep({
               )}
             </p>
           ) : null}
+          {achCheck ? (
+            <p className="text-sm text-ink-muted">
+              Typed {round1(achCheck.typed)} ACH · worked out from airflow ÷ volume{" "}
+              {round1(achCheck.workedOut)} ACH
+            </p>
+          ) : null}
           {limit ? (
             <JudgementLine
-              outcome={liveOutcome === "pass" || liveOutcome === "fail" ? liveOutcome : null}
+              outcome={
+                achUnconfirmed && liveOutcome === "pass"
+                  ? null
+                  : liveOutcome === "pass" || liveOutcome === "fail"
+                    ? liveOutcome
+                    : null
+              }
             >
-              {liveOutcome === "pass"
-                ? `Passes: limit ${limit}`
-                : liveOutcome === "fail"
-                  ? `Fails: limit ${limit}`
-                  : `Limit: ${limit}`}
+              {achUnconfirmed && liveOutcome === "pass"
+                ? `Cannot pass until confirmed: limit ${limit}`
+                : liveOutcome === "pass"
+                  ? `Passes: limit ${limit}`
+                  : liveOutcome === "fail"
+                    ? `Fails: limit ${limit}`
+                    : `Limit: ${limit}`}
             </JudgementLine>
+          ) : null}
+          {achCheck && achUnconfirmed ? (
+            <Alert role="alert" tone="warning" title="Which air-change figure is right?">
+              <p>
+                The typed {round1(achCheck.typed)} ACH and the {round1(achCheck.workedOut)} ACH
+                worked out from airflow ÷ volume differ by more than 10 %. Confirm one before the
+                item can pass.
+              </p>
+              <div className="mt-2 grid gap-2">
+                <button
+                  type="button"
+                  className="min-h-tap rounded-lg border-2 border-surface-line bg-surface px-3 py-2 text-left font-semibold hover:border-brand-300"
+                  onClick={() => takeWorkedOut(achCheck.workedOut)}
+                >
+                  Use the worked-out {round1(achCheck.workedOut)} ACH
+                </button>
+                <button
+                  type="button"
+                  className="min-h-tap rounded-lg border-2 border-surface-line bg-surface px-3 py-2 text-left font-semibold hover:border-brand-300"
+                  onClick={() => confirmTyped(achCheck.typed, achCheck.workedOut)}
+                >
+                  The typed {round1(achCheck.typed)} ACH is right
+                </button>
+              </div>
+            </Alert>
           ) : null}
           {ventilation && (quantity === "airflow" || quantity === "air_changes") ? (
             <VentilationPanel figures={ventilation} />

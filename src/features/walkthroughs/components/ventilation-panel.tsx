@@ -1,3 +1,5 @@
+import { minimumAirChangesLabel, noConstructionClassNotice } from "@shared/calc/ventilation";
+
 import { CautionNote } from "@/components/ui/caution-note";
 
 import type { VentilationFigures } from "../lib/ventilation-figures";
@@ -15,8 +17,9 @@ function figure(value: number | null, decimals = 1): string {
 /** Air changes, the class minimum and clearance times, with the standing caution beside them. */
 export function VentilationPanel({ figures }: { figures: VentilationFigures }) {
   const { airChanges, minimumAirChanges } = figures;
+  // Typed and worked-out figures that disagree are not judged here: the auditor says which is right.
   const meets =
-    airChanges === null || minimumAirChanges === null
+    airChanges === null || minimumAirChanges === null || figures.airChangesDisagree
       ? null
       : airChanges >= minimumAirChanges
         ? "pass"
@@ -37,9 +40,19 @@ export function VentilationPanel({ figures }: { figures: VentilationFigures }) {
               </span>
             ) : null}
           </dd>
+          {figures.typedAirChanges !== null && figures.workedOutAirChanges !== null ? (
+            <>
+              <dt className="text-ink-muted">Typed by the auditor</dt>
+              <dd className="text-right font-semibold">{figure(figures.typedAirChanges)}</dd>
+            </>
+          ) : null}
           <dt className="text-ink-muted">Minimum for this room</dt>
           <dd className="text-right font-semibold">
-            {minimumAirChanges === null ? "Not recorded" : `${minimumAirChanges} ACH`}
+            {figures.judgedClass === null
+              ? minimumAirChanges === null
+                ? "Not recorded"
+                : `≥ ${minimumAirChanges}`
+              : minimumAirChangesLabel(figures.judgedClass)}
           </dd>
           <dt className="text-ink-muted">To remove 99% once empty</dt>
           <dd className="text-right font-semibold">{minutes(figures.minutesTo99)}</dd>
@@ -54,6 +67,15 @@ export function VentilationPanel({ figures }: { figures: VentilationFigures }) {
                 : "Below the minimum for the room's construction class."}
             </JudgementLine>
           </div>
+        ) : null}
+        {figures.classUnset ? (
+          <p className="mt-2 text-sm font-semibold text-ink">{noConstructionClassNotice}</p>
+        ) : null}
+        {figures.airChangesDisagree ? (
+          <p className="mt-2 text-sm font-semibold text-ink">
+            Typed and worked-out air changes differ by more than 10 %: the air-change item says
+            which to keep.
+          </p>
         ) : null}
         {figures.volumeM3 === null ? (
           <p className="mt-2 text-xs text-ink-muted">

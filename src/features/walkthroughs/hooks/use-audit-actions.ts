@@ -6,6 +6,7 @@ import { type AnswerFields, type AuditReview, reviewAudit } from "../lib/answer-
 import { auditDevice } from "../lib/audit-device";
 import { preparePhoto } from "../lib/photo-file";
 import { refusalsByItem } from "../lib/refusals";
+import { unconfirmedAirChanges, ventilationFigures } from "../lib/ventilation-figures";
 
 /** The audit still has unanswered items or problems; nothing was submitted. */
 export class AuditNotReadyError extends Error {
@@ -59,12 +60,17 @@ export function useAuditActions(auditId: string): AuditActions {
         for (const photo of photos) {
           photoCounts.set(photo.itemId, (photoCounts.get(photo.itemId) ?? 0) + 1);
         }
-        const review = reviewAudit(
-          audit?.detail?.items ?? [],
-          new Map(answers.map((answer) => [answer.itemId, answer])),
-          photoCounts,
-          refusalsByItem(changes, photos, audit?.submitRefusals ?? null),
-        );
+        const items = audit?.detail?.items ?? [];
+        const byItem = new Map(answers.map((answer) => [answer.itemId, answer]));
+        const room = audit?.detail?.room ?? null;
+        const review = reviewAudit(items, byItem, photoCounts, {
+          ...unconfirmedAirChanges(
+            items,
+            byItem,
+            room ? ventilationFigures(items, byItem, room) : null,
+          ),
+          ...refusalsByItem(changes, photos, audit?.submitRefusals ?? null),
+        });
         if (!audit?.detail || !review.ready) throw new AuditNotReadyError(review);
         await store.requestSubmit(auditId, new Date());
       },
