@@ -65,7 +65,7 @@ describe("isolation-room air on a phone (390×844)", () => {
     await page.getByRole("heading", { level: 1, name: "My sites" }).waitFor();
     await page
       .getByRole("list", { name: "Sites" })
-      .getByRole("link", { name: /Wexley Rehabilitation Centre/ })
+      .getByRole("link", { name: /Orchard Hill Community Hospital/ })
       .first()
       .click();
     await page
@@ -73,10 +73,10 @@ describe("isolation-room air on a phone (390×844)", () => {
       .first()
       .click();
     await page
-      .getByRole("listitem", { name: "Isolation room 1", exact: true })
+      .getByRole("listitem", { name: "Isolation room 11", exact: true })
       .getByRole("link", { name: "Start audit" })
       .click();
-    await page.getByRole("heading", { level: 1, name: "Isolation room 1" }).waitFor();
+    await page.getByRole("heading", { level: 1, name: "Isolation room 11" }).waitFor();
     await page.getByRole("heading", { level: 2, name: /^Pressure differential/ }).waitFor();
 
     await page.getByLabel("Reading").fill("3");
@@ -128,7 +128,7 @@ describe("isolation-room air on a phone (390×844)", () => {
     await page.getByRole("heading", { level: 1, name: "My sites" }).waitFor();
     await page
       .getByRole("list", { name: "Sites" })
-      .getByRole("link", { name: /Wexley Rehabilitation Centre/ })
+      .getByRole("link", { name: /Orchard Hill Community Hospital/ })
       .first()
       .click();
     await page.getByLabel("Building").fill("Garden wing");
