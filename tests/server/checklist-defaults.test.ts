@@ -220,13 +220,11 @@ describe("default checklists, version 2", () => {
       .send({ id: crypto.randomUUID(), outcome: "not_applicable" });
     expect(bare.status).toBe(400);
     expect(Object.keys(bare.body.error.fields)).toEqual(["note"]);
-    const noted = await as(auditor)
-      .put(`/api/audits/${auditId}/answers/${chair.id}`)
-      .send({
-        id: crypto.randomUUID(),
-        outcome: "not_applicable",
-        note: "Chair-free removal area",
-      });
+    const noted = await as(auditor).put(`/api/audits/${auditId}/answers/${chair.id}`).send({
+      id: crypto.randomUUID(),
+      outcome: "not_applicable",
+      note: "Chair-free removal area",
+    });
     expect(noted.status).toBe(200);
     // Items without the flag are still marked not applicable without a note.
     const other = await as(auditor)

@@ -238,14 +238,12 @@ describe("floors, spaces and fixtures", () => {
       .post(`/api/floors/${floor.id}/spaces`)
       .send({ zoneType: "anteroom", name: "Ante 1", polygon: room });
     expect(anteroom.status).toBe(201);
-    const isolation = await as(admin)
-      .post(`/api/floors/${floor.id}/spaces`)
-      .send({
-        zoneType: "isolation_room",
-        name: "AIIR 2",
-        polygon: room,
-        constructionClass: "existing",
-      });
+    const isolation = await as(admin).post(`/api/floors/${floor.id}/spaces`).send({
+      zoneType: "isolation_room",
+      name: "AIIR 2",
+      polygon: room,
+      constructionClass: "existing",
+    });
     expect(isolation.status).toBe(201);
 
     for (const [spaceId, body] of [
