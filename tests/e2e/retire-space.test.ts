@@ -100,7 +100,12 @@ describe("retiring a space on a phone (390×844)", () => {
     await shot(auditor.page, "auditor-floor-without-retired-space");
 
     await admin.page.goto(siteUrl);
-    await retired.getByRole("button", { name: "Restore space Temporary doffing bay" }).click();
+    // The site page's other sections load after this one and push it down: let the page settle
+    // before tapping, or the tap lands where the button was a moment ago.
+    await admin.page.waitForLoadState("networkidle");
+    const restore = retired.getByRole("button", { name: "Restore space Temporary doffing bay" });
+    await restore.scrollIntoViewIfNeeded();
+    await restore.click();
     await retired.getByRole("status").waitFor();
     expect(await retired.getByRole("status").textContent()).toContain(
       "Temporary doffing bay is back.",
