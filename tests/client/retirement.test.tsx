@@ -177,12 +177,18 @@ describe("retired floors and spaces on the site page", () => {
     ],
   };
 
-  it("when an administrator restores a retired space, then it is sent and what came back is said in words", async () => {
+  it("when an administrator restores a retired space, then it is sent and what came back is said in words, even after the space leaves the list", async () => {
     const { calls } = stubApi(
       {
         "GET /api/auth/me": () => jsonResponse(administrator),
         [`GET /api/sites/${tamsinGeneral.id}`]: () => jsonResponse({ site: tamsinGeneral }),
-        [`GET /api/sites/${tamsinGeneral.id}/retired`]: () => jsonResponse(retired),
+        // Once restored, the space leaves the list: the row that was tapped goes away.
+        [`GET /api/sites/${tamsinGeneral.id}/retired`]: () =>
+          jsonResponse(
+            calls.some((call) => call.method === "POST")
+              ? { ...retired, spaces: retired.spaces.filter((s) => s.id !== space.id) }
+              : retired,
+          ),
         [`POST /api/spaces/${space.id}/restore`]: () =>
           jsonResponse({
             retirement: result({ name: "Doffing area 4", retiredAt: null, actions: 1 }),

@@ -15,8 +15,10 @@ export async function sendRetirement(path: string, reason?: string): Promise<Ret
 
 /**
  * A retirement or restore changes the map, the due list, QR sheets, action lists and site lists
- * at once, so every cached read is refreshed rather than patched one by one.
+ * at once, so every cached read is refreshed rather than patched one by one. The mutation does not
+ * wait for the refresh: the refreshed list drops the row that was tapped, and a row gone before
+ * its mutation settles would never hear of its success (nor say so to the person).
  */
-export function afterRetirement(queryClient: QueryClient) {
-  return queryClient.invalidateQueries();
+export function afterRetirement(queryClient: QueryClient): void {
+  void queryClient.invalidateQueries();
 }

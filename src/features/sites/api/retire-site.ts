@@ -24,7 +24,10 @@ export function retireSiteMutationOptions(queryClient: QueryClient) {
     mutationFn: (input: { siteId: string; reason?: string }) =>
       retireSite(input.siteId, input.reason),
     // Site lists, floors, due lists and actions all change: refresh every cached read.
-    onSuccess: () => queryClient.invalidateQueries(),
+    // Not awaited: the refreshed list drops the row whose own success callback must still run.
+    onSuccess: () => {
+      void queryClient.invalidateQueries();
+    },
   });
 }
 
