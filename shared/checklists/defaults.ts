@@ -25,8 +25,8 @@ export interface DefaultItem {
   threshold?: { op: ">=" | "<="; value: number };
   choices?: { value: string; label: string; passes: boolean }[];
   /**
-   * The published source the handbook (shared/references.md) confirms, or "Common practice" for
-   * a rule with no confirmed source. Never a source that says less than the item.
+   * The published source that states the rule, or "Common practice" for a rule with no such
+   * source. Never a source that says less than the item.
    */
   reference: string | null;
   photoOnFail: boolean;

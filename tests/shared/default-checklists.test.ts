@@ -18,8 +18,8 @@ const byKey = (key: string) => {
 };
 
 /**
- * The sources shared/references.md confirms (a published copy was read). An item cites one of
- * these, or says "Common practice"; nothing else reaches the phone as a source.
+ * The published sources Lintel's defaults may cite. An item cites one of these, or says "Common
+ * practice"; nothing else reaches the phone as a source.
  */
 const confirmedSources = [
   "CDC, Sequence for Putting On / How to Safely Remove PPE (CS250672)",
@@ -51,8 +51,8 @@ describe("the default checklists, version 2", () => {
   it("when an item's citation said more than its source, then version 2 says common practice", () => {
     // The PPE poster gives the order of putting on and removing, not stock levels or where hand
     // rub stands; OSHA 1910.134 (g)(1)(iii) requires the seal check itself, not a displayed guide;
-    // the handbook confirms no source for monitor alarms, anteroom doors, or any anteroom-to-corridor
-    // figure (references.md §2 gives only the room-to-corridor one).
+    // no cited source covers monitor alarms, anteroom doors, or an anteroom-to-corridor figure
+    // (the CDC gives only the room-to-corridor one).
     for (const key of [
       "don.ppe-stock",
       "doff.hand-rub-reach",
@@ -111,7 +111,7 @@ describe("the default checklists, version 2", () => {
   });
 
   it("when the dispenser rules are read, then they carry NFPA 101's figures and spacing is major", () => {
-    // NFPA 101 (2012) 18.3.2.6 / 19.3.2.6, confirmed via published transcriptions.
+    // NFPA 101 Life Safety Code (2012) 18.3.2.6 / 19.3.2.6.
     expect(byKey("doff.dispenser-spacing")).toMatchObject({ severity: "major" });
     expect(byKey("doff.dispenser-spacing").text).toMatch(/48 in \(1\.22 m\)/);
     for (const key of ["don.dispenser-ignition", "doff.dispenser-ignition"]) {
