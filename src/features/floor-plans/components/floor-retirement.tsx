@@ -4,14 +4,11 @@ import { Alert } from "@/components/ui/alert";
 import { Button } from "@/components/ui/button";
 import { Card } from "@/components/ui/card";
 import { ConfirmStep } from "@/components/ui/confirm-step";
-import { isApiError } from "@/lib/api-client";
+import { errorMessage } from "@/lib/error-message";
 
 import { useDeleteFloor } from "../api/delete-floor";
 import { useRetireFloor } from "../api/retire-floor";
-
-function failureMessage(error: unknown): string {
-  return error instanceof Error ? error.message : "That did not work. Please try again.";
-}
+import { DeleteRefusal } from "./delete-refusal";
 
 export interface FloorRetirementProps {
   floorId: string;
@@ -96,7 +93,7 @@ export function FloorRetirement({ floorId, floorName, spaceCount, onGone }: Floo
             </p>
             {retire.isError ? (
               <Alert role="alert" tone="error">
-                {failureMessage(retire.error)}
+                {errorMessage(retire.error)}
               </Alert>
             ) : null}
           </ConfirmStep>
@@ -119,21 +116,13 @@ export function FloorRetirement({ floorId, floorName, spaceCount, onGone }: Floo
               it.
             </p>
             {remove.isError ? (
-              <Alert role="alert" tone="error">
-                <p>{failureMessage(remove.error)}</p>
-                {isApiError(remove.error) && remove.error.status === 409 ? (
-                  <Button
-                    variant="secondary"
-                    className="mt-3"
-                    onClick={() => {
-                      retire.reset();
-                      setConfirming("retire");
-                    }}
-                  >
-                    Retire instead
-                  </Button>
-                ) : null}
-              </Alert>
+              <DeleteRefusal
+                error={remove.error}
+                onRetireInstead={() => {
+                  retire.reset();
+                  setConfirming("retire");
+                }}
+              />
             ) : null}
           </ConfirmStep>
         ) : null}

@@ -8,15 +8,12 @@ import { Badge } from "@/components/ui/badge";
 import { Button } from "@/components/ui/button";
 import { Card } from "@/components/ui/card";
 import { Spinner } from "@/components/ui/spinner";
+import { errorMessage } from "@/lib/error-message";
 import { formatDateTime } from "@/lib/format";
 
 import { useRetiredPlaces } from "../api/get-retired-places";
 import { useRestoreFloor } from "../api/restore-floor";
 import { useRestoreSpace } from "../api/restore-space";
-
-function failureMessage(error: unknown): string {
-  return error instanceof Error ? error.message : "That did not work. Please try again.";
-}
 
 function retiredLine(place: { retiredAt: string; retiredByName: string | null }) {
   return `Retired ${formatDateTime(place.retiredAt)}${place.retiredByName ? ` by ${place.retiredByName}` : ""}`;
@@ -66,7 +63,7 @@ function FloorRow({
       </div>
       {restore.isError ? (
         <Alert role="alert" tone="error">
-          {failureMessage(restore.error)}
+          {errorMessage(restore.error)}
         </Alert>
       ) : null}
     </li>
@@ -120,7 +117,7 @@ function SpaceRow({
       </div>
       {restore.isError ? (
         <Alert role="alert" tone="error">
-          {failureMessage(restore.error)}
+          {errorMessage(restore.error)}
         </Alert>
       ) : null}
     </li>

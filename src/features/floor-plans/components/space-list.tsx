@@ -7,7 +7,7 @@ import { Alert } from "@/components/ui/alert";
 import { Badge } from "@/components/ui/badge";
 import { Button } from "@/components/ui/button";
 import { ConfirmStep } from "@/components/ui/confirm-step";
-import { isApiError } from "@/lib/api-client";
+import { errorMessage } from "@/lib/error-message";
 import { cn } from "@/lib/cn";
 
 import { useDeleteFixture } from "../api/delete-fixture";
@@ -15,11 +15,8 @@ import { useDeleteSpace } from "../api/delete-space";
 import { useRetireSpace } from "../api/retire-space";
 import { formatArea, planAreaSquareMetres } from "../lib/measurements";
 import { groupSpacesBySuite, spaceTitle } from "../lib/space-groups";
+import { DeleteRefusal } from "./delete-refusal";
 import { FixtureSymbol, ZoneSwatch } from "./symbols";
-
-function failureMessage(error: unknown): string {
-  return error instanceof Error ? error.message : "That did not work. Please try again.";
-}
 
 export function spaceAreaText(space: Space, metresPerUnit: number | null): string | null {
   if (space.floorAreaM2 !== null) return `Floor area ${formatArea(space.floorAreaM2)}`;
@@ -74,7 +71,7 @@ function FixtureRow({ fixture, floorId, flagged, canEdit }: FixtureRowProps) {
         >
           {remove.isError ? (
             <Alert role="alert" tone="error">
-              {failureMessage(remove.error)}
+              {errorMessage(remove.error)}
             </Alert>
           ) : null}
         </ConfirmStep>
@@ -210,7 +207,7 @@ function SpaceItem({
           </p>
           {retire.isError ? (
             <Alert role="alert" tone="error">
-              {failureMessage(retire.error)}
+              {errorMessage(retire.error)}
             </Alert>
           ) : null}
         </ConfirmStep>
@@ -233,21 +230,13 @@ function SpaceItem({
             otherwise retire it.
           </p>
           {remove.isError ? (
-            <Alert role="alert" tone="error">
-              <p>{failureMessage(remove.error)}</p>
-              {isApiError(remove.error) && remove.error.status === 409 ? (
-                <Button
-                  variant="secondary"
-                  className="mt-3"
-                  onClick={() => {
-                    retire.reset();
-                    setConfirming("retire");
-                  }}
-                >
-                  Retire instead
-                </Button>
-              ) : null}
-            </Alert>
+            <DeleteRefusal
+              error={remove.error}
+              onRetireInstead={() => {
+                retire.reset();
+                setConfirming("retire");
+              }}
+            />
           ) : null}
         </ConfirmStep>
       ) : null}
