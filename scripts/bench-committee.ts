@@ -102,7 +102,7 @@ async function seedSites(
   );
   await client.query(
     `insert into audits (id, site_id, space_id, checklist_version_id, auditor_id, status, started_at, submitted_at, verdict)
-     select gen_random_uuid(), sp.site_id, sp.id, v.id, $2, 'submitted', t.at, t.at + interval '40 minutes', 'ready'
+     select gen_random_uuid(), sp.site_id, sp.id, v.id, $2, 'submitted', t.at, t.at + interval '40 minutes', 'all_clear'
        from spaces sp
        join checklist_versions v on v.network_id = $3 and v.zone_type = sp.zone_type
        cross join generate_series(0, $4::int - 1) w
@@ -120,7 +120,7 @@ async function seedSites(
   );
   await client.query(
     `update audits a
-        set verdict = (case when x.critical then 'not_ready' when x.failed then 'ready_with_conditions' else 'ready' end)::verdict
+        set verdict = (case when x.critical then 'hold' when x.failed then 'gaps_to_fix' else 'all_clear' end)::verdict
        from (select aa.audit_id, bool_or(aa.outcome = 'fail' and ci.severity = 'critical') as critical,
                     bool_or(aa.outcome = 'fail') as failed
                from audit_answers aa
@@ -131,13 +131,13 @@ async function seedSites(
       where x.audit_id = a.id and x.failed`,
     [ids],
   );
-  // Four actions a space: three closed over the two years, one still open (some overdue).
+  // Four actions a space: three done over the two years, one still to fix (some overdue).
   await client.query(
-    `insert into corrective_actions (site_id, space_id, floor_id, item_key, title, severity, status,
+    `insert into corrective_actions (site_id, space_id, floor_id, item_key, title, severity, state,
                                      opened_at, due_at, closed_at, days_to_close, x, y)
      select sp.site_id, sp.id, sp.floor_id, 'bench-' || n, 'Bench finding ' || n,
             (array['critical','major','minor'])[1 + n % 3]::severity,
-            (case when n = 3 then 'open' else 'closed' end)::action_status,
+            (case when n = 3 then 'to_fix' else 'done' end)::action_state,
             o.at, o.at + interval '7 days',
             case when n = 3 then null else o.at + d.days * interval '1 day' end,
             case when n = 3 then null else d.days end, 50, 50

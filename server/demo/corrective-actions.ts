@@ -7,7 +7,18 @@ import sharp from "sharp";
 import { daysToClose, defaultDuePolicy, dueAt, type DuePolicy } from "@shared/calc/due";
 import { polygonCentroid } from "@shared/calc/plan-geometry";
 import type { Severity } from "@shared/calc/verdict";
-import type { ActionStatus } from "@shared/schemas/actions";
+import { rolePermissions } from "@shared/permissions";
+import type { Role } from "@shared/roles";
+import {
+  actionMoves,
+  actionStates,
+  moveAllowedFrom,
+  moveTimelineKinds,
+  ownerWorkStates,
+  systemMoves,
+  type ActionMoveName,
+  type ActionState,
+} from "@shared/workflow/action-workflow";
 
 import type { Tx } from "../db/client";
 import {
@@ -97,13 +108,28 @@ interface Chain {
 }
 
 /** What the last action of a chain is made to be, so every site shows every state. */
-type Fate = ActionStatus | "overdue" | "reopened";
+type Fate = ActionState | "overdue" | "reopened";
 
-type StepKind = "started" | "proof" | "sent" | "verified" | "rejected" | "reopened";
+/** Each step of an action's story is a person's move from the workflow table. */
+type StepKind = Exclude<ActionMoveName, "assign">;
 interface Step {
   kind: StepKind;
   at: number;
 }
+
+/** Who makes each move in the story, and the words they give when the move needs some. */
+const storyMoves: Record<StepKind, { by: "lead" | "verifier"; words?: readonly string[] }> = {
+  start: { by: "lead" },
+  add_photo: { by: "lead" },
+  ask_check: { by: "lead", words: sentNotes },
+  confirm: { by: "verifier", words: verifiedNotes },
+  send_back: { by: "verifier", words: rejectedNotes },
+  reopen: { by: "verifier", words: reopenedNotes },
+};
+const storyRoles: Record<"lead" | "verifier", Role> = {
+  lead: "facilities_lead",
+  verifier: "auditor",
+};
 
 interface LogRow {
   action: string;
@@ -121,7 +147,7 @@ interface SimAction {
   severity: Severity;
   title: string;
   itemKey: string;
-  status: ActionStatus;
+  state: ActionState;
   closedAt: number | null;
   proofRound: number;
   /** Typical days this action takes, kept for re-planning after a setback. */
@@ -130,8 +156,8 @@ interface SimAction {
   findings: (Failure & { id: string })[];
   proofs: { id: string; round: number; at: number; picture: number }[];
   log: LogRow[];
-  /** Status changes, to tell when the time-based notices went out. */
-  statuses: { at: number; status: ActionStatus }[];
+  /** State changes, to tell when the time-based notices went out. */
+  states: { at: number; state: ActionState }[];
   updatedAt: number;
 }
 
@@ -176,19 +202,19 @@ function simulateChain(chain: Chain, now: number, fate?: Fate): SimAction[] {
     };
   };
 
-  /** Proof, sending and the auditor's check, from an action already in progress at `from`. */
+  /** A photo, asking for a check and the auditor's check, from an action being fixed at `from`. */
   const fixFrom = (from: number, total: number, rejectChance: number): Step[] => {
     const at = schedule(from);
     const steps: Step[] = [];
     const proof = at(from + total * day * (0.2 + random() * 0.3));
-    steps.push({ kind: "proof", at: proof });
+    steps.push({ kind: "add_photo", at: proof });
     const sent = at(proof + (10 + random() * 80) * 60 * 1000, false);
-    steps.push({ kind: "sent", at: sent });
+    steps.push({ kind: "ask_check", at: sent });
     const checked = at(sent + Math.max(2 * hour, total * day * (0.1 + random() * 0.3)));
     if (random() < rejectChance) {
-      steps.push({ kind: "rejected", at: checked });
+      steps.push({ kind: "send_back", at: checked });
       steps.push(...fixFrom(checked, total * 0.6, 0));
-    } else steps.push({ kind: "verified", at: checked });
+    } else steps.push({ kind: "confirm", at: checked });
     return steps;
   };
 
@@ -198,8 +224,8 @@ function simulateChain(chain: Chain, now: number, fate?: Fate): SimAction[] {
     const started = at(action.openedAt + action.total * day * (0.05 + random() * 0.15));
     // A very few are never picked up, or picked up and left: the oldest overdue work.
     if (stall < 0.004) return [];
-    if (stall < 0.008) return [{ kind: "started", at: started }];
-    return [{ kind: "started", at: started }, ...fixFrom(started, action.total, 0.06)];
+    if (stall < 0.008) return [{ kind: "start", at: started }];
+    return [{ kind: "start", at: started }, ...fixFrom(started, action.total, 0.06)];
   };
 
   /** The last action's life fitted between its opening and now. */
@@ -209,32 +235,32 @@ function simulateChain(chain: Chain, now: number, fate?: Fate): SimAction[] {
     const early = (low: number, high: number) =>
       at(action.openedAt + window * (low + random() * (high - low)));
     switch (forced) {
-      case "open":
+      case "to_fix":
         return [];
-      case "in_progress":
-        return [{ kind: "started", at: early(0.2, 0.5) }];
+      case "fixing":
+        return [{ kind: "start", at: early(0.2, 0.5) }];
       case "overdue": {
         const started = at(action.openedAt + Math.min(window, action.due - action.openedAt) * 0.3);
-        const steps: Step[] = [{ kind: "started", at: started }];
+        const steps: Step[] = [{ kind: "start", at: started }];
         if (random() < 0.5)
-          steps.push({ kind: "proof", at: at(started + (now - started) * 0.3, false) });
+          steps.push({ kind: "add_photo", at: at(started + (now - started) * 0.3, false) });
         return steps;
       }
-      case "awaiting_verification": {
+      case "to_check": {
         const started = early(0.05, 0.15);
         const proof = at(started + (now - started) * (0.3 + random() * 0.3));
         const sent = at(proof + Math.min(40 * 60 * 1000, (now - proof) / 4), false);
         return [
-          { kind: "started", at: started },
-          { kind: "proof", at: proof },
-          { kind: "sent", at: sent },
+          { kind: "start", at: started },
+          { kind: "add_photo", at: proof },
+          { kind: "ask_check", at: sent },
         ];
       }
-      case "closed": {
+      case "done": {
         daytime = false;
         action.total = Math.min(action.total, (window / day) * 0.5);
         const started = at(action.openedAt + action.total * day * 0.1);
-        return [{ kind: "started", at: started }, ...fixFrom(started, action.total, 0)];
+        return [{ kind: "start", at: started }, ...fixFrom(started, action.total, 0)];
       }
       case "reopened": {
         const started = at(action.openedAt + action.total * day * 0.1);
@@ -242,102 +268,65 @@ function simulateChain(chain: Chain, now: number, fate?: Fate): SimAction[] {
         const closed = first[first.length - 1]!.at;
         const reopened = schedule(closed)(closed + (2 + random() * 4) * day);
         return [
-          { kind: "started", at: started },
+          { kind: "start", at: started },
           ...first,
-          { kind: "reopened", at: reopened },
+          { kind: "reopen", at: reopened },
           ...fixFrom(reopened, action.total, 0),
         ];
       }
     }
   };
 
-  const setStatus = (action: SimAction, status: ActionStatus, at: number) => {
-    action.status = status;
-    action.statuses.push({ at, status });
+  const setState = (action: SimAction, state: ActionState, at: number) => {
+    action.state = state;
+    action.states.push({ at, state });
   };
 
+  /** Makes one move through the workflow table, as the server would, and logs it. */
   const apply = (action: SimAction, step: Step) => {
-    const leadId = chain.leadId;
-    const before = { status: action.status };
-    action.updatedAt = step.at;
-    switch (step.kind) {
-      case "started":
-        setStatus(action, "in_progress", step.at);
-        action.log.push({
-          action: "action.started",
-          at: step.at,
-          actorId: leadId,
-          before,
-          after: { status: "in_progress" },
-        });
-        return;
-      case "proof": {
-        const proof = {
-          id: randomUUID(),
-          round: action.proofRound,
-          at: step.at,
-          picture: action.itemKey.startsWith("doff.") ? 1 : 0,
-        };
-        action.proofs.push(proof);
-        action.log.push({
-          action: "action.proof_added",
-          at: step.at,
-          actorId: leadId,
-          after: { status: action.status, proofId: proof.id, picture: proof.picture },
-        });
-        return;
-      }
-      case "sent":
-        setStatus(action, "awaiting_verification", step.at);
-        action.log.push({
-          action: "action.sent_for_verification",
-          at: step.at,
-          actorId: leadId,
-          before,
-          after: { status: "awaiting_verification" },
-          reason: pick(sentNotes, random),
-        });
-        return;
-      case "verified": {
-        const days = daysToClose(new Date(action.openedAt), new Date(step.at));
-        setStatus(action, "closed", step.at);
-        action.closedAt = step.at;
-        action.log.push({
-          action: "action.verified",
-          at: step.at,
-          actorId: action.verifierId,
-          before,
-          after: { status: "closed", daysToClose: days },
-          reason: pick(verifiedNotes, random),
-        });
-        return;
-      }
-      case "rejected":
-        setStatus(action, "in_progress", step.at);
-        action.proofRound += 1;
-        action.log.push({
-          action: "action.rejected",
-          at: step.at,
-          actorId: action.verifierId,
-          before,
-          after: { status: "in_progress" },
-          reason: pick(rejectedNotes, random),
-        });
-        return;
-      case "reopened":
-        action.log.push({
-          action: "action.reopened",
-          at: step.at,
-          actorId: action.verifierId,
-          before: { status: "closed", closedAt: new Date(action.closedAt!).toISOString() },
-          after: { status: "in_progress" },
-          reason: pick(reopenedNotes, random),
-        });
-        setStatus(action, "in_progress", step.at);
-        action.closedAt = null;
-        action.proofRound += 1;
-        return;
+    const rule = actionMoves[step.kind];
+    const story = storyMoves[step.kind];
+    const actorId = story.by === "lead" ? chain.leadId : action.verifierId;
+    if (
+      !moveAllowedFrom(step.kind, action.state) ||
+      !rolePermissions[storyRoles[story.by]].includes(rule.permission)
+    ) {
+      throw new Error(`The demo story broke the workflow: ${step.kind} from ${action.state}.`);
     }
+    const before: Record<string, unknown> = { state: action.state };
+    const after: Record<string, unknown> = { state: rule.to ?? action.state };
+    action.updatedAt = step.at;
+    if (step.kind === "add_photo") {
+      const proof = {
+        id: randomUUID(),
+        round: action.proofRound,
+        at: step.at,
+        picture: action.itemKey.startsWith("doff.") ? 1 : 0,
+      };
+      action.proofs.push(proof);
+      Object.assign(after, { proofId: proof.id, picture: proof.picture });
+    }
+    if (rule.needsProofOfAttempt && !action.proofs.some((p) => p.round === action.proofRound)) {
+      throw new Error(`The demo story asked for a check without a photo of the fix.`);
+    }
+    if (rule.to === "done") {
+      action.closedAt = step.at;
+      after.daysToClose = daysToClose(new Date(action.openedAt), new Date(step.at));
+    }
+    if (action.state === "done" && rule.to !== null) {
+      before.closedAt = new Date(action.closedAt!).toISOString();
+      action.closedAt = null;
+    }
+    if (rule.newAttempt) action.proofRound += 1;
+    action.log.push({
+      action: `action.${moveTimelineKinds[step.kind]}`,
+      at: step.at,
+      actorId,
+      ...(step.kind === "add_photo" ? {} : { before }),
+      after,
+      ...(story.words ? { reason: pick(story.words, random) } : {}),
+    });
+    if (rule.to !== null) setState(action, rule.to, step.at);
   };
 
   const applyUntil = (until: number) => {
@@ -348,13 +337,14 @@ function simulateChain(chain: Chain, now: number, fate?: Fate): SimAction[] {
   chain.failures.forEach((failure, index) => {
     applyUntil(failure.at);
     const finding = { ...failure, id: randomUUID() };
-    if (current && current.status !== "closed") {
-      const before = current.status;
+    if (current && systemMoves.joinsExisting(current.state)) {
+      const before = current.state;
       current.findings.push(finding);
       current.updatedAt = failure.at;
       // Failing again while the fix waits for its check means the fix did not hold.
-      if (before === "awaiting_verification") {
-        setStatus(current, "in_progress", failure.at);
+      const repeat = systemMoves.repeatFailure(before);
+      if (repeat.to !== before) setState(current, repeat.to, failure.at);
+      if (repeat.newAttempt) {
         current.proofRound += 1;
         pending = fixFrom(failure.at, current.total * 0.6, 0);
       }
@@ -362,8 +352,8 @@ function simulateChain(chain: Chain, now: number, fate?: Fate): SimAction[] {
         action: "action.finding_added",
         at: failure.at,
         actorId: failure.auditorId,
-        before: { status: before },
-        after: { status: current.status, auditId: failure.auditId },
+        before: { state: before },
+        after: { state: current.state, auditId: failure.auditId },
         reason: failure.note,
       });
       return;
@@ -388,7 +378,7 @@ function simulateChain(chain: Chain, now: number, fate?: Fate): SimAction[] {
       severity: failure.severity,
       title: failure.itemText,
       itemKey: failure.itemKey,
-      status: "open",
+      state: "to_fix",
       closedAt: null,
       proofRound: 0,
       total,
@@ -401,7 +391,7 @@ function simulateChain(chain: Chain, now: number, fate?: Fate): SimAction[] {
           at: failure.at,
           actorId: failure.auditorId,
           after: {
-            status: "open",
+            state: "to_fix",
             auditId: failure.auditId,
             severity: failure.severity,
             dueAt: new Date(due).toISOString(),
@@ -410,7 +400,7 @@ function simulateChain(chain: Chain, now: number, fate?: Fate): SimAction[] {
           reason: failure.note,
         },
       ],
-      statuses: [{ at: failure.at, status: "open" }],
+      states: [{ at: failure.at, state: "to_fix" }],
       updatedAt: failure.at,
     };
     actions.push(current);
@@ -423,16 +413,17 @@ function simulateChain(chain: Chain, now: number, fate?: Fate): SimAction[] {
 
 /** The notices the scheduler would already have sent, so a fresh demo does not send a backlog. */
 function sentNotices(action: SimAction, now: number): { kind: string; at: number }[] {
-  if (action.status !== "open" && action.status !== "in_progress") return [];
+  const ownersTurn = (state: ActionState) =>
+    (ownerWorkStates as readonly ActionState[]).includes(state);
+  if (!ownersTurn(action.state)) return [];
   const notices: { kind: string; at: number }[] = [];
   const soon = action.due - day;
   if (action.openedAt < soon && soon <= now) notices.push({ kind: "due-soon", at: soon });
   if (action.due >= now) return notices;
-  const movable = (status: ActionStatus) => status === "open" || status === "in_progress";
   let from: number | null = null;
-  for (const [index, change] of action.statuses.entries()) {
-    const until = action.statuses[index + 1]?.at ?? now;
-    if (movable(change.status) && until >= action.due) {
+  for (const [index, change] of action.states.entries()) {
+    const until = action.states[index + 1]?.at ?? now;
+    if (ownersTurn(change.state) && until >= action.due) {
       from = Math.max(change.at, action.due);
       break;
     }
@@ -458,11 +449,11 @@ function proofPictures(): string[] {
   ];
 }
 
-const fates: Fate[] = ["closed", "open", "in_progress", "awaiting_verification", "overdue"];
+const fates: Fate[] = ["done", "to_fix", "fixing", "to_check", "overdue"];
 
 function holds(action: SimAction, fate: Fate, now: number): boolean {
-  if (fate === "overdue") return action.status !== "closed" && action.due < now;
-  return action.status === fate;
+  if (fate === "overdue") return systemMoves.joinsExisting(action.state) && action.due < now;
+  return action.state === fate;
 }
 
 /** Whether the chain's last action could be given this fate in the time it has had. */
@@ -471,7 +462,7 @@ function suits(action: SimAction, fate: Fate, now: number): boolean {
   switch (fate) {
     case "overdue":
       return action.due < now - hour && action.due > now - 60 * day;
-    case "closed":
+    case "done":
       return age > 2 * day;
     case "reopened":
       return age > 45 * day && age < 220 * day;
@@ -483,14 +474,14 @@ function suits(action: SimAction, fate: Fate, now: number): boolean {
 /**
  * Findings and corrective actions for the demo audit history, as the live system would have made
  * them when each audit was submitted, then a year of work on them by the facilities leads and
- * auditors. Returns counts by site and status.
+ * auditors, every move made through the workflow table. Returns counts by site and state.
  */
 export async function createDemoCorrectiveActions(
   tx: Tx,
   storage: Storage,
   siteIds: Record<DemoSiteKey, string>,
   now = new Date(),
-): Promise<Record<string, Record<ActionStatus, number>>> {
+): Promise<Record<string, Record<ActionState, number>>> {
   const nowMs = now.getTime();
   const siteKeys = Object.keys(siteIds) as DemoSiteKey[];
   const siteRows = await tx
@@ -539,7 +530,7 @@ export async function createDemoCorrectiveActions(
       ),
     )
     .orderBy(asc(audits.submittedAt), asc(checklistItems.position));
-  const liveUnclosed = new Set(
+  const liveUnfinished = new Set(
     (
       await tx
         .select({ spaceId: correctiveActions.spaceId, itemKey: correctiveActions.itemKey })
@@ -547,7 +538,7 @@ export async function createDemoCorrectiveActions(
         .where(
           and(
             inArray(correctiveActions.siteId, Object.values(siteIds)),
-            ne(correctiveActions.status, "closed"),
+            ne(correctiveActions.state, "done"),
           ),
         )
     ).map((row) => `${row.spaceId}|${row.itemKey}`),
@@ -591,8 +582,8 @@ export async function createDemoCorrectiveActions(
   const chains = [...chainsByKey.values()].sort((a, b) => a.key.localeCompare(b.key));
   const forced = new Map<number, Fate>();
   chains.forEach((chain, index) => {
-    if (liveUnclosed.has(`${chain.spaceId}|${chain.failures[0]!.itemKey}`))
-      forced.set(index, "closed");
+    if (liveUnfinished.has(`${chain.spaceId}|${chain.failures[0]!.itemKey}`))
+      forced.set(index, "done");
   });
   const results = chains.map((chain, index) => simulateChain(chain, nowMs, forced.get(index)));
 
@@ -627,7 +618,7 @@ export async function createDemoCorrectiveActions(
       results[chosen] = simulateChain(chains[chosen]!, nowMs, fate);
     }
   }
-  // One or two closed actions that did not hold and were reopened.
+  // One or two done actions that did not hold and were reopened.
   const pickReopened = mulberry32(20261204);
   for (const siteKey of ["wexley", "general"] as const) {
     const candidates = chains
@@ -635,7 +626,7 @@ export async function createDemoCorrectiveActions(
       .filter((i) => chains[i]!.siteKey === siteKey && !forced.has(i))
       .filter((i) => {
         const last = results[i]!.at(-1)!;
-        return last.status === "closed" && suits(last, "reopened", nowMs);
+        return last.state === "done" && suits(last, "reopened", nowMs);
       });
     if (candidates.length === 0) continue;
     const chosen = pick(candidates, pickReopened);
@@ -672,16 +663,13 @@ export async function createDemoCorrectiveActions(
   const counts = Object.fromEntries(
     siteKeys.map((key) => [
       key,
-      { open: 0, in_progress: 0, awaiting_verification: 0, closed: 0 } as Record<
-        ActionStatus,
-        number
-      >,
+      Object.fromEntries(actionStates.map((state) => [state, 0])) as Record<ActionState, number>,
     ]),
   );
   chains.forEach((chain, index) => {
     for (const action of results[index]!) {
-      counts[chain.siteKey]![action.status] += 1;
-      const closedAt = action.status === "closed" ? new Date(action.closedAt!) : null;
+      counts[chain.siteKey]![action.state] += 1;
+      const closedAt = action.state === "done" ? new Date(action.closedAt!) : null;
       actionRows.push({
         id: action.id,
         siteId: chain.siteId,
@@ -690,11 +678,12 @@ export async function createDemoCorrectiveActions(
         itemKey: action.itemKey,
         title: action.title,
         severity: action.severity,
-        status: action.status,
+        state: action.state,
         assigneeId: chain.leadId,
         openedAt: new Date(action.openedAt),
         dueAt: new Date(action.due),
         closedAt,
+        closeReason: closedAt ? "confirmed" : null,
         daysToClose: closedAt ? daysToClose(new Date(action.openedAt), closedAt) : null,
         proofRound: action.proofRound,
         ...chain.position,

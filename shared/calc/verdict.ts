@@ -7,13 +7,27 @@ export type Severity = (typeof severities)[number];
 
 export const severityWeights: Record<Severity, number> = { critical: 5, major: 3, minor: 1 };
 
-export const verdicts = ["not_ready", "ready_with_conditions", "ready"] as const;
+/**
+ * A space's verdict after an audit, worst first, named after what the team does next:
+ *   hold         a critical item failed (or an isolation room's inward airflow was not
+ *                confirmed): hold the space until it is fixed
+ *   gaps_to_fix  only major or minor items failed: corrective actions are raised for the gaps
+ *   all_clear    nothing failed
+ */
+export const verdicts = ["hold", "gaps_to_fix", "all_clear"] as const;
 export type Verdict = (typeof verdicts)[number];
 
 export const verdictLabels: Record<Verdict, string> = {
-  not_ready: "Not ready",
-  ready_with_conditions: "Ready with conditions",
-  ready: "Ready",
+  hold: "Hold until fixed",
+  gaps_to_fix: "Gaps to fix",
+  all_clear: "All clear",
+};
+
+/** One sentence on each verdict, for keys and hints. */
+export const verdictHints: Record<Verdict, string> = {
+  hold: "A critical item failed, or an isolation room's inward airflow was not confirmed.",
+  gaps_to_fix: "Only major or minor items failed; each gap has a corrective action.",
+  all_clear: "Every item that applies passed.",
 };
 
 export type Outcome = "pass" | "fail" | "not_applicable";
@@ -49,7 +63,8 @@ export interface Readiness {
 export const airflowNotConfirmedReason =
   "Inward airflow not confirmed: neither a pressure reading meeting the threshold nor a passing visual (smoke) test in this audit.";
 
-const severityWords: Record<Severity, string> = {
+/** Severities in words for people (screens, e-mails, CSV cells, the PDF). */
+export const severityLabels: Record<Severity, string> = {
   critical: "Critical",
   major: "Major",
   minor: "Minor",
@@ -57,10 +72,10 @@ const severityWords: Record<Severity, string> = {
 
 /**
  * Lintel's own readiness rules (version 2), on top of the cited sources:
- * - any critical item failed → not ready; a failed visual (smoke) test counts as critical;
+ * - any critical item failed → hold until fixed; a failed visual (smoke) test counts as critical;
  * - an isolation room whose inward airflow was not confirmed in this audit (the pressure item
- *   passed its threshold, or the visual test passed) → not ready;
- * - otherwise any failed item → ready with conditions; else ready.
+ *   passed its threshold, or the visual test passed) → hold until fixed;
+ * - otherwise any failed item → gaps to fix; else all clear.
  */
 export function readinessOf(zoneType: string, answers: readonly JudgedAnswer[]): Readiness {
   const critical = (a: JudgedAnswer) => a.severity === "critical" || a.key === smokeTestItemKey;
@@ -77,10 +92,10 @@ export function readinessOf(zoneType: string, answers: readonly JudgedAnswer[]):
     );
     if (!confirmed) reasons.push(airflowNotConfirmedReason);
   }
-  if (reasons.length > 0) return { verdict: "not_ready", reasons };
-  const others = failed.map((a) => `${severityWords[a.severity]} item failed: ${a.text}`);
-  if (others.length > 0) return { verdict: "ready_with_conditions", reasons: others };
-  return { verdict: "ready", reasons: [] };
+  if (reasons.length > 0) return { verdict: "hold", reasons };
+  const others = failed.map((a) => `${severityLabels[a.severity]} item failed: ${a.text}`);
+  if (others.length > 0) return { verdict: "gaps_to_fix", reasons: others };
+  return { verdict: "all_clear", reasons: [] };
 }
 
 /** Weighted pass rate in [0, 1]; null when no item applies. */

@@ -5,16 +5,19 @@ import { severities } from "../calc/verdict";
 import { zoneTypes } from "../zones";
 import { numberInput, text, uuidSchema, responseText } from "./common";
 
-/** open → in progress → awaiting verification → closed; rejected or reopened go back to in progress. */
-export const actionStatuses = ["open", "in_progress", "awaiting_verification", "closed"] as const;
-export type ActionStatus = (typeof actionStatuses)[number];
+import { actionCloseReasons, actionStates, timelineKinds } from "../workflow/action-workflow";
 
-export const actionStatusLabels: Record<ActionStatus, string> = {
-  open: "Open",
-  in_progress: "In progress",
-  awaiting_verification: "Awaiting verification",
-  closed: "Closed",
-};
+export {
+  actionCloseReasonLabels,
+  actionCloseReasons,
+  actionStateLabels,
+  actionStates,
+  timelineKindLabels,
+  timelineKinds,
+  type ActionCloseReason,
+  type ActionState,
+  type TimelineKind,
+} from "../workflow/action-workflow";
 
 export const actionParamsSchema = z.strictObject({ actionId: uuidSchema });
 
@@ -26,7 +29,7 @@ const boolFlag = z.enum(["true", "false"], { message: "Use true or false." });
 /** Filters of a site's list; the map asks for the open ones on one floor. */
 export const actionListQuerySchema = z.strictObject({
   state: z
-    .enum(["open", "closed", "all"], { message: "Use open, closed or all." })
+    .enum(["unfinished", "done", "all"], { message: "Use unfinished, done or all." })
     .optional()
     .default("all"),
   floorId: uuidSchema.optional(),
@@ -37,9 +40,6 @@ export const actionListQuerySchema = z.strictObject({
 export type ActionListQuery = z.infer<typeof actionListQuerySchema>;
 
 export const personRefSchema = z.object({ id: uuidSchema, name: responseText() });
-
-export const actionCloseReasons = ["verified", "space_retired"] as const;
-export type ActionCloseReason = (typeof actionCloseReasons)[number];
 
 export const actionSummarySchema = z.object({
   id: uuidSchema,
@@ -54,14 +54,14 @@ export const actionSummarySchema = z.object({
   itemKey: responseText(),
   title: responseText(),
   severity: z.enum(severities),
-  status: z.enum(actionStatuses),
+  state: z.enum(actionStates),
   assignee: personRefSchema.nullable(),
   openedAt: responseText(),
   dueAt: responseText(),
   closedAt: responseText().nullable(),
   /** Elapsed days from opening to the latest close; none when it closed without a fix. */
   daysToClose: z.number().nullable(),
-  /** Why it closed: an auditor saw the fix, or its space was retired. Null while not closed. */
+  /** Why it is done: an auditor confirmed the fix, or its space was retired. Null until done. */
   closeReason: z.enum(actionCloseReasons).nullable(),
   /** When the action's space was retired (it is then hidden from the map and new audits). */
   spaceRetiredAt: responseText().nullable(),
@@ -91,33 +91,18 @@ export const proofSchema = z.object({
   imageId: uuidSchema,
   uploadedBy: responseText().nullable(),
   createdAt: responseText(),
-  /** Proof of the current attempt counts towards sending for verification; older proof stays. */
+  /** Proof of the current attempt counts towards asking for a check; older proof stays. */
   current: z.boolean(),
 });
 export type Proof = z.infer<typeof proofSchema>;
-
-export const timelineKinds = [
-  "opened",
-  "finding_added",
-  "assigned",
-  "started",
-  "proof_added",
-  "sent_for_verification",
-  "verified",
-  "rejected",
-  "reopened",
-  "space_retired",
-  "space_restored",
-] as const;
-export type TimelineKind = (typeof timelineKinds)[number];
 
 export const timelineEntrySchema = z.object({
   id: uuidSchema,
   at: responseText(),
   kind: z.enum(timelineKinds),
   actorName: responseText().nullable(),
-  fromStatus: z.enum(actionStatuses).nullable(),
-  toStatus: z.enum(actionStatuses).nullable(),
+  fromState: z.enum(actionStates).nullable(),
+  toState: z.enum(actionStates).nullable(),
   /** The note or reason given with the move. */
   text: responseText().nullable(),
 });
@@ -142,13 +127,13 @@ export type ActionDetail = z.infer<typeof actionDetailSchema>;
 const longText = (min: number, tooShort: string) =>
   text().trim().min(min, { message: tooShort }).max(2000, { message: "At most 2000 characters." });
 
-/** Sending for verification and verifying both need a note of what was done or seen. */
+/** Asking for a check and confirming a fix both need a note of what was done or seen. */
 export const actionNoteBodySchema = z.strictObject({
   note: longText(3, "Say what was done or seen, in a few words."),
 });
 export type ActionNoteBody = z.infer<typeof actionNoteBodySchema>;
 
-/** Rejecting proof and reopening a closed action both need a reason. */
+/** Sending proof back and reopening a done action both need a reason. */
 export const actionReasonBodySchema = z.strictObject({
   reason: longText(5, "Say why, in a few words."),
 });

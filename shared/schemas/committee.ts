@@ -57,12 +57,12 @@ export type Proportion = z.infer<typeof proportionSchema>;
 export const siteComparisonSchema = z.object({
   siteId: uuidSchema,
   siteName: responseText(),
-  /** Audits with a "ready" verdict out of all submitted audits. */
+  /** Audits with an "all clear" verdict out of all submitted audits. */
   readiness: proportionSchema,
   verdicts: z.object({
-    ready: z.number().int(),
-    ready_with_conditions: z.number().int(),
-    not_ready: z.number().int(),
+    all_clear: z.number().int(),
+    gaps_to_fix: z.number().int(),
+    hold: z.number().int(),
   }),
   /** Answers that passed out of those that applied, by item group. */
   categories: z.array(proportionSchema.extend({ category: z.enum(itemCategories) })),
@@ -117,7 +117,7 @@ export const trendsResponseSchema = z.object({
         z.object({
           month: responseText(),
           audits: z.number().int(),
-          ready: z.number().int(),
+          allClear: z.number().int(),
           p: z.number(),
           lower: z.number(),
           upper: z.number(),

@@ -65,7 +65,7 @@ describe("the action page", () => {
   });
 
   it("when a facilities lead opens an open action, then they may start work, add a photo and give it to someone else, but not verify", async () => {
-    stubAction(facilitiesLead, buildActionDetail({ status: "open" }));
+    stubAction(facilitiesLead, buildActionDetail({ state: "to_fix" }));
     renderApp(actionUrl);
 
     expect(await screen.findByRole("button", { name: "Start work" })).toBeTruthy();
@@ -78,7 +78,7 @@ describe("the action page", () => {
   });
 
   it("when a facilities lead opens an action in progress, then they may send it for verification and are told a photo is needed", async () => {
-    stubAction(facilitiesLead, buildActionDetail({ status: "in_progress" }));
+    stubAction(facilitiesLead, buildActionDetail({ state: "fixing" }));
     renderApp(actionUrl);
 
     expect(await screen.findByRole("button", { name: "Send for verification" })).toBeTruthy();
@@ -92,7 +92,7 @@ describe("the action page", () => {
   });
 
   it("when an auditor opens an action awaiting verification, then they may verify or reject, and nothing else", async () => {
-    stubAction(siteAuditor, buildActionDetail({ status: "awaiting_verification" }));
+    stubAction(siteAuditor, buildActionDetail({ state: "to_check" }));
     renderApp(actionUrl);
 
     expect(await screen.findByRole("button", { name: "Verify and close" })).toBeTruthy();
@@ -103,7 +103,7 @@ describe("the action page", () => {
   });
 
   it("when an auditor opens an open action, then there is nothing for them to do yet", async () => {
-    stubAction(siteAuditor, buildActionDetail({ status: "open" }));
+    stubAction(siteAuditor, buildActionDetail({ state: "to_fix" }));
     renderApp(actionUrl);
 
     await screen.findByRole("heading", { name: "What happens next" });
@@ -117,7 +117,7 @@ describe("the action page", () => {
     stubAction(
       siteAuditor,
       buildActionDetail({
-        status: "closed",
+        state: "done",
         closedAt: "2026-03-31T06:00:00.000Z",
         daysToClose: 0.9,
       }),
@@ -130,7 +130,7 @@ describe("the action page", () => {
   });
 
   it("when a committee member opens an action, then they read it and make no move", async () => {
-    stubAction(committeeMember, buildActionDetail({ status: "awaiting_verification" }));
+    stubAction(committeeMember, buildActionDetail({ state: "to_check" }));
     renderApp(actionUrl);
 
     await screen.findByRole("heading", { name: "What happens next" });
@@ -139,7 +139,7 @@ describe("the action page", () => {
   });
 
   it("when a facilities lead sends for verification without a note, then it is refused beside the note and nothing is sent", async () => {
-    const { calls } = stubAction(facilitiesLead, buildActionDetail({ status: "in_progress" }));
+    const { calls } = stubAction(facilitiesLead, buildActionDetail({ state: "fixing" }));
     const { user } = renderApp(actionUrl);
 
     await user.click(await screen.findByRole("button", { name: "Send for verification" }));
@@ -152,8 +152,8 @@ describe("the action page", () => {
 
   it("when the server says a photo of this attempt is needed, then the message is beside the photo control and the note is kept", async () => {
     const proofMessage = "Add a photo of the fix for this attempt before sending it.";
-    const { calls } = stubAction(facilitiesLead, buildActionDetail({ status: "in_progress" }), {
-      [`POST /api/actions/${actionId}/verification-request`]: () =>
+    const { calls } = stubAction(facilitiesLead, buildActionDetail({ state: "fixing" }), {
+      [`POST /api/actions/${actionId}/ask-check`]: () =>
         errorResponse(400, "validation_failed", "A photo is needed.", { proof: proofMessage }),
     });
     const { user } = renderApp(actionUrl);
@@ -173,22 +173,22 @@ describe("the action page", () => {
   });
 
   it("when an auditor verifies with a note, then the action comes back closed and the timeline has the move", async () => {
-    let detail = buildActionDetail({ status: "awaiting_verification" });
+    let detail = buildActionDetail({ state: "to_check" });
     const { calls } = stubAction(siteAuditor, detail, {
       [`GET /api/actions/${actionId}`]: () => jsonResponse(detail),
-      [`POST /api/actions/${actionId}/verify`]: () => {
+      [`POST /api/actions/${actionId}/confirm`]: () => {
         detail = buildActionDetail(
-          { status: "closed", closedAt: "2026-03-31T07:00:00.000Z", daysToClose: 1 },
+          { state: "done", closedAt: "2026-03-31T07:00:00.000Z", daysToClose: 1 },
           {
             timeline: [
               ...detail.timeline,
               {
                 id: "6f708192-a3b4-4fc0-9b32-5d6e7f8091a2",
                 at: "2026-03-31T07:00:00.000Z",
-                kind: "verified",
+                kind: "fix_confirmed",
                 actorName: siteAuditor.user.name,
-                fromStatus: "awaiting_verification",
-                toStatus: "closed",
+                fromState: "to_check",
+                toState: "done",
                 text: "Chair in place and labelled.",
               },
             ],
@@ -217,12 +217,12 @@ describe("the action page", () => {
   });
 
   it("when a photo of the fix is chosen, then it is uploaded as the photo field", async () => {
-    let detail = buildActionDetail({ status: "in_progress" });
+    let detail = buildActionDetail({ state: "fixing" });
     const { calls } = stubAction(facilitiesLead, detail, {
       [`GET /api/actions/${actionId}`]: () => jsonResponse(detail),
       [`POST /api/actions/${actionId}/proofs`]: () => {
         detail = buildActionDetail(
-          { status: "in_progress" },
+          { state: "fixing" },
           {
             proofs: [
               {
@@ -251,7 +251,7 @@ describe("the action page", () => {
   });
 
   it("when a proof's reply is lost, then the photo is sent again under the same id, also when chosen again; a new photo gets a new id", async () => {
-    const detail = buildActionDetail({ status: "in_progress" });
+    const detail = buildActionDetail({ state: "fixing" });
     let replies = [503, 503, 503, 201, 201];
     const { calls } = stubAction(facilitiesLead, detail, {
       [`GET /api/actions/${actionId}`]: () => jsonResponse(detail),
@@ -297,7 +297,7 @@ describe("the action page", () => {
     expect(sentIds()[4]).not.toBe(first);
   });
   it("when a photo of the fix is still uploading, then sending for verification waits for it", async () => {
-    const detail = buildActionDetail({ status: "in_progress" });
+    const detail = buildActionDetail({ state: "fixing" });
     let finish: (response: Response) => void = () => undefined;
     stubAction(facilitiesLead, detail, {
       [`GET /api/actions/${actionId}`]: () => jsonResponse(detail),

@@ -26,7 +26,7 @@ const majorInProgress = buildAction({
   id: "b2000000-0000-4000-8000-000000000002",
   title: "Hands-free lidded bin",
   severity: "major",
-  status: "in_progress",
+  state: "fixing",
   dueAt: "2026-04-06T08:00:00.000Z",
   assignee: { id: "c3000000-0000-4000-8000-000000000001", name: "Alder Quinn" },
 });
@@ -34,7 +34,7 @@ const minorClosed = buildAction({
   id: "b2000000-0000-4000-8000-000000000003",
   title: "Removal order displayed",
   severity: "minor",
-  status: "closed",
+  state: "done",
   closedAt: "2026-04-02T08:00:00.000Z",
   daysToClose: 3,
   dueAt: "2026-04-29T08:00:00.000Z",

@@ -25,7 +25,7 @@ const detail: AuditDetail = {
     status: "submitted",
     startedAt: new Date().toISOString(),
     submittedAt: new Date().toISOString(),
-    verdict: "ready_with_conditions",
+    verdict: "gaps_to_fix",
     score: 0.9,
   },
   items: [
@@ -85,7 +85,10 @@ describe("amending a submitted audit", () => {
     stubApi({
       [`POST /api/audits/${detail.audit.id}/amendments`]: (request) => {
         sent = request.body;
-        return jsonResponse({ ...detail, audit: { ...detail.audit, verdict: "ready", score: 1 } });
+        return jsonResponse({
+          ...detail,
+          audit: { ...detail.audit, verdict: "all_clear", score: 1 },
+        });
       },
     });
     renderForm();

@@ -29,7 +29,7 @@ function submittedDetail() {
     ...detail.audit,
     status: "submitted",
     submittedAt: "2026-03-02T09:40:00.000Z",
-    verdict: "not_ready",
+    verdict: "hold",
     score: 0.5,
   };
   detail.answers = [
@@ -76,7 +76,7 @@ describe("a space's audit history", () => {
       ...detail.audit,
       id: "a1b2c3d4-e5f6-4a7b-8c9d-0e1f2a3b4c5d",
       submittedAt: "2026-02-02T09:40:00.000Z",
-      verdict: "ready",
+      verdict: "all_clear",
       score: 1,
       auditorName: "Priya Nair",
     };
@@ -244,7 +244,7 @@ describe("audit intervals", () => {
               lastAuditAt: "2026-02-20T10:00:00.000Z",
               dueAt: "2026-02-27T10:00:00.000Z",
               state: "overdue",
-              verdict: "ready",
+              verdict: "all_clear",
               lastAuditorName: "Rowan Ellery",
             },
           ],

@@ -139,7 +139,7 @@ describe("what stands between a draft and submitting it", () => {
     ]);
     // critical 5 failed, major 3 + 3 passed, minor not applicable: 6 / 11.
     expect(provisionalResult("doffing_area", items, answers)).toEqual({
-      verdict: "not_ready",
+      verdict: "hold",
       reasons: [`Critical item failed: ${items[0]!.text}`],
       score: 6 / 11,
     });

@@ -50,7 +50,7 @@ function scheduleEntry(overrides: Partial<ScheduleEntry>): ScheduleEntry {
     lastAuditAt: "2026-01-20T10:00:00.000Z",
     dueAt: "2026-02-19T10:00:00.000Z",
     state: "overdue",
-    verdict: "ready_with_conditions",
+    verdict: "gaps_to_fix",
     lastAuditorName: "Rowan Ellery",
     ...overrides,
   };
@@ -183,7 +183,7 @@ describe("what is due", () => {
           zoneType: "anteroom",
           state: "ok",
           dueAt: "2026-04-01T00:00:00.000Z",
-          verdict: "ready",
+          verdict: "all_clear",
         }),
         scheduleEntry({
           spaceId: "a0000000-0000-4000-8000-000000000002",
@@ -200,7 +200,7 @@ describe("what is due", () => {
           zoneType: "isolation_room",
           state: "overdue",
           dueAt: "2026-02-27T00:00:00.000Z",
-          verdict: "not_ready",
+          verdict: "hold",
         }),
         scheduleEntry({
           spaceName: "Doffing area 1",

@@ -21,7 +21,7 @@ const major = buildAction({
   id: "a1000000-0000-4000-8000-000000000002",
   title: "Hands-free lidded bin",
   severity: "major",
-  status: "awaiting_verification",
+  state: "to_check",
 });
 // Same spot as the critical one: both must stay tappable.
 const minor = buildAction({

@@ -17,7 +17,7 @@ const entry = (name: string, state: "overdue" | "due_soon", dueInDays: number) =
   lastAuditAt: new Date(Date.now() - 40 * 86_400_000).toISOString(),
   dueAt: new Date(Date.now() + dueInDays * 86_400_000).toISOString(),
   state,
-  verdict: "ready_with_conditions",
+  verdict: "gaps_to_fix",
   lastAuditorName: "Rafael Dunmore",
   siteId: crypto.randomUUID(),
   siteName: "Wexley Rehabilitation Centre",

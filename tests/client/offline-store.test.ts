@@ -104,7 +104,7 @@ describe("the phone's audit store and its sync queue", () => {
     expect(await store.countChanges()).toEqual({ waiting: 0, held: 0 });
     const after = await store.getAudit(audit.auditId);
     expect(after?.state).toBe("submitted");
-    expect(after?.detail?.audit.verdict).toBe("not_ready");
+    expect(after?.detail?.audit.verdict).toBe("hold");
     // The server has the picture; the phone keeps only its id.
     expect((await store.getPhoto(photoId))?.bytes).toBeNull();
     expect((await store.getPhoto(photoId))?.imageId).not.toBeNull();

@@ -313,7 +313,7 @@ describe("a retired space's history and actions", () => {
               ...detail.audit,
               status: "submitted",
               submittedAt: "2026-03-02T09:40:00.000Z",
-              verdict: "ready",
+              verdict: "all_clear",
               score: 1,
               spaceRetiredAt: "2026-03-20T09:00:00.000Z",
             },
@@ -333,7 +333,7 @@ describe("a retired space's history and actions", () => {
 
   it("when an action was closed by its space's retirement, then the page says so in words and not as a fix", async () => {
     const detail = buildActionDetail({
-      status: "closed",
+      state: "done",
       closedAt: "2026-03-31T08:00:00.000Z",
       closeReason: "space_retired",
       spaceRetiredAt: "2026-03-31T08:00:00.000Z",

@@ -117,11 +117,11 @@ describe("e-mail that may not have arrived", () => {
 
 describe("fixes to verify on the auditor's home page", () => {
   it("when a fix waits for verification at the auditor's site, then their home page lists it with its severity and status in words", async () => {
-    const waiting = buildAction({ status: "awaiting_verification" });
+    const waiting = buildAction({ state: "to_check" });
     stubApi({
       "GET /api/auth/me": () => jsonResponse(siteAuditor),
       "GET /api/sites": () => jsonResponse({ sites: [tamsinGeneral] }),
-      "GET /api/my/verifications": () => jsonResponse({ actions: [waiting] }),
+      "GET /api/my/checks": () => jsonResponse({ actions: [waiting] }),
       "GET /api/my/due": () => jsonResponse({ spaces: [] }),
     });
     renderApp("/");

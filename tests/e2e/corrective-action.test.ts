@@ -126,7 +126,7 @@ describe("a corrective action from e-mail to verified fix, on phones (390×844)"
       "select status, days_to_close from corrective_actions where id = $1",
       [action.id],
     );
-    expect(after[0]).toMatchObject({ status: "closed" });
+    expect(after[0]).toMatchObject({ state: "done" });
     expect(after[0]!.days_to_close).toBeGreaterThan(30);
   });
 });

@@ -1,3 +1,4 @@
+import { actionStates, type ActionState } from "@shared/workflow/action-workflow";
 import { randomUUID } from "node:crypto";
 
 import { and, eq } from "drizzle-orm";
@@ -78,10 +79,7 @@ export interface World {
     person: (
       state?: "active" | "invited" | "deactivated",
     ) => Promise<{ id: string; email: string; grantId: string }>;
-    action: (
-      status: "open" | "in_progress" | "awaiting_verification" | "closed",
-      withProof?: boolean,
-    ) => Promise<string>;
+    action: (state: ActionState, withProof?: boolean) => Promise<string>;
     /** A draft audit of the auditor at A, with one of its items. */
     draftAudit: () => Promise<{ auditId: string; itemId: string }>;
     submittedAudit: () => Promise<{ auditId: string; itemId: string }>;
@@ -178,10 +176,7 @@ export async function seedWorld(app: TestApp): Promise<World> {
     return { auditId, itemId: item!.id };
   }
 
-  async function freshAction(
-    status: "open" | "in_progress" | "awaiting_verification" | "closed",
-    withProof = false,
-  ) {
+  async function freshAction(state: ActionState, withProof = false) {
     const target = await freshSpace();
     const now = new Date();
     const [action] = await db
@@ -193,11 +188,11 @@ export async function seedWorld(app: TestApp): Promise<World> {
         itemKey: "robust-item",
         title: "Dirty chair labelled",
         severity: "major",
-        status,
+        state,
         assigneeId: callers["facilities lead @A"].id,
         openedAt: now,
         dueAt: new Date(now.getTime() + 7 * 24 * 3600 * 1000),
-        closedAt: status === "closed" ? now : null,
+        closedAt: state === "done" ? now : null,
         x: 150,
         y: 150,
       })
@@ -232,8 +227,7 @@ export async function seedWorld(app: TestApp): Promise<World> {
     `/api/audits/${submittedAudit}/submit`,
   );
   const draftAudit = (await auditWithItem("draft")).auditId;
-  for (const status of ["open", "in_progress", "awaiting_verification", "closed"] as const)
-    await freshAction(status, status !== "open");
+  for (const state of actionStates) await freshAction(state, state !== "to_fix");
   const invitedPerson = (await freshPerson("invited")).id;
   await freshPerson("deactivated");
   await db

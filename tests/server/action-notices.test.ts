@@ -57,7 +57,9 @@ describe("corrective action e-mail and notices", () => {
       fail: [fail],
     });
     expect((await as(auditor).post(`/api/audits/${auditId}/submit`)).status).toBe(200);
-    const list = await as(lead).get(`/api/sites/${siteId}/actions?spaceId=${space.id}&state=open`);
+    const list = await as(lead).get(
+      `/api/sites/${siteId}/actions?spaceId=${space.id}&state=unfinished`,
+    );
     return (list.body.actions as ActionSummary[]).find((action) => action.title.startsWith(fail))!;
   }
 
@@ -78,10 +80,10 @@ describe("corrective action e-mail and notices", () => {
         .field("id", crypto.randomUUID())
         .attach("photo", await jpegWithGps(), "fix.jpg");
       await as(lead)
-        .post(`/api/actions/${action.id}/verification-request`)
+        .post(`/api/actions/${action.id}/ask-check`)
         .send({ note: "Three glove sizes mounted by the door" });
       await as(auditor)
-        .post(`/api/actions/${action.id}/reject`)
+        .post(`/api/actions/${action.id}/send-back`)
         .send({ reason: "Only two sizes are there" });
       // Past due while SMTP is down: both schedulers run a round at the same moment.
       await mail.deps.db
@@ -108,9 +110,9 @@ describe("corrective action e-mail and notices", () => {
       expect(received).toEqual(
         [
           `${lead.user.email} | Corrective action for you: ${space.name}`,
-          `${auditor.user.email} | Fix to verify: ${space.name}`,
-          `${secondAuditor.user.email} | Fix to verify: ${space.name}`,
-          `${lead.user.email} | Fix not accepted: ${space.name}`,
+          `${auditor.user.email} | Fix to check: ${space.name}`,
+          `${secondAuditor.user.email} | Fix to check: ${space.name}`,
+          `${lead.user.email} | Fix sent back: ${space.name}`,
           `${lead.user.email} | Overdue: ${space.name}`,
         ].sort(),
       );
@@ -121,7 +123,7 @@ describe("corrective action e-mail and notices", () => {
         expect(linkIn(message).pathname).toBe(`/actions/${action.id}`);
       }
       const rejection = mailTo(mail.catcher, lead.user.email).find((m) =>
-        m.subject.startsWith("Fix not accepted"),
+        m.subject.startsWith("Fix sent back"),
       )!;
       expect(rejection.text).toContain("Only two sizes are there");
     } finally {
@@ -178,9 +180,7 @@ describe("corrective action e-mail and notices", () => {
       .post(`/api/actions/${action.id}/proofs`)
       .field("id", crypto.randomUUID())
       .attach("photo", await jpegWithGps(), "fix.jpg");
-    await as(lead)
-      .post(`/api/actions/${action.id}/verification-request`)
-      .send({ note: "Poster back up" });
+    await as(lead).post(`/api/actions/${action.id}/ask-check`).send({ note: "Poster back up" });
     const [row] = await mail.deps.db
       .select()
       .from(correctiveActions)
@@ -195,8 +195,8 @@ describe("corrective action e-mail and notices", () => {
       .post(`/api/actions/${action.id}/proofs`)
       .field("id", crypto.randomUUID())
       .attach("photo", await jpegWithGps(), "fix.jpg");
-    await as(lead).post(`/api/actions/${action.id}/verification-request`).send({ note: "Mopped" });
-    await as(auditor).post(`/api/actions/${action.id}/verify`).send({ note: "Dry now" });
+    await as(lead).post(`/api/actions/${action.id}/ask-check`).send({ note: "Mopped" });
+    await as(auditor).post(`/api/actions/${action.id}/confirm`).send({ note: "Dry now" });
     await as(secondAuditor)
       .post(`/api/actions/${action.id}/reopen`)
       .send({ reason: "Puddle under the dirty chair again" });

@@ -99,15 +99,15 @@ describe("corrective actions", () => {
       );
   }
 
-  /** An action taken to awaiting verification by the lead, with proof and a note. */
-  async function awaitingVerification(fail = "Spare clean gloves") {
+  /** An action the lead has sent for a check, with proof and a note. */
+  async function sentForCheck(fail = "Spare clean gloves") {
     const space = await insertSpace(testApp().deps.db, floor);
     await submitWithFailures(space, [fail]);
     const [action] = await actionsOf(space.id);
     expect((await as(lead).post(`/api/actions/${action!.id}/start`)).status).toBe(200);
     expect((await proof(action!.id)).status).toBe(201);
     const sent = await as(lead)
-      .post(`/api/actions/${action!.id}/verification-request`)
+      .post(`/api/actions/${action!.id}/ask-check`)
       .send({ note: "Glove boxes in three sizes mounted by the door" });
     expect(sent.status, JSON.stringify(sent.body)).toBe(200);
     return { space, actionId: action!.id };
@@ -124,7 +124,7 @@ describe("corrective actions", () => {
     expect(list).toHaveLength(2);
     const critical = list.find((action) => action.severity === "critical")!;
     expect(critical).toMatchObject({
-      status: "open",
+      state: "to_fix",
       title: "Dirty chair present and labelled as dirty",
       assignee: { id: lead.user.id },
       overdue: false,
@@ -211,8 +211,7 @@ describe("corrective actions", () => {
     expect((await as(otherLead).post(`/api/actions/${id}/start`)).status).toBe(404);
     expect((await proof(id, otherLead)).status).toBe(404);
     expect(
-      (await as(otherLead).post(`/api/actions/${id}/verification-request`).send({ note: "done" }))
-        .status,
+      (await as(otherLead).post(`/api/actions/${id}/ask-check`).send({ note: "done" })).status,
     ).toBe(404);
     expect((await as(otherLead).get(`/api/sites/${siteId}/actions`)).status).toBe(404);
     expect((await as(otherLead).get(`/api/my/actions`)).body.actions).toEqual([]);
@@ -220,7 +219,7 @@ describe("corrective actions", () => {
       .deps.db.select()
       .from(correctiveActions)
       .where(eq(correctiveActions.id, id));
-    expect(row!.status).toBe("open");
+    expect(row!.state).toBe("to_fix");
   });
 
   it("when the lead sends for verification without a photo of the fix, then 400 names the proof and nothing changes", async () => {
@@ -229,24 +228,20 @@ describe("corrective actions", () => {
     const [action] = await actionsOf(space.id);
     const id = action!.id;
     // Sending straight from open is refused: the work has to start first.
-    const early = await as(lead)
-      .post(`/api/actions/${id}/verification-request`)
-      .send({ note: "done" });
+    const early = await as(lead).post(`/api/actions/${id}/ask-check`).send({ note: "done" });
     expect(early.status).toBe(409);
     await as(lead).post(`/api/actions/${id}/start`);
 
-    const noNote = await as(lead)
-      .post(`/api/actions/${id}/verification-request`)
-      .send({ note: " " });
+    const noNote = await as(lead).post(`/api/actions/${id}/ask-check`).send({ note: " " });
     expect(noNote.status).toBe(400);
     expect(noNote.body.error.fields).toHaveProperty("note");
 
     const noProof = await as(lead)
-      .post(`/api/actions/${id}/verification-request`)
+      .post(`/api/actions/${id}/ask-check`)
       .send({ note: "Poster put back at eye level" });
     expect(noProof.status).toBe(400);
     expect(noProof.body.error.fields).toHaveProperty("proof");
-    expect((await as(lead).get(`/api/actions/${id}`)).body.action.status).toBe("in_progress");
+    expect((await as(lead).get(`/api/actions/${id}`)).body.action.state).toBe("fixing");
 
     // A file that is not a picture is refused by name, and loses nothing.
     const notImage = await as(lead)
@@ -257,72 +252,69 @@ describe("corrective actions", () => {
 
     expect((await proof(id)).status).toBe(201);
     const sent = await as(lead)
-      .post(`/api/actions/${id}/verification-request`)
+      .post(`/api/actions/${id}/ask-check`)
       .send({ note: "Poster put back at eye level" });
     expect(sent.status).toBe(200);
     const detail = sent.body as ActionDetail;
-    expect(detail.action.status).toBe("awaiting_verification");
+    expect(detail.action.state).toBe("to_check");
     expect(detail.proofs).toHaveLength(1);
     expect(detail.proofs[0]).toMatchObject({ current: true, uploadedBy: lead.user.displayName });
     expect(detail.timeline.at(-1)).toMatchObject({
-      kind: "sent_for_verification",
+      kind: "check_asked",
       actorName: lead.user.displayName,
-      fromStatus: "in_progress",
-      toStatus: "awaiting_verification",
+      fromState: "fixing",
+      toState: "to_check",
       text: "Poster put back at eye level",
     });
     // The site's auditors are asked to verify.
     const asked = await testApp()
       .deps.db.select()
       .from(outbox)
-      .where(
-        and(
-          eq(outbox.recipient, auditor.user.email),
-          eq(outbox.topic, "action_awaiting_verification"),
-        ),
-      );
+      .where(and(eq(outbox.recipient, auditor.user.email), eq(outbox.topic, "action_to_check")));
     expect(asked.some((mail) => mail.textBody?.includes(`/actions/${id}`))).toBe(true);
   });
 
   it("when anyone but an auditor tries to close, then 403; the auditor's verification closes it with days to close", async () => {
-    const { actionId } = await awaitingVerification();
+    const { actionId } = await sentForCheck();
     for (const person of [lead, admin, committee]) {
       const response = await as(person)
-        .post(`/api/actions/${actionId}/verify`)
+        .post(`/api/actions/${actionId}/confirm`)
         .send({ note: "ok" });
       expect(response.status).toBe(403);
     }
-    expect((await as(auditor).post(`/api/actions/${actionId}/verify`).send({})).status).toBe(400);
+    expect((await as(auditor).post(`/api/actions/${actionId}/confirm`).send({})).status).toBe(400);
     const verified = await as(auditor)
-      .post(`/api/actions/${actionId}/verify`)
+      .post(`/api/actions/${actionId}/confirm`)
       .send({ note: "Gloves in place in three sizes" });
     expect(verified.status).toBe(200);
     const detail = verified.body as ActionDetail;
-    expect(detail.action).toMatchObject({ status: "closed", overdue: false });
+    expect(detail.action).toMatchObject({ state: "done", overdue: false });
     expect(detail.action.closedAt).not.toBeNull();
     expect(detail.action.daysToClose).toBe(0);
     expect(detail.timeline.map((entry) => entry.kind)).toEqual([
       "opened",
       "started",
       "proof_added",
-      "sent_for_verification",
-      "verified",
+      "check_asked",
+      "fix_confirmed",
     ]);
     // Verifying twice is a conflict, not a second close.
-    const again = await as(auditor).post(`/api/actions/${actionId}/verify`).send({ note: "again" });
+    const again = await as(auditor)
+      .post(`/api/actions/${actionId}/confirm`)
+      .send({ note: "again" });
     expect(again.status).toBe(409);
   });
 
   it("when the auditor rejects the proof, then it is back in progress and needs a new photo", async () => {
-    const { actionId } = await awaitingVerification("Mirror or observer position");
+    const { actionId } = await sentForCheck("Mirror or observer position");
     const rejected = await as(auditor)
-      .post(`/api/actions/${actionId}/reject`)
+      .post(`/api/actions/${actionId}/send-back`)
       .send({ reason: "The mirror is behind the door" });
     expect(rejected.status).toBe(200);
-    expect(rejected.body.action.status).toBe("in_progress");
+    expect(rejected.body.action.state).toBe("fixing");
     expect(rejected.body.proofs[0].current).toBe(false);
     const resend = await as(lead)
-      .post(`/api/actions/${actionId}/verification-request`)
+      .post(`/api/actions/${actionId}/ask-check`)
       .send({ note: "Same photo again" });
     expect(resend.status).toBe(400);
     expect(resend.body.error.fields).toHaveProperty("proof");
@@ -330,15 +322,15 @@ describe("corrective actions", () => {
     expect(
       (
         await as(lead)
-          .post(`/api/actions/${actionId}/verification-request`)
+          .post(`/api/actions/${actionId}/ask-check`)
           .send({ note: "Mirror moved beside the dirty chair" })
       ).status,
     ).toBe(200);
   });
 
   it("when an auditor reopens a closed action, then it is in progress again with its history and original due time", async () => {
-    const { actionId } = await awaitingVerification("Clean chair for the last steps");
-    await as(auditor).post(`/api/actions/${actionId}/verify`).send({ note: "Chair in place" });
+    const { actionId } = await sentForCheck("Clean chair for the last steps");
+    await as(auditor).post(`/api/actions/${actionId}/confirm`).send({ note: "Chair in place" });
     const before = (await as(auditor).get(`/api/actions/${actionId}`)).body as ActionDetail;
 
     expect(
@@ -355,7 +347,7 @@ describe("corrective actions", () => {
     expect(reopened.status).toBe(200);
     const detail = reopened.body as ActionDetail;
     expect(detail.action).toMatchObject({
-      status: "in_progress",
+      state: "fixing",
       dueAt: before.action.dueAt,
       closedAt: null,
       daysToClose: null,
@@ -364,15 +356,15 @@ describe("corrective actions", () => {
       "opened",
       "started",
       "proof_added",
-      "sent_for_verification",
-      "verified",
+      "check_asked",
+      "fix_confirmed",
       "reopened",
     ]);
     expect(detail.timeline.at(-1)).toMatchObject({
       actorName: auditor.user.displayName,
       text: "The chair is back on the dirty side",
-      fromStatus: "closed",
-      toStatus: "in_progress",
+      fromState: "done",
+      toState: "fixing",
     });
     // Every move is in the append-only change log with who and why.
     const logged = await testApp()
@@ -384,8 +376,8 @@ describe("corrective actions", () => {
   });
 
   it("when a closed action's item has a newer open action, then reopening is refused as a twin", async () => {
-    const { space, actionId } = await awaitingVerification("No clean supplies stored");
-    await as(auditor).post(`/api/actions/${actionId}/verify`).send({ note: "Cleared" });
+    const { space, actionId } = await sentForCheck("No clean supplies stored");
+    await as(auditor).post(`/api/actions/${actionId}/confirm`).send({ note: "Cleared" });
     await submitWithFailures(space, ["No clean supplies stored in the doffing area"]);
     expect(await actionsOf(space.id)).toHaveLength(2);
     const reopened = await as(auditor)
@@ -548,7 +540,7 @@ describe("corrective actions", () => {
     );
     const lines = response.text.replace(/^\uFEFF/, "").split("\n");
     expect(lines[0]).toBe(
-      "id,site,floor,space,zone type,item,severity,status,owner,opened (UTC),due (UTC),due (site time),overdue,closed (UTC),days to close,findings,link",
+      "id,site,floor,space,zone type,item,severity,state,owner,opened (UTC),due (UTC),due (site time),overdue,done (UTC),days to close,findings,link",
     );
     expect(lines[1]).toContain(`"'=HYPERLINK(""x"")"`);
     const { rows, objects } = readExport(response.text);
@@ -576,11 +568,11 @@ describe("corrective actions", () => {
     });
     expect(amended.status).toBe(200);
     const [action] = await actionsOf(space.id);
-    expect(action).toMatchObject({ status: "open", severity: "major", findingCount: 1 });
+    expect(action).toMatchObject({ state: "to_fix", severity: "major", findingCount: 1 });
     await as(admin)
       .post(`/api/audits/${auditId}/amendments`)
       .send({ itemId: wipes.id, outcome: "pass", reason: "Wipes were there after all" });
-    expect((await actionsOf(space.id))[0]).toMatchObject({ id: action!.id, status: "open" });
+    expect((await actionsOf(space.id))[0]).toMatchObject({ id: action!.id, state: "to_fix" });
   });
 
   it("when the list filter is unknown, then 400 names the field", async () => {

@@ -118,7 +118,7 @@ describe("audit replays", () => {
     expect(after).toEqual(before);
     expect(await countOf(auditPhotos, auditId)).toBe(0);
     const [audit] = await testApp().deps.db.select().from(audits).where(eq(audits.id, auditId));
-    expect(audit).toMatchObject({ status: "submitted", verdict: "ready" });
+    expect(audit).toMatchObject({ status: "submitted", verdict: "all_clear" });
   });
 
   it("when an answer id already belongs to another audit, then 409 names the id field and nothing is stored", async () => {

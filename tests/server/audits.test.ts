@@ -100,7 +100,7 @@ describe("audits", () => {
     const second = await as(auditor).post(`/api/audits/${auditId}/submit`);
     expect(first.status).toBe(200);
     expect(second.status).toBe(200);
-    expect(first.body.audit).toMatchObject({ status: "submitted", verdict: "ready", score: 1 });
+    expect(first.body.audit).toMatchObject({ status: "submitted", verdict: "all_clear", score: 1 });
     expect(second.body.audit.submittedAt).toBe(first.body.audit.submittedAt);
     const [rows] = await testApp()
       .deps.db.select({ n: count() })
@@ -162,7 +162,7 @@ describe("audits", () => {
 
     const submitted = await as(auditor).post(`/api/audits/${auditId}/submit`);
     expect(submitted.status).toBe(200);
-    expect(submitted.body.audit.verdict).toBe("not_ready");
+    expect(submitted.body.audit.verdict).toBe("hold");
     const weights = { critical: 5, major: 3, minor: 1 } as const;
     const total = detail.items.reduce((sum, i) => sum + weights[i.severity], 0);
     expect(submitted.body.audit.score).toBeCloseTo((total - 5) / total, 12);
@@ -335,7 +335,7 @@ describe("audits", () => {
     const after = (await as(auditor).get(`/api/sites/${siteId}/schedule`)).body.entries.find(
       (e: { spaceId: string }) => e.spaceId === spaceId,
     );
-    expect(after).toMatchObject({ state: "ok", verdict: "ready" });
+    expect(after).toMatchObject({ state: "ok", verdict: "all_clear" });
     const history = await as(auditor).get(`/api/spaces/${spaceId}/audits`);
     expect(history.body.audits.map((a: { id: string }) => a.id)).toEqual([auditId]);
     const [space] = await testApp().deps.db.select().from(spaces).where(eq(spaces.id, spaceId));
@@ -349,7 +349,7 @@ describe("audits", () => {
       [prompt.id]: { outcome: "fail", note: "No prompt by the exit" },
     });
     const failedAgain = await as(auditor).post(`/api/audits/${auditId}/submit`);
-    expect(failedAgain.body.audit.verdict).toBe("ready_with_conditions");
+    expect(failedAgain.body.audit.verdict).toBe("gaps_to_fix");
 
     const byAuditor = await as(auditor)
       .post(`/api/audits/${auditId}/amendments`)
@@ -367,7 +367,7 @@ describe("audits", () => {
       reason: "The prompt is on the door; the auditor missed it",
     });
     expect(amended.status).toBe(200);
-    expect(amended.body.audit.verdict).toBe("ready");
+    expect(amended.body.audit.verdict).toBe("all_clear");
     const [entry] = await testApp()
       .deps.db.select()
       .from(changeLog)
@@ -376,7 +376,7 @@ describe("audits", () => {
       actorId: admin.user.id,
       reason: "The prompt is on the door; the auditor missed it",
     });
-    expect(entry!.before).toMatchObject({ outcome: "fail", verdict: "ready_with_conditions" });
+    expect(entry!.before).toMatchObject({ outcome: "fail", verdict: "gaps_to_fix" });
   });
 
   it("when an auditor asks what they have due, then overdue spaces of their sites come first, and others' sites never", async () => {

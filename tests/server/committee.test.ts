@@ -53,7 +53,7 @@ function midMonth(back: number): Date {
 interface SeededAudit {
   siteId: string;
   month: string;
-  verdict: "ready" | "ready_with_conditions" | "not_ready";
+  verdict: "all_clear" | "gaps_to_fix" | "hold";
   answers: { key: string; outcome: "pass" | "fail" | "not_applicable" }[];
 }
 
@@ -119,10 +119,10 @@ describe("committee view", () => {
         }));
         const failedItem = answers.find((a) => a.outcome === "fail")?.item;
         const verdict = !failedItem
-          ? "ready"
+          ? "all_clear"
           : failedItem.severity === "critical"
-            ? "not_ready"
-            : "ready_with_conditions";
+            ? "hold"
+            : "gaps_to_fix";
         const id = randomUUID();
         auditRows.push({
           id,
@@ -162,7 +162,7 @@ describe("committee view", () => {
   const as = (person: SignedInPerson) => api(undefined, { cookie: person.cookie });
   const readiness = (siteId: string) => {
     const rows = seeded.filter((row) => row.siteId === siteId);
-    return { n: rows.length, ready: rows.filter((row) => row.verdict === "ready").length };
+    return { n: rows.length, ready: rows.filter((row) => row.verdict === "all_clear").length };
   };
 
   it("when the committee compares the sites, then each rate and interval matches a computation over the seeded rows", async () => {
@@ -221,7 +221,7 @@ describe("committee view", () => {
 
     const total = seeded.length;
     expect(body.network.n).toBe(total);
-    expect(body.network.successes).toBe(seeded.filter((r) => r.verdict === "ready").length);
+    expect(body.network.successes).toBe(seeded.filter((r) => r.verdict === "all_clear").length);
   });
 
   it("when one zone type or a shorter period is chosen, then only those audits count", async () => {
@@ -265,7 +265,7 @@ describe("committee view", () => {
       .body as ComparisonResponse;
     const [was, now] = [before, after].map((b) => b.sites.find((s) => s.siteId === siteIds[0])!);
     expect(now!.readiness.n).toBe(was!.readiness.n + 1);
-    expect(now!.verdicts.ready_with_conditions).toBe(was!.verdicts.ready_with_conditions + 1);
+    expect(now!.verdicts.gaps_to_fix).toBe(was!.verdicts.gaps_to_fix + 1);
     const supply = (s: typeof now) => s!.categories.find((c) => c.category === "ppe_supply")!;
     expect(supply(now).n - supply(was).n).toBe(2); // spare gloves and wipes applied
     expect(supply(now).successes - supply(was).successes).toBe(1); // wipes passed
@@ -296,7 +296,7 @@ describe("committee view", () => {
     const months = [...new Set(rows.map((row) => row.month))].sort();
     // Cedar's eight audits fall in six months; the other months of the period are left out.
     expect(cedar.points.map((p) => p.month)).toEqual(months);
-    const ready = rows.filter((row) => row.verdict === "ready").length;
+    const ready = rows.filter((row) => row.verdict === "all_clear").length;
     expect(cedar.centre).toBeCloseTo(ready / rows.length, 12);
     for (const point of cedar.points) {
       const inMonth = rows.filter((row) => row.month === point.month);
@@ -320,7 +320,7 @@ describe("committee view", () => {
       itemKey: `k-${randomUUID().slice(0, 6)}`,
       title: "Aged action",
       severity: "major" as const,
-      status: closed ? ("closed" as const) : ("open" as const),
+      state: closed ? ("done" as const) : ("to_fix" as const),
       openedAt: new Date(now - openedDays * day),
       dueAt: new Date(now - dueDays * day),
       closedAt: closed ? new Date(now - openedDays * day + closed.days * day) : null,

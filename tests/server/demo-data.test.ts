@@ -132,9 +132,9 @@ describe("demo data", () => {
     ]) {
       const mine = rows.filter((row) => row.site === site);
       expect(mine.map((row) => row.verdict).sort(), site).toEqual([
-        "not_ready",
-        "ready",
-        "ready_with_conditions",
+        "all_clear",
+        "gaps_to_fix",
+        "hold",
       ]);
       const earliest = Math.min(...mine.map((row) => row.first!.getTime()));
       expect(Date.now() - earliest, site).toBeGreaterThan(300 * 24 * 60 * 60 * 1000);
@@ -167,13 +167,13 @@ describe("demo data", () => {
     expect(rows.length).toBeGreaterThan(50);
     for (const row of rows) {
       expect(row.rulesVersion).toBe(2);
-      if (row.verdict !== "not_ready") expect(row.confirmed).toBe(true);
-      if (row.verdict !== "ready") expect(row.reasons!.length).toBeGreaterThan(0);
+      if (row.verdict !== "hold") expect(row.confirmed).toBe(true);
+      if (row.verdict !== "all_clear") expect(row.reasons!.length).toBeGreaterThan(0);
     }
     // Still a mix worth showing: the demo is not all "not ready".
     const share = (verdict: string) => rows.filter((row) => row.verdict === verdict).length;
-    expect(share("ready")).toBeGreaterThan(0);
-    expect(share("not_ready")).toBeLessThan(rows.length);
+    expect(share("all_clear")).toBeGreaterThan(0);
+    expect(share("hold")).toBeLessThan(rows.length);
   });
 
   it("when the demo starts, then its year of audits stays on version 1 and version 2 of each default checklist is published", async () => {
@@ -232,7 +232,7 @@ describe("demo data", () => {
         site: sites.name,
         spaceId: correctiveActions.spaceId,
         itemKey: correctiveActions.itemKey,
-        status: correctiveActions.status,
+        state: correctiveActions.state,
         dueAt: correctiveActions.dueAt,
         openedAt: correctiveActions.openedAt,
         closedAt: correctiveActions.closedAt,
@@ -253,11 +253,11 @@ describe("demo data", () => {
     const now = Date.now();
     for (const site of demoSiteNames) {
       const mine = actions.filter((action) => action.site === site);
-      expect(new Set(mine.map((action) => action.status)), site).toEqual(
-        new Set(["open", "in_progress", "awaiting_verification", "closed"]),
+      expect(new Set(mine.map((action) => action.state)), site).toEqual(
+        new Set(["to_fix", "fixing", "to_check", "done"]),
       );
       const overdue = mine.filter(
-        (action) => action.status !== "closed" && action.dueAt.getTime() < now,
+        (action) => action.state !== "done" && action.dueAt.getTime() < now,
       );
       expect(overdue.length, site).toBeGreaterThan(0);
     }
@@ -266,19 +266,19 @@ describe("demo data", () => {
       actions.some(
         (action) =>
           action.site === "Tamsin Bay General Hospital" &&
-          action.status !== "closed" &&
+          action.state !== "done" &&
           action.dueAt.getTime() < now &&
           action.assignee === "facilities.general@example.org" &&
           action.planImageId !== null,
       ),
     ).toBe(true);
 
-    const unclosed = actions.filter((action) => action.status !== "closed");
+    const unclosed = actions.filter((action) => action.state !== "done");
     const keys = unclosed.map((action) => `${action.spaceId}|${action.itemKey}`);
     expect(new Set(keys).size).toBe(keys.length);
   });
 
-  it("when the demo actions are loaded, then each closed one was verified and knows its days to close", async () => {
+  it("when the demo actions are loaded, then each done one had its fix confirmed and knows its days to close", async () => {
     const { db, siteIds, actions } = await demoActions();
     const verified = await db
       .select({ id: changeLog.entityId, at: changeLog.occurredAt })
@@ -286,14 +286,14 @@ describe("demo data", () => {
       .where(
         and(
           eq(changeLog.entity, "corrective_action"),
-          eq(changeLog.action, "action.verified"),
+          eq(changeLog.action, "action.fix_confirmed"),
           inArray(changeLog.siteId, siteIds),
         ),
       );
     const lastVerified = new Map<string, number>();
     for (const row of verified)
       lastVerified.set(row.id!, Math.max(lastVerified.get(row.id!) ?? 0, row.at.getTime()));
-    const closed = actions.filter((action) => action.status === "closed");
+    const closed = actions.filter((action) => action.state === "done");
     expect(closed.length).toBeGreaterThan(100);
     for (const action of closed) {
       expect(lastVerified.get(action.id), action.id).toBe(action.closedAt?.getTime());
@@ -302,7 +302,7 @@ describe("demo data", () => {
         0,
       );
     }
-    for (const action of actions.filter((a) => a.status !== "closed")) {
+    for (const action of actions.filter((a) => a.state !== "done")) {
       expect(action.closedAt).toBeNull();
       expect(action.daysToClose).toBeNull();
     }

@@ -90,12 +90,12 @@ describe("proof replays", () => {
     const picture = await jpegWithGps({ colour: "#7d5f3a" });
     expect((await send(actionId, id, picture)).status).toBe(201);
     const sent = await as(lead)
-      .post(`/api/actions/${actionId}/verification-request`)
+      .post(`/api/actions/${actionId}/ask-check`)
       .send({ note: "Glove boxes mounted" });
     expect(sent.status).toBe(200);
     const again = await send(actionId, id, picture);
     expect(again.status, JSON.stringify(again.body)).toBe(200);
-    expect(again.body.action.status).toBe("awaiting_verification");
+    expect(again.body.action.state).toBe("to_check");
     expect(await proofsOf(actionId)).toBe(1);
   });
 

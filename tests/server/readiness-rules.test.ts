@@ -106,7 +106,7 @@ describe("readiness of an isolation room through the real routes", () => {
     const submitted = await submit(auditId);
     expect(submitted.status, JSON.stringify(submitted.body)).toBe(200);
     expect(submitted.body.audit).toMatchObject({
-      verdict: "not_ready",
+      verdict: "hold",
       verdictReasons: [airflowNotConfirmedReason],
       rulesVersion: 2,
     });
@@ -123,7 +123,7 @@ describe("readiness of an isolation room through the real routes", () => {
     });
     const submitted = await submit(auditId);
     expect(submitted.status, JSON.stringify(submitted.body)).toBe(200);
-    expect(submitted.body.audit.verdict).toBe("not_ready");
+    expect(submitted.body.audit.verdict).toBe("hold");
     expect(submitted.body.audit.verdictReasons).toEqual([
       expect.stringContaining(byKey(detail, "room.smoke-test").text),
     ]);
@@ -143,7 +143,7 @@ describe("readiness of an isolation room through the real routes", () => {
     expect(stored).toMatchObject({ outcome: "pass", unit: "inH2O", enteredValue: -0.01 });
     expect(stored!.value).toBeCloseTo(-2.4908891, 6);
     const submitted = await submit(auditId);
-    expect(submitted.body.audit).toMatchObject({ verdict: "ready", verdictReasons: [] });
+    expect(submitted.body.audit).toMatchObject({ verdict: "all_clear", verdictReasons: [] });
   });
 
   it("when −2.4 Pa is entered, then the pressure fails; −2.5 Pa passes", async () => {
@@ -173,7 +173,7 @@ describe("readiness of an isolation room through the real routes", () => {
     expect(photo.status).toBe(201);
     const submitted = await submit(auditId);
     expect(submitted.status, JSON.stringify(submitted.body)).toBe(200);
-    expect(submitted.body.audit.verdict).toBe("not_ready");
+    expect(submitted.body.audit.verdict).toBe("hold");
     expect(submitted.body.audit.verdictReasons).toEqual([
       `Critical item failed: ${byKey(detail, "room.pressure").text}`,
       airflowNotConfirmedReason,
@@ -185,7 +185,7 @@ describe("readiness of an isolation room through the real routes", () => {
     await answerAll(auditId, detail, {
       "room.smoke-test": { outcome: "not_applicable", note: "Monitor reading used instead" },
     });
-    expect((await submit(auditId)).body.audit.verdict).toBe("ready");
+    expect((await submit(auditId)).body.audit.verdict).toBe("all_clear");
     // As a verdict stored before version 2 is: version 1, no reasons kept.
     await testApp()
       .deps.db.update(audits)
@@ -202,7 +202,7 @@ describe("readiness of an isolation room through the real routes", () => {
       });
     expect(amended.status, JSON.stringify(amended.body)).toBe(200);
     expect(amended.body.audit).toMatchObject({
-      verdict: "not_ready",
+      verdict: "hold",
       rulesVersion: 2,
       verdictReasons: [airflowNotConfirmedReason],
     });
@@ -210,7 +210,7 @@ describe("readiness of an isolation room through the real routes", () => {
       .deps.db.select()
       .from(changeLog)
       .where(and(eq(changeLog.entityId, auditId), eq(changeLog.action, "audit.amended")));
-    expect(entry!.before).toMatchObject({ verdict: "ready", rulesVersion: 1 });
-    expect(entry!.after).toMatchObject({ verdict: "not_ready", rulesVersion: 2 });
+    expect(entry!.before).toMatchObject({ verdict: "all_clear", rulesVersion: 1 });
+    expect(entry!.after).toMatchObject({ verdict: "hold", rulesVersion: 2 });
   });
 });

@@ -239,14 +239,14 @@ describe("retired versus deleted", () => {
     for (const id of [first!, second!]) {
       const detail = await action(id);
       expect(detail.action).toMatchObject({
-        status: "closed",
+        state: "done",
         closeReason: "space_retired",
         daysToClose: null,
         spaceRetiredAt: retired.body.retirement.retiredAt,
       });
       expect(detail.timeline.at(-1)).toMatchObject({
         kind: "space_retired",
-        toStatus: "closed",
+        toState: "done",
         text: expect.stringMatching(/space was retired/),
       });
     }
@@ -262,12 +262,12 @@ describe("retired versus deleted", () => {
     expect(restored.status).toBe(200);
     expect(restored.body.retirement).toMatchObject({ retiredAt: null, spaces: 1, actions: 2 });
     expect((await action(first!)).action).toMatchObject({
-      status: "in_progress",
+      state: "fixing",
       closeReason: null,
       closedAt: null,
       spaceRetiredAt: null,
     });
-    expect((await action(second!)).action).toMatchObject({ status: "open", closeReason: null });
+    expect((await action(second!)).action).toMatchObject({ state: "to_fix", closeReason: null });
     expect((await action(first!)).timeline.at(-1)).toMatchObject({ kind: "space_restored" });
     const map = (await as(auditor).get(`/api/floors/${floor.id}`)).body;
     expect(map.spaces.map((s: { id: string }) => s.id)).toEqual([space.id]);
@@ -301,7 +301,7 @@ describe("retired versus deleted", () => {
     expect(submittedAudit.body.audit.status).toBe("submitted");
     const [actionId] = await actionIdsOf(space.id);
     expect((await action(actionId!)).action).toMatchObject({
-      status: "closed",
+      state: "done",
       closeReason: "space_retired",
     });
     expect((await db().select({ n: count() }).from(outbox))[0]!.n).toBe(mailBefore);
@@ -370,7 +370,7 @@ describe("retired versus deleted", () => {
     }).then(({ auditId }) =>
       database
         .update(audits)
-        .set({ status: "submitted", submittedAt: new Date(), verdict: "ready", score: 1 })
+        .set({ status: "submitted", submittedAt: new Date(), verdict: "all_clear", score: 1 })
         .where(eq(audits.id, auditId)),
     );
     // Counted the way a submit counts it, so the figures include this site.
@@ -394,7 +394,7 @@ describe("retired versus deleted", () => {
       `/api/committee/comparison?from=${month()}&to=${month()}`,
     );
     const row = comparison.body.sites.find((s: { siteId: string }) => s.siteId === otherSite);
-    expect(row?.verdicts.ready).toBe(1);
+    expect(row?.verdicts.all_clear).toBe(1);
     const floorAdded = await as(networkAdmin)
       .post(`/api/sites/${otherSite}/floors`)
       .send({ building: "B", level: 1, name: "Late" });

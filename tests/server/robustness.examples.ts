@@ -350,12 +350,12 @@ export const examples: Record<string, RouteExample> = {
 
   // Corrective actions
   "POST /actions/:actionId/start": {
-    control: async (w) => ({ params: { actionId: await w.fresh.action("open") } }),
+    control: async (w) => ({ params: { actionId: await w.fresh.action("to_fix") } }),
   },
   "POST /actions/:actionId/proofs": {
     newIds: ["fields.id"],
     control: async (w) => ({
-      params: { actionId: await w.fresh.action("in_progress") },
+      params: { actionId: await w.fresh.action("fixing") },
       upload: {
         field: "photo",
         file: await w.fresh.jpeg(),
@@ -365,33 +365,33 @@ export const examples: Record<string, RouteExample> = {
       uploadSchema: proofFieldsSchema,
     }),
   },
-  "POST /actions/:actionId/verification-request": {
+  "POST /actions/:actionId/ask-check": {
     control: async (w) => ({
-      params: { actionId: await w.fresh.action("in_progress", true) },
+      params: { actionId: await w.fresh.action("fixing", true) },
       body: { note: "New labelled chair in place" },
     }),
   },
-  "POST /actions/:actionId/verify": {
+  "POST /actions/:actionId/confirm": {
     control: async (w) => ({
-      params: { actionId: await w.fresh.action("awaiting_verification", true) },
+      params: { actionId: await w.fresh.action("to_check", true) },
       body: { note: "Seen in place" },
     }),
   },
-  "POST /actions/:actionId/reject": {
+  "POST /actions/:actionId/send-back": {
     control: async (w) => ({
-      params: { actionId: await w.fresh.action("awaiting_verification", true) },
+      params: { actionId: await w.fresh.action("to_check", true) },
       body: { reason: "The label is missing" },
     }),
   },
   "POST /actions/:actionId/reopen": {
     control: async (w) => ({
-      params: { actionId: await w.fresh.action("closed") },
+      params: { actionId: await w.fresh.action("done") },
       body: { reason: "Chair gone again" },
     }),
   },
   "PUT /actions/:actionId/assignee": {
     control: async (w) => ({
-      params: { actionId: await w.fresh.action("open") },
+      params: { actionId: await w.fresh.action("to_fix") },
       body: { assigneeId: w.callers["facilities lead @A"].id },
     }),
   },
@@ -410,7 +410,10 @@ export const examples: Record<string, RouteExample> = {
   },
   "GET /committee/report": { control: () => ({ query: { from: "2026-01", to: "2026-06" } }) },
   "GET /sites/:siteId/actions": {
-    control: (w) => ({ params: { siteId: w.siteA }, query: { state: "open", overdue: "false" } }),
+    control: (w) => ({
+      params: { siteId: w.siteA },
+      query: { state: "unfinished", overdue: "false" },
+    }),
   },
   "GET /images/:imageId": {
     control: (w) => ({ params: { imageId: w.imageA }, query: { variant: "thumb" } }),
@@ -425,7 +428,7 @@ export async function readParams(world: World): Promise<Record<string, string>> 
     floorId: world.floorA,
     spaceId: world.spaceA,
     auditId: world.submittedAudit,
-    actionId: await world.fresh.action("open"),
+    actionId: await world.fresh.action("to_fix"),
     imageId: world.imageA,
     userId: person.id,
     zoneType: "anteroom",

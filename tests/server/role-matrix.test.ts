@@ -1,3 +1,4 @@
+import type { ActionState } from "@shared/workflow/action-workflow";
 import { mkdtempSync, rmSync } from "node:fs";
 import os from "node:os";
 import path from "node:path";
@@ -231,11 +232,7 @@ async function auditAtA(
 }
 
 /** A corrective action at site A in the given state; with proof of the current attempt when asked. */
-async function actionAtA(
-  world: World,
-  status: "open" | "in_progress" | "awaiting_verification" | "closed",
-  withProof = false,
-) {
+async function actionAtA(world: World, state: ActionState, withProof = false) {
   const space = await spaceAtA(world);
   const { db } = testApp().deps;
   const now = new Date();
@@ -248,11 +245,11 @@ async function actionAtA(
       itemKey: "matrix-item",
       title: "Dirty chair labelled",
       severity: "major",
-      status,
+      state,
       assigneeId: world.leadA,
       openedAt: now,
       dueAt: new Date(now.getTime() + 7 * 24 * 3600 * 1000),
-      closedAt: status === "closed" ? now : null,
+      closedAt: state === "done" ? now : null,
       x: 100,
       y: 100,
     })
@@ -270,7 +267,7 @@ const assigners: Caller[] = [...admins, "facilities lead @A"];
 
 const samples: Record<string, Sample> = {
   "GET /sites/:siteId/actions": {
-    prepare: (w) => ({ url: `/api/sites/${w.siteA}/actions?state=open` }),
+    prepare: (w) => ({ url: `/api/sites/${w.siteA}/actions?state=unfinished` }),
     ok: 200,
     allowed: readers,
     hidden: notAtA,
@@ -282,8 +279,8 @@ const samples: Record<string, Sample> = {
     hidden: notAtA,
   },
   "GET /my/actions": { prepare: () => ({ url: "/api/my/actions" }), ok: 200, allowed: everyone },
-  "GET /my/verifications": {
-    prepare: () => ({ url: "/api/my/verifications" }),
+  "GET /my/checks": {
+    prepare: () => ({ url: "/api/my/checks" }),
     ok: 200,
     allowed: everyone,
   },
@@ -298,20 +295,20 @@ const samples: Record<string, Sample> = {
     allowed: ["administrator (network)"],
   },
   "GET /actions/:actionId": {
-    prepare: async (w) => ({ url: `/api/actions/${await actionAtA(w, "open")}` }),
+    prepare: async (w) => ({ url: `/api/actions/${await actionAtA(w, "to_fix")}` }),
     ok: 200,
     allowed: readers,
     hidden: notAtA,
   },
   "POST /actions/:actionId/start": {
-    prepare: async (w) => ({ url: `/api/actions/${await actionAtA(w, "open")}/start` }),
+    prepare: async (w) => ({ url: `/api/actions/${await actionAtA(w, "to_fix")}/start` }),
     ok: 200,
     allowed: leadsAtA,
     hidden: notAtA,
   },
   "POST /actions/:actionId/proofs": {
     prepare: async (w) => ({
-      url: `/api/actions/${await actionAtA(w, "in_progress")}/proofs`,
+      url: `/api/actions/${await actionAtA(w, "fixing")}/proofs`,
       file: { field: "photo", content: w.planPng, name: "fixed.png" },
       fields: { id: crypto.randomUUID() },
     }),
@@ -319,27 +316,27 @@ const samples: Record<string, Sample> = {
     allowed: leadsAtA,
     hidden: notAtA,
   },
-  "POST /actions/:actionId/verification-request": {
+  "POST /actions/:actionId/ask-check": {
     prepare: async (w) => ({
-      url: `/api/actions/${await actionAtA(w, "in_progress", true)}/verification-request`,
+      url: `/api/actions/${await actionAtA(w, "fixing", true)}/ask-check`,
       body: { note: "New labelled chair in place" },
     }),
     ok: 200,
     allowed: leadsAtA,
     hidden: notAtA,
   },
-  "POST /actions/:actionId/verify": {
+  "POST /actions/:actionId/confirm": {
     prepare: async (w) => ({
-      url: `/api/actions/${await actionAtA(w, "awaiting_verification", true)}/verify`,
+      url: `/api/actions/${await actionAtA(w, "to_check", true)}/confirm`,
       body: { note: "Seen in place" },
     }),
     ok: 200,
     allowed: auditors,
     hidden: notAtA,
   },
-  "POST /actions/:actionId/reject": {
+  "POST /actions/:actionId/send-back": {
     prepare: async (w) => ({
-      url: `/api/actions/${await actionAtA(w, "awaiting_verification", true)}/reject`,
+      url: `/api/actions/${await actionAtA(w, "to_check", true)}/send-back`,
       body: { reason: "The label is missing" },
     }),
     ok: 200,
@@ -348,7 +345,7 @@ const samples: Record<string, Sample> = {
   },
   "POST /actions/:actionId/reopen": {
     prepare: async (w) => ({
-      url: `/api/actions/${await actionAtA(w, "closed")}/reopen`,
+      url: `/api/actions/${await actionAtA(w, "done")}/reopen`,
       body: { reason: "Chair gone again" },
     }),
     ok: 200,
@@ -357,7 +354,7 @@ const samples: Record<string, Sample> = {
   },
   "PUT /actions/:actionId/assignee": {
     prepare: async (w) => ({
-      url: `/api/actions/${await actionAtA(w, "open")}/assignee`,
+      url: `/api/actions/${await actionAtA(w, "to_fix")}/assignee`,
       body: { assigneeId: w.leadA },
     }),
     ok: 200,

@@ -237,7 +237,7 @@ describe("e-mail that may not have arrived", () => {
   });
 });
 
-describe("fixes awaiting verification on the auditor's home page", () => {
+describe("fixes to check on the auditor's home page", () => {
   let mail: MailTestApp;
   beforeEach(async () => {
     mail = await createMailTestApp();
@@ -282,7 +282,7 @@ describe("fixes awaiting verification on the auditor's home page", () => {
     expect((await as(auditor).post(`/api/audits/${auditId}/submit`)).status).toBe(200);
     const [action] = (await as(lead).get("/api/my/actions")).body.actions as ActionSummary[];
     // Not yet sent for verification: nothing to verify.
-    expect((await as(auditor).get("/api/my/verifications")).body.actions).toEqual([]);
+    expect((await as(auditor).get("/api/my/checks")).body.actions).toEqual([]);
 
     await as(lead).post(`/api/actions/${action!.id}/start`);
     await as(lead)
@@ -290,19 +290,19 @@ describe("fixes awaiting verification on the auditor's home page", () => {
       .field("id", crypto.randomUUID())
       .attach("photo", await jpegWithGps(), "fix.jpg");
     const sent = await as(lead)
-      .post(`/api/actions/${action!.id}/verification-request`)
+      .post(`/api/actions/${action!.id}/ask-check`)
       .send({ note: "Three glove sizes mounted by the door" });
     expect(sent.status).toBe(200);
 
     for (const person of [auditor, twoSiteAuditor]) {
-      const listed = await as(person).get("/api/my/verifications");
+      const listed = await as(person).get("/api/my/checks");
       expect(listed.status).toBe(200);
-      expect((listed.body.actions as ActionSummary[]).map((a) => [a.id, a.status])).toEqual([
-        [action!.id, "awaiting_verification"],
+      expect((listed.body.actions as ActionSummary[]).map((a) => [a.id, a.state])).toEqual([
+        [action!.id, "to_check"],
       ]);
     }
     for (const person of [elsewhere, lead, stranger]) {
-      expect((await as(person).get("/api/my/verifications")).body.actions).toEqual([]);
+      expect((await as(person).get("/api/my/checks")).body.actions).toEqual([]);
     }
   });
 });

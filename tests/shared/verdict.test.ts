@@ -32,23 +32,21 @@ describe("verdict (Lintel's own rules, version 2)", () => {
         answer("major", "pass"),
         answer("minor", "pass"),
       ]),
-    ).toEqual({ verdict: "not_ready", reasons: ["Critical item failed: The critical item"] });
+    ).toEqual({ verdict: "hold", reasons: ["Critical item failed: The critical item"] });
   });
 
   it("when only major or minor items fail, then ready with conditions, naming each", () => {
     expect(readinessOf("anteroom", [answer("critical", "pass"), answer("minor", "fail")])).toEqual({
-      verdict: "ready_with_conditions",
+      verdict: "gaps_to_fix",
       reasons: ["Minor item failed: The minor item"],
     });
-    expect(readinessOf("anteroom", [answer("major", "fail")]).verdict).toBe(
-      "ready_with_conditions",
-    );
+    expect(readinessOf("anteroom", [answer("major", "fail")]).verdict).toBe("gaps_to_fix");
   });
 
   it("when nothing fails outside an isolation room, then ready; not applicable does not fail", () => {
     expect(
       readinessOf("donning_zone", [answer("critical", "pass"), answer("major", "not_applicable")]),
-    ).toEqual({ verdict: "ready", reasons: [] });
+    ).toEqual({ verdict: "all_clear", reasons: [] });
   });
 
   // Lintel's own rule, on top of CDC 2005 TB guidelines, MMWR 54(RR-17): check negative pressure
@@ -61,7 +59,7 @@ describe("verdict (Lintel's own rules, version 2)", () => {
         answer("critical", "pass"),
         answer("major", "pass"),
       ]),
-    ).toEqual({ verdict: "not_ready", reasons: [airflowNotConfirmedReason] });
+    ).toEqual({ verdict: "hold", reasons: [airflowNotConfirmedReason] });
     expect(airflowNotConfirmedReason).toMatch(/^Inward airflow not confirmed/);
   });
 
@@ -73,11 +71,11 @@ describe("verdict (Lintel's own rules, version 2)", () => {
 
   it("when the pressure reading passes or the visual test passes, then inward airflow is confirmed", () => {
     expect(readinessOf("isolation_room", [pressure("pass"), smoke("not_applicable")])).toEqual({
-      verdict: "ready",
+      verdict: "all_clear",
       reasons: [],
     });
     expect(readinessOf("isolation_room", [pressure("not_applicable"), smoke("pass")])).toEqual({
-      verdict: "ready",
+      verdict: "all_clear",
       reasons: [],
     });
   });
@@ -86,7 +84,7 @@ describe("verdict (Lintel's own rules, version 2)", () => {
   // severity the checklist gives the item.
   it("when the visual (smoke) test fails, then not ready even though the pressure reading passes", () => {
     const result = readinessOf("isolation_room", [pressure("pass"), smoke("fail")]);
-    expect(result.verdict).toBe("not_ready");
+    expect(result.verdict).toBe("hold");
     expect(result.reasons).toEqual([
       "Visual (smoke) test failed, which is always critical: The major item",
     ]);
@@ -94,7 +92,7 @@ describe("verdict (Lintel's own rules, version 2)", () => {
 
   it("when the pressure reading fails and the visual test is not applicable, then both reasons are given", () => {
     expect(readinessOf("isolation_room", [pressure("fail"), smoke("not_applicable")])).toEqual({
-      verdict: "not_ready",
+      verdict: "hold",
       reasons: ["Critical item failed: The critical item", airflowNotConfirmedReason],
     });
   });

@@ -15,6 +15,7 @@ import {
 } from "drizzle-orm/pg-core";
 
 import type { DuePolicy } from "@shared/calc/due";
+import { actionCloseReasons, actionStates } from "../../../shared/workflow/action-workflow";
 
 import { audits } from "./audits";
 import { severityEnum } from "./checklists";
@@ -23,15 +24,11 @@ import { images } from "./images";
 import { sites } from "./sites";
 import { users } from "./users";
 
-export const actionStatusEnum = pgEnum("action_status", [
-  "open",
-  "in_progress",
-  "awaiting_verification",
-  "closed",
-]);
+/** The workflow's states (shared/workflow/action-workflow.ts). */
+export const actionStateEnum = pgEnum("action_state", actionStates);
 
-/** Why a closed action closed: an auditor saw the fix, or its space was retired (not a fix). */
-export const actionCloseReasonEnum = pgEnum("action_close_reason", ["verified", "space_retired"]);
+/** Why a done action is done: an auditor confirmed the fix, or its space was retired (not a fix). */
+export const actionCloseReasonEnum = pgEnum("action_close_reason", actionCloseReasons);
 
 /** A site's due times by severity; no row means the defaults. */
 export const siteDuePolicies = pgTable("site_due_policies", {
@@ -44,7 +41,7 @@ export const siteDuePolicies = pgTable("site_due_policies", {
 
 /**
  * The work that fixes one failed item in one space, followed until an auditor has seen the fix.
- * While it is not closed, further failures of the same item in the same space join it (the
+ * While it is unfinished, further failures of the same item in the same space join it (the
  * partial unique index makes that hold under concurrent submits too).
  */
 export const correctiveActions = pgTable(
@@ -65,13 +62,13 @@ export const correctiveActions = pgTable(
     itemKey: varchar("item_key", { length: 60 }).notNull(),
     title: varchar("title", { length: 300 }).notNull(),
     severity: severityEnum("severity").notNull(),
-    status: actionStatusEnum("status").notNull().default("open"),
+    state: actionStateEnum("state").notNull().default("to_fix"),
     assigneeId: uuid("assignee_id").references(() => users.id, { onDelete: "set null" }),
     openedAt: timestamp("opened_at", { withTimezone: true }).notNull(),
     /** Fixed when opened; reopening keeps it. */
     dueAt: timestamp("due_at", { withTimezone: true }).notNull(),
     closedAt: timestamp("closed_at", { withTimezone: true }),
-    /** Null only on actions closed before reasons were kept, which were all verified. */
+    /** Null only on actions done before reasons were kept, which were all confirmed fixes. */
     closeReason: actionCloseReasonEnum("close_reason"),
     daysToClose: doublePrecision("days_to_close"),
     /** Counts rejections and reopenings: proof of the current attempt has this round. */
@@ -82,12 +79,12 @@ export const correctiveActions = pgTable(
     updatedAt: timestamp("updated_at", { withTimezone: true }).notNull().defaultNow(),
   },
   (table) => [
-    uniqueIndex("corrective_actions_one_unclosed")
+    uniqueIndex("corrective_actions_one_unfinished")
       .on(table.spaceId, table.itemKey)
-      .where(sql`status <> 'closed'`),
-    index("corrective_actions_site_idx").on(table.siteId, table.status, table.dueAt),
-    index("corrective_actions_assignee_idx").on(table.assigneeId, table.status),
-    index("corrective_actions_floor_idx").on(table.floorId, table.status),
+      .where(sql`state <> 'done'`),
+    index("corrective_actions_site_idx").on(table.siteId, table.state, table.dueAt),
+    index("corrective_actions_assignee_idx").on(table.assigneeId, table.state),
+    index("corrective_actions_floor_idx").on(table.floorId, table.state),
     index("corrective_actions_closed_idx").on(table.siteId, table.closedAt),
   ],
 );

@@ -1,4 +1,5 @@
 import { sql } from "drizzle-orm";
+import { verdicts } from "../../../shared/calc/verdict";
 import {
   doublePrecision,
   index,
@@ -20,7 +21,7 @@ import { sites } from "./sites";
 import { users } from "./users";
 
 export const auditStatusEnum = pgEnum("audit_status", ["draft", "submitted"]);
-export const verdictEnum = pgEnum("verdict", ["not_ready", "ready_with_conditions", "ready"]);
+export const verdictEnum = pgEnum("verdict", verdicts);
 export const outcomeEnum = pgEnum("outcome", ["pass", "fail", "not_applicable"]);
 
 /** An audit of one space. Its id is made by the auditor's device, so a retried sync is harmless. */

@@ -17,9 +17,9 @@ export const auditMonthStats = pgTable(
     zoneType: zoneTypeEnum("zone_type").notNull(),
     month: date("month", { mode: "string" }).notNull(),
     audits: integer("audits").notNull().default(0),
-    ready: integer("ready").notNull().default(0),
-    withConditions: integer("with_conditions").notNull().default(0),
-    notReady: integer("not_ready").notNull().default(0),
+    allClear: integer("all_clear").notNull().default(0),
+    gapsToFix: integer("gaps_to_fix").notNull().default(0),
+    hold: integer("hold").notNull().default(0),
   },
   (table) => [primaryKey({ columns: [table.siteId, table.zoneType, table.month] })],
 );

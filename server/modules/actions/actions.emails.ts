@@ -1,5 +1,5 @@
 import { formatInZone } from "@shared/calc/due";
-import type { Severity } from "@shared/calc/verdict";
+import { severityLabels, type Severity } from "@shared/calc/verdict";
 
 import { mailLayout } from "../../lib/mail-layout";
 import type { NewMail } from "../../outbox/outbox.repository";
@@ -17,12 +17,6 @@ export interface ActionMailFacts {
   timeZone: string;
 }
 
-const severityWords: Record<Severity, string> = {
-  critical: "Critical",
-  major: "Major",
-  minor: "Minor",
-};
-
 function actionMail(
   topic: string,
   facts: ActionMailFacts,
@@ -30,7 +24,7 @@ function actionMail(
   lines: string[],
   button: string,
 ): NewMail {
-  const about = `${severityWords[facts.severity]} finding in ${facts.spaceName}, ${facts.siteName}: ${facts.title}`;
+  const about = `${severityLabels[facts.severity]} finding in ${facts.spaceName}, ${facts.siteName}: ${facts.title}`;
   const due = `Due ${formatInZone(facts.dueAt, facts.timeZone)} (the site's time).`;
   const paragraphs = [`Hello ${facts.name},`, ...lines, about, due];
   const footnote =
@@ -72,7 +66,7 @@ export const overdueMail = (facts: ActionMailFacts) =>
     facts,
     `Overdue: ${facts.spaceName}`,
     [
-      "A corrective action you own is past its due time. Fix it, attach a photo of the fix and send it for verification.",
+      "A corrective action you own is past its due time. Fix it, add a photo of the fix and ask for a check.",
     ],
     "Open the action",
   );
@@ -83,29 +77,32 @@ export const reminderMail = (facts: ActionMailFacts, weeks: number) =>
     facts,
     `Still overdue: ${facts.spaceName}`,
     [
-      `A corrective action you own is still open, ${weeks === 1 ? "a week" : `${weeks} weeks`} after we told you it was overdue.`,
+      `A corrective action you own is still not done, ${weeks === 1 ? "a week" : `${weeks} weeks`} after we told you it was overdue.`,
     ],
     "Open the action",
   );
 
-export const verificationRequestedMail = (facts: ActionMailFacts, by: string, note: string) =>
+export const checkAskedMail = (facts: ActionMailFacts, by: string, note: string) =>
   actionMail(
-    "action_awaiting_verification",
+    "action_to_check",
     facts,
-    `Fix to verify: ${facts.spaceName}`,
+    `Fix to check: ${facts.spaceName}`,
     [
-      `${by} has fixed a finding and asks an auditor of the site to verify it.`,
+      `${by} has fixed a finding and asks an auditor of the site to check the fix.`,
       `Their note: ${note}`,
     ],
-    "Verify the fix",
+    "Check the fix",
   );
 
-export const rejectedMail = (facts: ActionMailFacts, by: string, reason: string) =>
+export const sentBackMail = (facts: ActionMailFacts, by: string, reason: string) =>
   actionMail(
-    "action_rejected",
+    "action_sent_back",
     facts,
-    `Fix not accepted: ${facts.spaceName}`,
-    [`${by} looked at the proof and did not accept the fix.`, `Reason: ${reason}`],
+    `Fix sent back: ${facts.spaceName}`,
+    [
+      `${by} looked at the photos and sent the fix back to you: it needs more work and a new photo.`,
+      `Reason: ${reason}`,
+    ],
     "Open the action",
   );
 
@@ -115,7 +112,7 @@ export const reopenedMail = (facts: ActionMailFacts, by: string, reason: string)
     facts,
     `Action reopened: ${facts.spaceName}`,
     [
-      `${by} has reopened a corrective action that was closed. Its original due time stands.`,
+      `${by} has reopened a corrective action that was done: the fix did not hold. Its original due time stands.`,
       `Reason: ${reason}`,
     ],
     "Open the action",

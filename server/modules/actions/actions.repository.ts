@@ -2,7 +2,13 @@ import { aliasedTable, and, asc, count, desc, eq, inArray, isNull, ne, sql } fro
 
 import type { DuePolicy } from "@shared/calc/due";
 import type { Severity } from "@shared/calc/verdict";
-import type { ActionListQuery, ActionStatus } from "@shared/schemas/actions";
+import type { ActionListQuery } from "@shared/schemas/actions";
+import {
+  ownerWorkStates,
+  stateOfLogEntry,
+  type ActionCloseReason,
+  type ActionState,
+} from "@shared/workflow/action-workflow";
 
 import type { DbOrTx } from "../../db/client";
 import {
@@ -44,14 +50,14 @@ export interface ActionRow {
   itemKey: string;
   title: string;
   severity: Severity;
-  status: ActionStatus;
+  state: ActionState;
   assigneeId: string | null;
   assigneeName: string | null;
   openedAt: Date;
   dueAt: Date;
   closedAt: Date | null;
   daysToClose: number | null;
-  closeReason: "verified" | "space_retired" | null;
+  closeReason: ActionCloseReason | null;
   spaceRetiredAt: Date | null;
   proofRound: number;
   x: number;
@@ -75,7 +81,7 @@ function actionQuery(db: DbOrTx) {
       itemKey: correctiveActions.itemKey,
       title: correctiveActions.title,
       severity: correctiveActions.severity,
-      status: correctiveActions.status,
+      state: correctiveActions.state,
       assigneeId: correctiveActions.assigneeId,
       assigneeName: assignees.displayName,
       openedAt: correctiveActions.openedAt,
@@ -117,13 +123,13 @@ export async function listActions(
   now: Date,
 ): Promise<ActionRow[]> {
   const conditions = [eq(correctiveActions.siteId, siteId)];
-  if (filters.state === "open") conditions.push(ne(correctiveActions.status, "closed"));
-  if (filters.state === "closed") conditions.push(eq(correctiveActions.status, "closed"));
+  if (filters.state === "unfinished") conditions.push(ne(correctiveActions.state, "done"));
+  if (filters.state === "done") conditions.push(eq(correctiveActions.state, "done"));
   if (filters.floorId) conditions.push(eq(correctiveActions.floorId, filters.floorId));
   if (filters.spaceId) conditions.push(eq(correctiveActions.spaceId, filters.spaceId));
   if (filters.severity) conditions.push(eq(correctiveActions.severity, filters.severity));
   if (filters.overdue === "true") {
-    conditions.push(ne(correctiveActions.status, "closed"));
+    conditions.push(ne(correctiveActions.state, "done"));
     conditions.push(sql`${correctiveActions.dueAt} < ${now}`);
   }
   return actionQuery(db)
@@ -131,24 +137,21 @@ export async function listActions(
     .orderBy(asc(correctiveActions.dueAt));
 }
 
-/** Unclosed actions assigned to the person, at sites of their network. */
+/** Unfinished actions assigned to the person, at sites of their network. */
 export async function actionsAssignedTo(db: DbOrTx, userId: string): Promise<ActionRow[]> {
   return actionQuery(db)
-    .where(and(eq(correctiveActions.assigneeId, userId), ne(correctiveActions.status, "closed")))
+    .where(and(eq(correctiveActions.assigneeId, userId), ne(correctiveActions.state, "done")))
     .orderBy(asc(correctiveActions.dueAt));
 }
 
 /** Fixes waiting for an auditor at the given sites (every site of the network when null). */
-export async function actionsAwaitingVerification(
+export async function actionsToCheck(
   db: DbOrTx,
   networkId: string,
   siteIds: string[] | null,
 ): Promise<ActionRow[]> {
   if (siteIds !== null && siteIds.length === 0) return [];
-  const conditions = [
-    eq(correctiveActions.status, "awaiting_verification"),
-    eq(sites.networkId, networkId),
-  ];
+  const conditions = [eq(correctiveActions.state, "to_check"), eq(sites.networkId, networkId)];
   if (siteIds !== null) conditions.push(inArray(correctiveActions.siteId, siteIds));
   return actionQuery(db)
     .where(and(...conditions))
@@ -180,7 +183,7 @@ export async function lockSpaceForFindings(db: DbOrTx, spaceId: string) {
   await db.execute(sql`select pg_advisory_xact_lock(hashtext(${`findings:${spaceId}`}))`);
 }
 
-export async function findUnclosedAction(db: DbOrTx, spaceId: string, itemKey: string) {
+export async function findUnfinishedAction(db: DbOrTx, spaceId: string, itemKey: string) {
   const [row] = await db
     .select()
     .from(correctiveActions)
@@ -188,7 +191,7 @@ export async function findUnclosedAction(db: DbOrTx, spaceId: string, itemKey: s
       and(
         eq(correctiveActions.spaceId, spaceId),
         eq(correctiveActions.itemKey, itemKey),
-        ne(correctiveActions.status, "closed"),
+        ne(correctiveActions.state, "done"),
       ),
     )
     .for("update");
@@ -382,8 +385,8 @@ export async function findPerson(db: DbOrTx, userId: string): Promise<Recipient 
   return row ?? null;
 }
 
-/** A newer unclosed action on the same item and space (reopening would make a twin). */
-export async function newerUnclosedTwin(
+/** A newer unfinished action on the same item and space (reopening would make a twin). */
+export async function newerUnfinishedTwin(
   db: DbOrTx,
   action: { id: string; spaceId: string; itemKey: string },
 ) {
@@ -394,18 +397,18 @@ export async function newerUnclosedTwin(
       and(
         eq(correctiveActions.spaceId, action.spaceId),
         eq(correctiveActions.itemKey, action.itemKey),
-        ne(correctiveActions.status, "closed"),
+        ne(correctiveActions.state, "done"),
         ne(correctiveActions.id, action.id),
       ),
     );
   return row ?? null;
 }
 
-/** Actions a time-based notice may be due for: not closed, owned, within a day of due or past. */
+/** Actions a time-based notice may be due for: unfinished, owned, within a day of due or past. */
 export async function noticeCandidates(db: DbOrTx, now: Date) {
   const rows = await actionQuery(db).where(
     and(
-      inArray(correctiveActions.status, ["open", "in_progress"]),
+      inArray(correctiveActions.state, [...ownerWorkStates]),
       sql`${correctiveActions.assigneeId} is not null`,
       sql`${correctiveActions.dueAt} <= ${new Date(now.getTime() + 24 * 60 * 60 * 1000)}`,
     ),
@@ -442,15 +445,13 @@ export async function claimNotice(
   return rows.length > 0;
 }
 
-/** The unclosed actions of the spaces, locked for closing. */
-export async function lockUnclosedActionsOf(db: DbOrTx, spaceIds: readonly string[]) {
+/** The unfinished actions of the spaces, locked for closing. */
+export async function lockUnfinishedActionsOf(db: DbOrTx, spaceIds: readonly string[]) {
   if (spaceIds.length === 0) return [];
   return db
     .select()
     .from(correctiveActions)
-    .where(
-      and(inArray(correctiveActions.spaceId, spaceIds), ne(correctiveActions.status, "closed")),
-    )
+    .where(and(inArray(correctiveActions.spaceId, spaceIds), ne(correctiveActions.state, "done")))
     .orderBy(asc(correctiveActions.id))
     .for("update");
 }
@@ -468,7 +469,7 @@ export async function lockActionsClosedByRetirement(
     .where(
       and(
         inArray(correctiveActions.spaceId, spaceIds),
-        eq(correctiveActions.status, "closed"),
+        eq(correctiveActions.state, "done"),
         eq(correctiveActions.closeReason, "space_retired"),
         sql`${correctiveActions.closedAt} >= ${since}`,
       ),
@@ -477,8 +478,11 @@ export async function lockActionsClosedByRetirement(
     .for("update");
 }
 
-/** The status an action had when its space's retirement closed it (the latest such move). */
-export async function statusBeforeRetirement(db: DbOrTx, actionId: string) {
+/**
+ * The state an action had when its space's retirement closed it (the latest such move), read
+ * through the translation of earlier change-log codes.
+ */
+export async function stateBeforeRetirement(db: DbOrTx, actionId: string) {
   const [row] = await db
     .select({ before: changeLog.before })
     .from(changeLog)
@@ -491,7 +495,7 @@ export async function statusBeforeRetirement(db: DbOrTx, actionId: string) {
     )
     .orderBy(desc(changeLog.occurredAt))
     .limit(1);
-  return ((row?.before ?? null) as { status?: ActionStatus } | null)?.status ?? null;
+  return stateOfLogEntry(row?.before);
 }
 
 /** Whether any action or finding follows the spaces (history that must not be deleted). */

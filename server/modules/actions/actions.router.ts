@@ -7,12 +7,13 @@ import {
   actionNoteBodySchema,
   actionParamsSchema,
   actionReasonBodySchema,
-  actionStatusLabels,
+  actionStateLabels,
   assigneeBodySchema,
   duePolicySchema,
   proofFieldsSchema,
 } from "@shared/schemas/actions";
 import { siteParamsSchema } from "@shared/schemas/site";
+import { actionMoves, type ActionMoveName } from "@shared/workflow/action-workflow";
 import { zoneTypeLabels } from "@shared/zones";
 
 import { asCell, cautionRow, csvPreamble } from "../../lib/csv";
@@ -25,6 +26,13 @@ const viaAction = (permission: Permission): Access => ({
   kind: "site",
   permission,
   siteOf: (params, deps) => actions.siteOfAction(deps.db, params.actionId!),
+});
+
+/** Where a person's move is made, and who may make it, from the workflow table. */
+const moveRoute = (name: ActionMoveName) => ({
+  path: `/actions/:actionId/${actionMoves[name].path}`,
+  access: viaAction(actionMoves[name].permission),
+  params: actionParamsSchema,
 });
 
 const atSite = (permission: Permission): Access => ({
@@ -41,13 +49,13 @@ const actionExportColumns = [
   "zone type",
   "item",
   "severity",
-  "status",
+  "state",
   "owner",
   "opened (UTC)",
   "due (UTC)",
   "due (site time)",
   "overdue",
-  "closed (UTC)",
+  "done (UTC)",
   "days to close",
   "findings",
   "link",
@@ -58,7 +66,7 @@ export const actionRoutes = [
     method: "get",
     path: "/sites/:siteId/actions",
     summary:
-      "A site's corrective actions, unclosed and overdue first (filters: state, floor, space, severity, overdue)",
+      "A site's corrective actions, unfinished and overdue first (filters: state, floor, space, severity, overdue)",
     access: atSite("read:site:site"),
     params: siteParamsSchema,
     query: actionListQuerySchema,
@@ -85,7 +93,7 @@ export const actionRoutes = [
             zoneTypeLabels[row.zoneType],
             row.title,
             row.severity,
-            actionStatusLabels[row.status],
+            actionStateLabels[row.state],
             row.assignee?.name ?? "",
             row.openedAt,
             row.dueAt,
@@ -113,7 +121,7 @@ export const actionRoutes = [
   defineRoute({
     method: "get",
     path: "/my/actions",
-    summary: "The unclosed actions the person owns, overdue first",
+    summary: "The unfinished actions the person owns, overdue first",
     access: { kind: "signed-in" },
     async handle({ res, deps, auth }) {
       res.json({ actions: await actions.myActions(deps.db, auth!) });
@@ -121,11 +129,11 @@ export const actionRoutes = [
   }),
   defineRoute({
     method: "get",
-    path: "/my/verifications",
-    summary: "Fixes awaiting verification at the sites where the person verifies",
+    path: "/my/checks",
+    summary: "Fixes to check at the sites where the person confirms fixes",
     access: { kind: "signed-in" },
     async handle({ res, deps, auth }) {
-      res.json({ actions: await actions.myVerifications(deps.db, auth!) });
+      res.json({ actions: await actions.myChecks(deps.db, auth!) });
     },
   }),
   defineRoute({
@@ -140,10 +148,8 @@ export const actionRoutes = [
   }),
   defineRoute({
     method: "post",
-    path: "/actions/:actionId/start",
-    summary: "Mark an open action in progress (facilities lead)",
-    access: viaAction("work:action:site"),
-    params: actionParamsSchema,
+    ...moveRoute("start"),
+    summary: "Start fixing: To fix → Being fixed (facilities lead)",
     async handle({ res, deps, auth, params, requestId }) {
       res.json(
         await actions.startAction({ deps, auth: auth!, actionId: params.actionId, requestId }),
@@ -152,10 +158,8 @@ export const actionRoutes = [
   }),
   defineRoute({
     method: "post",
-    path: "/actions/:actionId/proofs",
-    summary: "Attach a photo of the fix with an id made by the device (multipart: photo, id)",
-    access: viaAction("work:action:site"),
-    params: actionParamsSchema,
+    ...moveRoute("add_photo"),
+    summary: "Add a photo of the fix with an id made by the device (multipart: photo, id)",
     async handle({ req, res, deps, auth, params, requestId }) {
       const buffer = await readUpload(req, res, "photo");
       const fields = parseInput(proofFieldsSchema, { ...req.body }, "body");
@@ -168,14 +172,13 @@ export const actionRoutes = [
   }),
   defineRoute({
     method: "post",
-    path: "/actions/:actionId/verification-request",
-    summary: "Send the fix for verification, with a note (needs proof of this attempt)",
-    access: viaAction("work:action:site"),
-    params: actionParamsSchema,
+    ...moveRoute("ask_check"),
+    summary:
+      "Ask for a check: Being fixed → Fix to check, with a note (needs a photo of this attempt)",
     body: actionNoteBodySchema,
     async handle({ res, deps, auth, params, body, requestId }) {
       res.json(
-        await actions.sendForVerification(
+        await actions.askForCheck(
           { deps, auth: auth!, actionId: params.actionId, requestId },
           body.note,
         ),
@@ -184,14 +187,12 @@ export const actionRoutes = [
   }),
   defineRoute({
     method: "post",
-    path: "/actions/:actionId/verify",
-    summary: "Verify the fix and close the action, with a note (auditor)",
-    access: viaAction("verify:action:site"),
-    params: actionParamsSchema,
+    ...moveRoute("confirm"),
+    summary: "Confirm the fix: Fix to check → Done, with a note (auditor)",
     body: actionNoteBodySchema,
     async handle({ res, deps, auth, params, body, requestId }) {
       res.json(
-        await actions.verifyAction(
+        await actions.confirmFix(
           { deps, auth: auth!, actionId: params.actionId, requestId },
           body.note,
         ),
@@ -200,14 +201,13 @@ export const actionRoutes = [
   }),
   defineRoute({
     method: "post",
-    path: "/actions/:actionId/reject",
-    summary: "Reject the proof with a reason; the action goes back to in progress (auditor)",
-    access: viaAction("verify:action:site"),
-    params: actionParamsSchema,
+    ...moveRoute("send_back"),
+    summary:
+      "Send back: Fix to check → Being fixed, with a reason; a new photo is needed (auditor)",
     body: actionReasonBodySchema,
     async handle({ res, deps, auth, params, body, requestId }) {
       res.json(
-        await actions.rejectAction(
+        await actions.sendBack(
           { deps, auth: auth!, actionId: params.actionId, requestId },
           body.reason,
         ),
@@ -216,10 +216,9 @@ export const actionRoutes = [
   }),
   defineRoute({
     method: "post",
-    path: "/actions/:actionId/reopen",
-    summary: "Reopen a closed action with a reason; it keeps its history and due time (auditor)",
-    access: viaAction("verify:action:site"),
-    params: actionParamsSchema,
+    ...moveRoute("reopen"),
+    summary:
+      "Reopen: Done → Being fixed, with a reason; it keeps its history and due time (auditor)",
     body: actionReasonBodySchema,
     async handle({ res, deps, auth, params, body, requestId }) {
       res.json(
@@ -232,10 +231,8 @@ export const actionRoutes = [
   }),
   defineRoute({
     method: "put",
-    path: "/actions/:actionId/assignee",
-    summary: "Give the action to another facilities lead of the site",
-    access: viaAction("assign:action:site"),
-    params: actionParamsSchema,
+    ...moveRoute("assign"),
+    summary: "Change owner: hand the action to another facilities lead of the site",
     body: assigneeBodySchema,
     async handle({ res, deps, auth, params, body, requestId }) {
       res.json(

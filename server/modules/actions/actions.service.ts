@@ -5,13 +5,22 @@ import { severities, type Severity } from "@shared/calc/verdict";
 import type {
   ActionDetail,
   ActionListQuery,
-  ActionStatus,
   ActionSummary,
   DuePolicyResponse,
   TimelineEntry,
-  TimelineKind,
 } from "@shared/schemas/actions";
-import { timelineKinds } from "@shared/schemas/actions";
+import {
+  actionMoves,
+  moveAllowedFrom,
+  moveTimelineKinds,
+  stateOfLogEntry,
+  systemMoves,
+  timelineKindFromLog,
+  wrongStateMessage,
+  type ActionMoveName,
+  type ActionState,
+  type TimelineKind,
+} from "@shared/workflow/action-workflow";
 
 import type { Database, DbOrTx, Tx } from "../../db/client";
 import type { Env } from "../../env";
@@ -29,15 +38,9 @@ const conflict = (message: string) => new AppError("conflict", 409, message);
 const invalid = (field: string, message: string) =>
   new AppError("validation_failed", 400, message, { fields: { [field]: message } });
 
-const statusWords: Record<ActionStatus, string> = {
-  open: "open",
-  in_progress: "in progress",
-  awaiting_verification: "awaiting verification",
-  closed: "closed",
-};
-
-function wrongStatus(status: ActionStatus, needed: string): AppError {
-  return conflict(`This action is ${statusWords[status]}; it must be ${needed} for that.`);
+/** The move cannot be made from the action's state (shared/workflow/action-workflow.ts). */
+function refuseUnlessAllowed(move: ActionMoveName, state: ActionState): void {
+  if (!moveAllowedFrom(move, state)) throw conflict(wrongStateMessage(move, state));
 }
 
 export const actionLink = (env: Env, actionId: string) =>
@@ -59,23 +62,23 @@ export function toSummary(row: repo.ActionRow, now = new Date()): ActionSummary 
     itemKey: row.itemKey,
     title: row.title,
     severity: row.severity,
-    status: row.status,
+    state: row.state,
     assignee: row.assigneeId ? { id: row.assigneeId, name: row.assigneeName ?? "" } : null,
     openedAt: row.openedAt.toISOString(),
     dueAt: row.dueAt.toISOString(),
     closedAt: row.closedAt?.toISOString() ?? null,
     daysToClose: row.daysToClose,
-    closeReason: row.status === "closed" ? (row.closeReason ?? "verified") : null,
+    closeReason: row.state === "done" ? (row.closeReason ?? "confirmed") : null,
     spaceRetiredAt: row.spaceRetiredAt?.toISOString() ?? null,
-    overdue: isOverdue(row.dueAt, now, row.status === "closed"),
+    overdue: isOverdue(row.dueAt, now, row.state === "done"),
     findingCount: row.findingCount,
     position: { x: row.x, y: row.y },
   };
 }
 
-/** Unclosed first, overdue first among them, then by due time. */
+/** Unfinished first, overdue first among them, then by due time. */
 export function byUrgency(a: ActionSummary, b: ActionSummary): number {
-  const rank = (action: ActionSummary) => (action.status === "closed" ? 2 : action.overdue ? 0 : 1);
+  const rank = (action: ActionSummary) => (action.state === "done" ? 2 : action.overdue ? 0 : 1);
   return rank(a) - rank(b) || a.dueAt.localeCompare(b.dueAt);
 }
 
@@ -86,7 +89,7 @@ export async function listActions(db: Database, siteId: string, query: ActionLis
     .sort(byUrgency);
 }
 
-/** What the person owns and has not closed, overdue first. */
+/** What the person owns that is not done, overdue first. */
 export async function myActions(db: Database, auth: SignedIn) {
   const now = new Date();
   return (await repo.actionsAssignedTo(db, auth.user.id))
@@ -96,34 +99,34 @@ export async function myActions(db: Database, auth: SignedIn) {
 }
 
 /**
- * Fixes sent for verification at the sites where the person may verify: what the verification
- * e-mail tells them, shown on their home page whether or not the e-mail arrived.
+ * Fixes waiting for a check at the sites where the person may confirm them: what the e-mail
+ * asking for the check tells them, shown on their home page whether or not the e-mail arrived.
  */
-export async function myVerifications(db: Database, auth: SignedIn) {
+export async function myChecks(db: Database, auth: SignedIn) {
   const now = new Date();
   const verifying = auth.grants.filter((grant) =>
-    rolePermissions[grant.role].includes("verify:action:site"),
+    rolePermissions[grant.role].includes(actionMoves.confirm.permission),
   );
   if (verifying.length === 0) return [];
   const siteIds = verifying.some((grant) => grant.siteId === null)
     ? null
     : verifying.map((grant) => grant.siteId!);
-  return (await repo.actionsAwaitingVerification(db, auth.user.networkId, siteIds))
+  return (await repo.actionsToCheck(db, auth.user.networkId, siteIds))
     .map((row) => toSummary(row, now))
     .sort(byUrgency);
 }
 
 function timelineEntry(row: Awaited<ReturnType<typeof repo.timelineOf>>[number]): TimelineEntry {
-  const kind = row.action.replace(/^action\./, "") as TimelineEntry["kind"];
-  const before = (row.before ?? {}) as { status?: ActionStatus };
-  const after = (row.after ?? {}) as { status?: ActionStatus; assigneeName?: string };
+  // Entries written before the states were renamed are translated here, never rewritten.
+  const kind = timelineKindFromLog(row.action.replace(/^action\./, "")) ?? "opened";
+  const after = (row.after ?? {}) as { assigneeName?: string };
   return {
     id: row.id,
     at: row.at.toISOString(),
-    kind: timelineKinds.includes(kind) ? kind : "opened",
+    kind,
     actorName: row.actorName,
-    fromStatus: before.status ?? null,
-    toStatus: after.status ?? null,
+    fromState: stateOfLogEntry(row.before),
+    toState: stateOfLogEntry(row.after),
     text:
       row.reason ??
       (kind === "assigned" && after.assigneeName ? `Now owned by ${after.assigneeName}.` : null),
@@ -229,7 +232,7 @@ export interface FailedItem {
 
 /**
  * Turns the failed items of a just-submitted audit into findings, inside the submit's transaction.
- * A failure of an item that already has an unclosed action in this space joins that action; a
+ * A failure of an item that already has an unfinished action in this space joins that action; a
  * new one opens an action owned by the site's facilities lead, due by the site's policy.
  * Returns how many e-mails were queued.
  */
@@ -252,7 +255,8 @@ export async function recordFindings(
   let queued = 0;
 
   for (const item of failed) {
-    const existing = await repo.findUnclosedAction(tx, space.id, item.key);
+    // Only an unfinished action is found: systemMoves.joinsExisting.
+    const existing = await repo.findUnfinishedAction(tx, space.id, item.key);
     const due = dueAt(now, item.severity, policy, space.timeZone);
     if (existing) {
       const finding = await repo.insertFinding(tx, {
@@ -274,15 +278,14 @@ export async function recordFindings(
         changes.severity = item.severity;
         if (due < existing.dueAt) changes.dueAt = due;
       }
-      // Failing again while the fix waits for verification means the fix did not hold.
-      if (existing.status === "awaiting_verification") {
-        changes.status = "in_progress";
-        changes.proofRound = existing.proofRound + 1;
-      }
+      // Failing again while the fix waits for its check means the fix did not hold.
+      const repeat = systemMoves.repeatFailure(existing.state);
+      if (repeat.to !== existing.state) changes.state = repeat.to;
+      if (repeat.newAttempt) changes.proofRound = existing.proofRound + 1;
       if (Object.keys(changes).length > 0) await repo.updateAction(tx, existing.id, changes);
       await logMove(tx, actor, { id: existing.id, siteId: space.siteId }, "finding_added", {
-        before: { status: existing.status },
-        after: { status: changes.status ?? existing.status, auditId: audit.id },
+        before: { state: existing.state },
+        after: { state: repeat.to, auditId: audit.id },
         reason: item.note,
       });
       continue;
@@ -295,7 +298,7 @@ export async function recordFindings(
       itemKey: item.key,
       title: item.text,
       severity: item.severity,
-      status: "open",
+      state: "to_fix",
       assigneeId: lead?.id ?? null,
       openedAt: now,
       dueAt: due,
@@ -315,7 +318,7 @@ export async function recordFindings(
     });
     await logMove(tx, actor, { id: action.id, siteId: space.siteId }, "opened", {
       after: {
-        status: "open",
+        state: "to_fix",
         auditId: audit.id,
         severity: item.severity,
         dueAt: due.toISOString(),
@@ -349,30 +352,32 @@ export async function recordFindings(
   }
   // An audit started before its space was retired still counts, but what it found is not work
   // for anyone now: its actions close at once, for the same reason as the space's others.
-  if (space.retiredAt) await closeUnclosedActions(tx, actor, [space.id], now);
+  if (space.retiredAt) await closeUnfinishedActions(tx, actor, [space.id], now);
   return queued;
 }
 
-const spaceRetiredWords = "Closed because the space was retired; not counted as fixed.";
-const spaceRestoredWords = "Reopened because the space was restored.";
+const spaceRetiredWords = "Done because the space was retired; not counted as fixed.";
+const spaceRestoredWords = "Back in the work list because the space was restored.";
 
-async function closeUnclosedActions(
+async function closeUnfinishedActions(
   tx: Tx,
   actor: Actor,
   spaceIds: readonly string[],
   at: Date,
 ): Promise<number> {
-  const actions = await repo.lockUnclosedActionsOf(tx, spaceIds);
+  const actions = await repo.lockUnfinishedActionsOf(tx, spaceIds);
   for (const action of actions) {
+    const to = systemMoves.retire(action.state);
+    if (!to) continue;
     await repo.updateAction(tx, action.id, {
-      status: "closed",
+      state: to,
       closedAt: at,
       closeReason: "space_retired",
       daysToClose: null,
     });
     await logMove(tx, actor, action, "space_retired", {
-      before: { status: action.status },
-      after: { status: "closed", closeReason: "space_retired" },
+      before: { state: action.state },
+      after: { state: to, closeReason: "space_retired" },
       reason: spaceRetiredWords,
     });
   }
@@ -380,7 +385,7 @@ async function closeUnclosedActions(
 }
 
 /**
- * Closes the unclosed actions of spaces being retired, inside the retirement's transaction, with
+ * Closes the unfinished actions of spaces being retired, inside the retirement's transaction, with
  * the reason "space retired": they leave the work lists but never count as fixed. Takes each
  * space's findings lock first, so an audit submitted at the same moment cannot open one after.
  */
@@ -391,12 +396,12 @@ export async function closeActionsOfRetiredSpaces(
   at: Date,
 ): Promise<number> {
   for (const spaceId of [...spaceIds].sort()) await repo.lockSpaceForFindings(tx, spaceId);
-  return closeUnclosedActions(tx, actor, spaceIds, at);
+  return closeUnfinishedActions(tx, actor, spaceIds, at);
 }
 
 /**
  * Undoes what a retirement at `retiredAt` did to the spaces' actions: each it closed goes back to
- * the status it had, unless a newer action already follows the same item in that space.
+ * the state it had, unless a newer action already follows the same item in that space.
  */
 export async function reopenActionsOfRestoredSpaces(
   tx: Tx,
@@ -408,17 +413,17 @@ export async function reopenActionsOfRestoredSpaces(
   const actions = await repo.lockActionsClosedByRetirement(tx, spaceIds, retiredAt);
   let reopened = 0;
   for (const action of actions) {
-    if (await repo.newerUnclosedTwin(tx, action)) continue;
-    const status = (await repo.statusBeforeRetirement(tx, action.id)) ?? "open";
+    if (await repo.newerUnfinishedTwin(tx, action)) continue;
+    const state = systemMoves.restore(await repo.stateBeforeRetirement(tx, action.id));
     await repo.updateAction(tx, action.id, {
-      status: status === "closed" ? "open" : status,
+      state,
       closedAt: null,
       closeReason: null,
       daysToClose: null,
     });
     await logMove(tx, actor, action, "space_restored", {
-      before: { status: "closed", closeReason: "space_retired" },
-      after: { status },
+      before: { state: action.state, closeReason: "space_retired" },
+      after: { state },
       reason: spaceRestoredWords,
     });
     reopened += 1;
@@ -430,11 +435,11 @@ export async function reopenActionsOfRestoredSpaces(
 export const countActionsOfSpaces = (db: DbOrTx, spaceIds: readonly string[]) =>
   repo.countActionsOfSpaces(db, spaceIds);
 
-/** Loads and locks the action for a move, checking it is in one of the allowed states. */
-async function lockFor(tx: Tx, actionId: string, allowed: readonly ActionStatus[], needed: string) {
+/** Loads and locks the action for a move, checking the workflow allows the move from its state. */
+async function lockFor(tx: Tx, actionId: string, move: ActionMoveName) {
   const action = await repo.lockAction(tx, actionId);
   if (!action) throw notFound("That corrective action");
-  if (!allowed.includes(action.status)) throw wrongStatus(action.status, needed);
+  refuseUnlessAllowed(move, action.state);
   return action;
 }
 
@@ -469,23 +474,45 @@ async function finish(move: Move, queued: number): Promise<ActionDetail> {
   return actionDetail(move.deps.db, move.actionId);
 }
 
-/** The facilities lead starts the fix. */
+type LockedAction = NonNullable<Awaited<ReturnType<typeof repo.lockAction>>>;
+
+/**
+ * Makes a person's move that changes the state, as the workflow table says: to its state, with a
+ * new attempt when the move starts one, logged with the note or reason it needed.
+ */
+async function changeState(
+  tx: Tx,
+  move: Move,
+  name: Exclude<ActionMoveName, "add_photo" | "assign">,
+  action: LockedAction,
+  extra: { changes?: Partial<LockedAction>; before?: object; after?: object; reason?: string },
+) {
+  const rule = actionMoves[name];
+  await repo.updateAction(tx, action.id, {
+    state: rule.to,
+    ...(rule.newAttempt ? { proofRound: action.proofRound + 1 } : {}),
+    ...extra.changes,
+  });
+  await logMove(tx, actorOf(move), action, moveTimelineKinds[name], {
+    before: { state: action.state, ...extra.before },
+    after: { state: rule.to, ...extra.after },
+    reason: extra.reason ?? null,
+  });
+}
+
+/** The owner starts on the fix. */
 export async function startAction(move: Move): Promise<ActionDetail> {
   await move.deps.db.transaction(async (tx) => {
-    const action = await lockFor(tx, move.actionId, ["open"], "open");
-    await repo.updateAction(tx, action.id, { status: "in_progress" });
-    await logMove(tx, actorOf(move), action, "started", {
-      before: { status: action.status },
-      after: { status: "in_progress" },
-    });
+    const action = await lockFor(tx, move.actionId, "start");
+    await changeState(tx, move, "start", action, {});
   });
   return finish(move, 0);
 }
 
 /** A photo of the fix; counts for the current attempt only. */
 const proofIdInUse = () =>
-  new AppError("conflict", 409, "That proof id is already used for another photo.", {
-    fields: { id: "This proof id is already used for another photo; make a new one." },
+  new AppError("conflict", 409, "That photo id is already used for another photo.", {
+    fields: { id: "This photo id is already used for another photo; make a new one." },
   });
 
 /**
@@ -515,8 +542,7 @@ export async function addProof(
   }
   const current = await repo.findAction(move.deps.db, move.actionId);
   if (!current) throw notFound("That corrective action");
-  if (current.status !== "open" && current.status !== "in_progress")
-    throw wrongStatus(current.status, "open or in progress");
+  refuseUnlessAllowed("add_photo", current.state);
   const image = await storeImage(move.deps, {
     siteId: current.siteId,
     uploadedBy: move.auth.user.id,
@@ -528,8 +554,7 @@ export async function addProof(
     if (!action) throw notFound("That corrective action");
     // The same upload, sent twice at once, waited here for the first one.
     if (await storedProofFor(tx, move.actionId, upload)) return false;
-    if (action.status !== "open" && action.status !== "in_progress")
-      throw wrongStatus(action.status, "open or in progress");
+    refuseUnlessAllowed("add_photo", action.state);
     const proof = await repo.insertProof(tx, {
       id: input.id,
       actionId: action.id,
@@ -539,40 +564,31 @@ export async function addProof(
     });
     // Another action's proof took the id a moment ago.
     if (!proof) throw proofIdInUse();
-    await logMove(tx, actorOf(move), action, "proof_added", {
-      after: { status: action.status, proofId: proof.id, imageId: image.id },
+    await logMove(tx, actorOf(move), action, moveTimelineKinds.add_photo, {
+      after: { state: action.state, proofId: proof.id, imageId: image.id },
     });
     return true;
   });
   return { created, detail: await finish(move, 0) };
 }
 
-/** Needs proof of this attempt and a note; the site's auditors are told. */
-export async function sendForVerification(move: Move, note: string): Promise<ActionDetail> {
+/** Needs a photo of this attempt and a note; the site's auditors are asked to check. */
+export async function askForCheck(move: Move, note: string): Promise<ActionDetail> {
   const queued = await move.deps.db.transaction(async (tx) => {
-    const action = await lockFor(tx, move.actionId, ["in_progress"], "in progress");
-    if ((await repo.countProofs(tx, action.id, action.proofRound)) === 0) {
-      throw invalid(
-        "proof",
-        "Attach at least one photo of the fix before sending it for verification.",
-      );
+    const action = await lockFor(tx, move.actionId, "ask_check");
+    if (
+      actionMoves.ask_check.needsProofOfAttempt &&
+      (await repo.countProofs(tx, action.id, action.proofRound)) === 0
+    ) {
+      throw invalid("proof", "Add at least one photo of the fix before asking for a check.");
     }
-    await repo.updateAction(tx, action.id, { status: "awaiting_verification" });
-    await logMove(tx, actorOf(move), action, "sent_for_verification", {
-      before: { status: action.status },
-      after: { status: "awaiting_verification" },
-      reason: note,
-    });
+    await changeState(tx, move, "ask_check", action, { reason: note });
     const row = (await repo.findAction(tx, action.id))!;
     const auditors = await repo.peopleWithRoleAt(tx, action.siteId, "auditor");
     for (const auditor of auditors) {
       await enqueueMail(
         tx,
-        mails.verificationRequestedMail(
-          mailFacts(move.deps.env, row, auditor),
-          move.auth.user.name,
-          note,
-        ),
+        mails.checkAskedMail(mailFacts(move.deps.env, row, auditor), move.auth.user.name, note),
         auditor,
       );
     }
@@ -581,26 +597,15 @@ export async function sendForVerification(move: Move, note: string): Promise<Act
   return finish(move, queued);
 }
 
-/** An auditor has seen the fix: the action closes and its days to close are kept. */
-export async function verifyAction(move: Move, note: string): Promise<ActionDetail> {
+/** An auditor saw the fix: the action is done and its days to close are kept. */
+export async function confirmFix(move: Move, note: string): Promise<ActionDetail> {
   await move.deps.db.transaction(async (tx) => {
-    const action = await lockFor(
-      tx,
-      move.actionId,
-      ["awaiting_verification"],
-      "awaiting verification",
-    );
+    const action = await lockFor(tx, move.actionId, "confirm");
     const closedAt = new Date();
     const days = daysToClose(action.openedAt, closedAt);
-    await repo.updateAction(tx, action.id, {
-      status: "closed",
-      closedAt,
-      closeReason: "verified",
-      daysToClose: days,
-    });
-    await logMove(tx, actorOf(move), action, "verified", {
-      before: { status: action.status },
-      after: { status: "closed", daysToClose: days },
+    await changeState(tx, move, "confirm", action, {
+      changes: { closedAt, closeReason: "confirmed", daysToClose: days },
+      after: { daysToClose: days },
       reason: note,
     });
   });
@@ -611,7 +616,7 @@ async function tellAssignee(
   tx: Tx,
   move: Move,
   actionId: string,
-  build: (facts: mails.ActionMailFacts) => ReturnType<typeof mails.rejectedMail>,
+  build: (facts: mails.ActionMailFacts) => ReturnType<typeof mails.sentBackMail>,
 ): Promise<number> {
   const row = (await repo.findAction(tx, actionId))!;
   if (!row.assigneeId) return 0;
@@ -621,56 +626,36 @@ async function tellAssignee(
   return 1;
 }
 
-/** The proof does not show a fix: back to in progress, new proof needed. */
-export async function rejectAction(move: Move, reason: string): Promise<ActionDetail> {
+/** The proof does not show a fix: back to its owner, a new photo needed. */
+export async function sendBack(move: Move, reason: string): Promise<ActionDetail> {
   const queued = await move.deps.db.transaction(async (tx) => {
-    const action = await lockFor(
-      tx,
-      move.actionId,
-      ["awaiting_verification"],
-      "awaiting verification",
-    );
-    await repo.updateAction(tx, action.id, {
-      status: "in_progress",
-      proofRound: action.proofRound + 1,
-    });
-    await logMove(tx, actorOf(move), action, "rejected", {
-      before: { status: action.status },
-      after: { status: "in_progress" },
-      reason,
-    });
+    const action = await lockFor(tx, move.actionId, "send_back");
+    await changeState(tx, move, "send_back", action, { reason });
     return tellAssignee(tx, move, action.id, (facts) =>
-      mails.rejectedMail(facts, move.auth.user.name, reason),
+      mails.sentBackMail(facts, move.auth.user.name, reason),
     );
   });
   return finish(move, queued);
 }
 
-/** A closed action that did not hold: back to in progress, history and original due time kept. */
+/** A done action that did not hold: back to its owner, history and original due time kept. */
 export async function reopenAction(move: Move, reason: string): Promise<ActionDetail> {
   const queued = await move.deps.db.transaction(async (tx) => {
-    const action = await lockFor(tx, move.actionId, ["closed"], "closed");
+    const action = await lockFor(tx, move.actionId, "reopen");
     if ((await repo.findAction(tx, action.id))?.spaceRetiredAt) {
       throw conflict(
         "This action's space is retired. An administrator can restore the space; its actions closed by the retirement then reopen.",
       );
     }
-    const twin = await repo.newerUnclosedTwin(tx, action);
+    const twin = await repo.newerUnfinishedTwin(tx, action);
     if (twin) {
       throw conflict(
         "A newer action already follows this item in this space; add to that one instead.",
       );
     }
-    await repo.updateAction(tx, action.id, {
-      status: "in_progress",
-      closedAt: null,
-      closeReason: null,
-      daysToClose: null,
-      proofRound: action.proofRound + 1,
-    });
-    await logMove(tx, actorOf(move), action, "reopened", {
-      before: { status: action.status, closedAt: action.closedAt?.toISOString() ?? null },
-      after: { status: "in_progress" },
+    await changeState(tx, move, "reopen", action, {
+      changes: { closedAt: null, closeReason: null, daysToClose: null },
+      before: { closedAt: action.closedAt?.toISOString() ?? null },
       reason,
     });
     return tellAssignee(tx, move, action.id, (facts) =>
@@ -685,8 +670,7 @@ export async function assignAction(move: Move, assigneeId: string): Promise<Acti
   const queued = await move.deps.db.transaction(async (tx) => {
     const action = await repo.lockAction(tx, move.actionId);
     if (!action) throw notFound("That corrective action");
-    if (action.status === "closed")
-      throw conflict("A closed action keeps the owner who closed it.");
+    refuseUnlessAllowed("assign", action.state);
     const leads = await repo.peopleWithRoleAt(tx, action.siteId, "facilities_lead");
     const assignee = leads.find((lead) => lead.id === assigneeId);
     if (!assignee) {
@@ -694,9 +678,9 @@ export async function assignAction(move: Move, assigneeId: string): Promise<Acti
     }
     if (action.assigneeId === assigneeId) return 0;
     await repo.updateAction(tx, action.id, { assigneeId });
-    await logMove(tx, actorOf(move), action, "assigned", {
-      before: { status: action.status, assigneeId: action.assigneeId },
-      after: { status: action.status, assigneeId, assigneeName: assignee.name },
+    await logMove(tx, actorOf(move), action, moveTimelineKinds.assign, {
+      before: { state: action.state, assigneeId: action.assigneeId },
+      after: { state: action.state, assigneeId, assigneeName: assignee.name },
     });
     const row = (await repo.findAction(tx, action.id))!;
     await enqueueMail(

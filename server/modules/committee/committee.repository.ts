@@ -2,6 +2,7 @@ import { type SQL, sql } from "drizzle-orm";
 
 import { categorisedKeys } from "@shared/checklists/categories";
 import type { Severity, Verdict } from "@shared/calc/verdict";
+import type { ActionState } from "@shared/workflow/action-workflow";
 import type { ZoneType } from "@shared/zones";
 
 import type { Database, DbOrTx } from "../../db/client";
@@ -38,17 +39,17 @@ export async function syncItemCategories(db: DbOrTx) {
 
 export interface VerdictDelta {
   audits: number;
-  ready: number;
-  withConditions: number;
-  notReady: number;
+  allClear: number;
+  gapsToFix: number;
+  hold: number;
 }
 
 export function verdictDelta(verdict: Verdict, sign: 1 | -1, counted: 0 | 1 = 1): VerdictDelta {
   return {
     audits: sign * counted,
-    ready: verdict === "ready" ? sign : 0,
-    withConditions: verdict === "ready_with_conditions" ? sign : 0,
-    notReady: verdict === "not_ready" ? sign : 0,
+    allClear: verdict === "all_clear" ? sign : 0,
+    gapsToFix: verdict === "gaps_to_fix" ? sign : 0,
+    hold: verdict === "hold" ? sign : 0,
   };
 }
 
@@ -57,17 +58,17 @@ export async function addAuditCounts(
   db: DbOrTx,
   input: { siteId: string; zoneType: ZoneType; at: Date; delta: VerdictDelta },
 ) {
-  const { audits, ready, withConditions, notReady } = input.delta;
+  const { audits, allClear, gapsToFix, hold } = input.delta;
   await db.execute(sql`
-    insert into audit_month_stats (site_id, zone_type, month, audits, ready, with_conditions, not_ready)
+    insert into audit_month_stats (site_id, zone_type, month, audits, all_clear, gaps_to_fix, hold)
     select s.id, ${input.zoneType}, date_trunc('month', ${input.at.toISOString()}::timestamptz at time zone s.time_zone)::date,
-           ${audits}, ${ready}, ${withConditions}, ${notReady}
+           ${audits}, ${allClear}, ${gapsToFix}, ${hold}
       from sites s where s.id = ${input.siteId}
     on conflict (site_id, zone_type, month) do update set
       audits = audit_month_stats.audits + excluded.audits,
-      ready = audit_month_stats.ready + excluded.ready,
-      with_conditions = audit_month_stats.with_conditions + excluded.with_conditions,
-      not_ready = audit_month_stats.not_ready + excluded.not_ready`);
+      all_clear = audit_month_stats.all_clear + excluded.all_clear,
+      gaps_to_fix = audit_month_stats.gaps_to_fix + excluded.gaps_to_fix,
+      hold = audit_month_stats.hold + excluded.hold`);
 }
 
 /** Adds answer counts by item group to a site's month. */
@@ -105,11 +106,11 @@ export async function rebuildMonthStats(db: DbOrTx, siteIds: readonly string[]) 
   await db.execute(sql`delete from audit_month_stats where site_id = any(${ids})`);
   await db.execute(sql`delete from answer_month_stats where site_id = any(${ids})`);
   await db.execute(sql`
-    insert into audit_month_stats (site_id, zone_type, month, audits, ready, with_conditions, not_ready)
+    insert into audit_month_stats (site_id, zone_type, month, audits, all_clear, gaps_to_fix, hold)
     select a.site_id, sp.zone_type, date_trunc('month', a.submitted_at at time zone s.time_zone)::date,
-           count(*), count(*) filter (where a.verdict = 'ready'),
-           count(*) filter (where a.verdict = 'ready_with_conditions'),
-           count(*) filter (where a.verdict = 'not_ready')
+           count(*), count(*) filter (where a.verdict = 'all_clear'),
+           count(*) filter (where a.verdict = 'gaps_to_fix'),
+           count(*) filter (where a.verdict = 'hold')
       from audits a
       join spaces sp on sp.id = a.space_id
       join sites s on s.id = a.site_id
@@ -162,8 +163,8 @@ const agedBuckets = (from: "opened_at" | "due_at", where: SQL) => sql`
  */
 export const committeeQueries = {
   readinessBySite: (siteIds: readonly string[], period: Period) => sql`
-    select site_id, sum(audits)::int as audits, sum(ready)::int as ready,
-           sum(with_conditions)::int as with_conditions, sum(not_ready)::int as not_ready
+    select site_id, sum(audits)::int as audits, sum(all_clear)::int as all_clear,
+           sum(gaps_to_fix)::int as gaps_to_fix, sum(hold)::int as hold
       from audit_month_stats
      where site_id = any(${siteArray(siteIds)})
        and month between ${firstDay(period.from)}::date and ${firstDay(period.to)}::date
@@ -178,7 +179,7 @@ export const committeeQueries = {
      group by site_id, category`,
   readinessByMonth: (siteIds: readonly string[], period: Period) => sql`
     select site_id, to_char(month, 'YYYY-MM') as month, sum(audits)::int as audits,
-           sum(ready)::int as ready
+           sum(all_clear)::int as all_clear
       from audit_month_stats
      where site_id = any(${siteArray(siteIds)})
        and month between ${firstDay(period.from)}::date and ${firstDay(period.to)}::date
@@ -190,13 +191,13 @@ export const committeeQueries = {
     agedBuckets(
       "opened_at",
       sql`from corrective_actions ca ${zoneJoin(zoneType)}
-          where ca.site_id = any(${siteArray(siteIds)}) and ca.status <> 'closed'`,
+          where ca.site_id = any(${siteArray(siteIds)}) and ca.state <> 'done'`,
     ),
   agingOverdue: (siteIds: readonly string[], zoneType?: ZoneType) =>
     agedBuckets(
       "due_at",
       sql`from corrective_actions ca ${zoneJoin(zoneType)}
-          where ca.site_id = any(${siteArray(siteIds)}) and ca.status <> 'closed'
+          where ca.site_id = any(${siteArray(siteIds)}) and ca.state <> 'done'
             and ca.due_at < now()`,
     ),
   // The period's bounds are worked out once per site (its own clock), not once per action.
@@ -213,7 +214,7 @@ export const committeeQueries = {
       join corrective_actions ca
         on ca.site_id = b.id and ca.closed_at >= b.starts and ca.closed_at < b.ends
       ${zoneJoin(period.zoneType)}
-     where ca.status = 'closed' and ca.close_reason is distinct from 'space_retired'
+     where ca.state = 'done' and ca.close_reason is distinct from 'space_retired'
      group by ca.site_id, ca.severity`,
 };
 
@@ -221,9 +222,9 @@ export async function readinessBySite(db: DbOrTx, siteIds: readonly string[], pe
   const result = await db.execute<{
     site_id: string;
     audits: number;
-    ready: number;
-    with_conditions: number;
-    not_ready: number;
+    all_clear: number;
+    gaps_to_fix: number;
+    hold: number;
   }>(committeeQueries.readinessBySite(siteIds, period));
   return result.rows;
 }
@@ -243,7 +244,7 @@ export async function readinessByMonth(db: DbOrTx, siteIds: readonly string[], p
     site_id: string;
     month: string;
     audits: number;
-    ready: number;
+    all_clear: number;
   }>(committeeQueries.readinessByMonth(siteIds, period));
   return result.rows;
 }
@@ -280,7 +281,7 @@ export async function spacesOfSite(db: DbOrTx, siteId: string, period: Period) {
     floor_id: string;
     floor_name: string;
     audits: number;
-    ready: number;
+    all_clear: number;
     last_verdict: Verdict | null;
     last_audit_at: Date | null;
     open_actions: number;
@@ -293,7 +294,7 @@ export async function spacesOfSite(db: DbOrTx, siteId: string, period: Period) {
     )
     select sp.id as space_id, sp.name as space_name, sp.zone_type, f.id as floor_id,
            f.name as floor_name,
-           coalesce(stats.audits, 0)::int as audits, coalesce(stats.ready, 0)::int as ready,
+           coalesce(stats.audits, 0)::int as audits, coalesce(stats.all_clear, 0)::int as all_clear,
            latest.verdict as last_verdict, latest.submitted_at as last_audit_at,
            coalesce(work.open_actions, 0)::int as open_actions,
            coalesce(work.overdue_actions, 0)::int as overdue_actions
@@ -301,7 +302,7 @@ export async function spacesOfSite(db: DbOrTx, siteId: string, period: Period) {
       join floors f on f.id = sp.floor_id
       cross join bounds
       left join lateral (
-        select count(*) as audits, count(*) filter (where a.verdict = 'ready') as ready
+        select count(*) as audits, count(*) filter (where a.verdict = 'all_clear') as all_clear
           from audits a
          where a.space_id = sp.id and a.status = 'submitted'
            and a.submitted_at >= bounds.starts and a.submitted_at < bounds.ends
@@ -313,7 +314,7 @@ export async function spacesOfSite(db: DbOrTx, siteId: string, period: Period) {
       ) latest on true
       left join lateral (
         select count(*) as open_actions, count(*) filter (where ca.due_at < now()) as overdue_actions
-          from corrective_actions ca where ca.space_id = sp.id and ca.status <> 'closed'
+          from corrective_actions ca where ca.space_id = sp.id and ca.state <> 'done'
       ) work on true
      where sp.site_id = ${siteId} ${zone}
      order by f.level, f.name, sp.name`);
@@ -382,18 +383,18 @@ export async function overdueActions(db: DbOrTx, siteIds: readonly string[], lim
     space_name: string;
     title: string;
     severity: Severity;
-    status: string;
+    state: ActionState;
     due_at: Date;
     owner: string | null;
     time_zone: string;
   }>(sql`
-    select ca.id, s.name as site_name, sp.name as space_name, ca.title, ca.severity, ca.status,
+    select ca.id, s.name as site_name, sp.name as space_name, ca.title, ca.severity, ca.state,
            ca.due_at, u.display_name as owner, s.time_zone
       from corrective_actions ca
       join sites s on s.id = ca.site_id
       join spaces sp on sp.id = ca.space_id
       left join users u on u.id = ca.assignee_id
-     where ca.site_id = any(${siteArray(siteIds)}) and ca.status <> 'closed' and ca.due_at < now()
+     where ca.site_id = any(${siteArray(siteIds)}) and ca.state <> 'done' and ca.due_at < now()
      order by ca.due_at
      limit ${limit}`);
   return result.rows.map((row) => ({ ...row, due_at: new Date(row.due_at) }));

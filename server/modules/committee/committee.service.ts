@@ -62,11 +62,11 @@ export async function comparison(
     return {
       siteId: site.id,
       siteName: site.name,
-      readiness: proportion(counts?.ready ?? 0, audits),
+      readiness: proportion(counts?.all_clear ?? 0, audits),
       verdicts: {
-        ready: counts?.ready ?? 0,
-        ready_with_conditions: counts?.with_conditions ?? 0,
-        not_ready: counts?.not_ready ?? 0,
+        all_clear: counts?.all_clear ?? 0,
+        gaps_to_fix: counts?.gaps_to_fix ?? 0,
+        hold: counts?.hold ?? 0,
       },
       categories: itemCategories.flatMap((category) => {
         const row = categories.find((c) => c.site_id === site.id && c.category === category);
@@ -155,7 +155,7 @@ export async function trends(
       const own = months.filter((row) => row.site_id === site.id);
       if (own.length === 0)
         return { siteId: site.id, siteName: site.name, centre: null, points: [] };
-      const chart = pChart(own.map((row) => ({ defects: row.ready, n: row.audits })));
+      const chart = pChart(own.map((row) => ({ defects: row.all_clear, n: row.audits })));
       return {
         siteId: site.id,
         siteName: site.name,
@@ -163,7 +163,7 @@ export async function trends(
         points: chart.points.map((point, index) => ({
           month: own[index]!.month,
           audits: own[index]!.audits,
-          ready: own[index]!.ready,
+          allClear: own[index]!.all_clear,
           ...point,
         })),
       };
@@ -217,7 +217,7 @@ export async function siteDrillDown(
       zoneType: row.zone_type,
       floorId: row.floor_id,
       floorName: row.floor_name,
-      readiness: proportion(row.ready, row.audits),
+      readiness: proportion(row.all_clear, row.audits),
       lastVerdict: row.last_verdict,
       lastAuditAt: row.last_audit_at ? new Date(row.last_audit_at).toISOString() : null,
       openActions: row.open_actions,
@@ -278,9 +278,9 @@ export async function countAmendment(
       ...where,
       delta: {
         audits: 0,
-        ready: out.ready + into.ready,
-        withConditions: out.withConditions + into.withConditions,
-        notReady: out.notReady + into.notReady,
+        allClear: out.allClear + into.allClear,
+        gapsToFix: out.gapsToFix + into.gapsToFix,
+        hold: out.hold + into.hold,
       },
     });
   }

@@ -100,14 +100,7 @@ function ActionPage({ actionId }: { actionId: string }) {
             <p className="text-ink-muted">This floor has no plan yet.</p>
           )
         }
-        moves={
-          <ActionMoves
-            detail={detail.data}
-            mayWork={can("work:action:site", siteId)}
-            mayVerify={can("verify:action:site", siteId)}
-            mayAssign={can("assign:action:site", siteId)}
-          />
-        }
+        moves={<ActionMoves detail={detail.data} can={(permission) => can(permission, siteId)} />}
       />
     </>
   );

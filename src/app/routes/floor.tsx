@@ -27,7 +27,7 @@ import { isSignedIn } from "../session";
 
 const floorPageParamsSchema = siteParamsSchema.extend(floorParamsSchema.shape);
 
-const openOn = (floorId: string) => ({ state: "open", floorId }) as const;
+const openOn = (floorId: string) => ({ state: "unfinished", floorId }) as const;
 
 export function floorLoader(queryClient: QueryClient) {
   return async ({ params }: LoaderFunctionArgs) => {

@@ -6,7 +6,7 @@ import { Alert } from "@/components/ui/alert";
 import { buttonStyles } from "@/components/ui/button";
 import { paths } from "@/config/paths";
 
-import { ActionsToVerify } from "@/features/actions/components/actions-to-verify";
+import { ActionsToCheck } from "@/features/actions/components/actions-to-check";
 import { MyActions } from "@/features/actions/components/my-actions";
 import { UndeliveredMailNotice } from "@/features/admin/components/undelivered-mail-notice";
 import { sitesQueryOptions } from "@/features/sites/api/get-sites";
@@ -59,7 +59,7 @@ export function HomeRoute() {
       ) : null}
       {canAnywhere("work:action:site") ? <MyActions actionHref={paths.action.getHref} /> : null}
       {canAnywhere("verify:action:site") ? (
-        <ActionsToVerify actionHref={paths.action.getHref} />
+        <ActionsToCheck actionHref={paths.action.getHref} />
       ) : null}
       {canAnywhere("conduct:audit:site") ? (
         <MyDueAudits startHref={(spaceId) => paths.startAudit.getHref(spaceId)} />

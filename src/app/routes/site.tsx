@@ -33,7 +33,7 @@ export function siteLoader(queryClient: QueryClient) {
       void queryClient.prefetchQuery(floorsQueryOptions(parsed.data.siteId));
       void queryClient.prefetchQuery(siteScheduleQueryOptions(parsed.data.siteId));
       void queryClient.prefetchQuery(
-        siteActionsQueryOptions(parsed.data.siteId, { state: "open" }),
+        siteActionsQueryOptions(parsed.data.siteId, { state: "unfinished" }),
       );
     }
     return null;
@@ -108,7 +108,7 @@ function SiteOverview({ siteId }: { siteId: string }) {
 
       <div className="mt-6 flex flex-col gap-6">
         {notice ? (
-          <Alert role="status" tone="success">
+          <Alert role="state" tone="success">
             {notice}
           </Alert>
         ) : null}

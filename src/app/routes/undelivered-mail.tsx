@@ -36,7 +36,7 @@ export function UndeliveredMailRoute() {
         E-mail to your network’s people that was interrupted while sending or refused by the mail
         server. Resend puts it back in the queue once, however often it is pressed; it keeps its
         identity, so a mail program that already has it can tell the copies apart. The people
-        concerned also see corrective actions and fixes to verify on their home page.
+        concerned also see corrective actions and fixes to check on their home page.
       </p>
       <UndeliveredMailList />
     </>

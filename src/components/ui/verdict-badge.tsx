@@ -3,16 +3,15 @@ import { type Verdict, verdictLabels } from "@shared/calc/verdict";
 import { cn } from "@/lib/cn";
 
 const tones: Record<Verdict, string> = {
-  ready: "border-verdict-ready/40 bg-verdict-ready/10 text-verdict-ready",
-  ready_with_conditions:
-    "border-verdict-conditions/40 bg-verdict-conditions/10 text-verdict-conditions",
-  not_ready: "border-verdict-not-ready/40 bg-verdict-not-ready/10 text-verdict-not-ready",
+  all_clear: "border-verdict-ready/40 bg-verdict-ready/10 text-verdict-ready",
+  gaps_to_fix: "border-verdict-conditions/40 bg-verdict-conditions/10 text-verdict-conditions",
+  hold: "border-verdict-not-ready/40 bg-verdict-not-ready/10 text-verdict-not-ready",
 };
 
 const solid: Record<Verdict, string> = {
-  ready: "bg-verdict-ready text-white",
-  ready_with_conditions: "bg-verdict-conditions text-white",
-  not_ready: "bg-verdict-not-ready text-white",
+  all_clear: "bg-verdict-ready text-white",
+  gaps_to_fix: "bg-verdict-conditions text-white",
+  hold: "bg-verdict-not-ready text-white",
 };
 
 /**
@@ -31,12 +30,12 @@ export function VerdictIcon({ verdict, className }: { verdict: Verdict; classNam
       strokeLinejoin="round"
       className={cn("size-4 shrink-0", className)}
     >
-      {verdict === "ready" ? (
+      {verdict === "all_clear" ? (
         <>
           <circle cx="10" cy="10" r="8" />
           <path d="m6.3 10.2 2.5 2.5 4.9-5.2" />
         </>
-      ) : verdict === "ready_with_conditions" ? (
+      ) : verdict === "gaps_to_fix" ? (
         <>
           <circle cx="10" cy="8.5" r="6.5" />
           <path d="m7.2 8.6 2 2 3.7-4" />

@@ -248,7 +248,7 @@ export class FakeLintel implements SyncTransport {
           ...detail.audit,
           status: "submitted",
           submittedAt: "2026-03-02T09:30:00.000Z",
-          verdict: "not_ready",
+          verdict: "hold",
           score: 0.5,
         },
       };

@@ -40,9 +40,9 @@ function siteRow(
     siteName: site.name,
     readiness: proportionOf(ready, audits),
     verdicts: {
-      ready,
-      ready_with_conditions: Math.ceil(rest / 2),
-      not_ready: Math.floor(rest / 2),
+      all_clear: ready,
+      gaps_to_fix: Math.ceil(rest / 2),
+      hold: Math.floor(rest / 2),
     },
     categories: [
       { category: "ppe_supply", ...proportionOf(Math.round(audits * 0.9), audits) },
@@ -78,7 +78,7 @@ export function buildComparison(overrides: Partial<ComparisonResponse> = {}): Co
 export function buildTrends(overrides: Partial<TrendsResponse> = {}): TrendsResponse {
   const month = (m: string, audits: number, ready: number, lower: number, upper: number) => {
     const p = ready / audits;
-    return { month: m, audits, ready, p, lower, upper, outside: p < lower || p > upper };
+    return { month: m, audits, allClear: ready, p, lower, upper, outside: p < lower || p > upper };
   };
   return {
     from: "2025-05",
@@ -143,7 +143,7 @@ export function buildDrillDown(overrides: Partial<SiteDrillDown> = {}): SiteDril
         floorId: doffingSpace.floorId,
         floorName: "Ward 4 East",
         readiness: proportionOf(9, 12),
-        lastVerdict: "ready_with_conditions",
+        lastVerdict: "gaps_to_fix",
         lastAuditAt: "2026-04-02T09:00:00.000Z",
         openActions: 2,
         overdueActions: 1,

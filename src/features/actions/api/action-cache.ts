@@ -3,7 +3,7 @@ import type { QueryClient } from "@tanstack/react-query";
 
 import { actionQueryKey } from "./get-action";
 import { myActionsQueryKey } from "./get-my-actions";
-import { myVerificationsQueryKey } from "./get-my-verifications";
+import { myChecksQueryKey } from "./get-my-checks";
 
 /**
  * Every move replies with the whole action: it replaces the page at once, and the lists that show
@@ -15,6 +15,6 @@ export async function storeMovedAction(queryClient: QueryClient, detail: ActionD
     queryClient.invalidateQueries({ queryKey: actionQueryKey(detail.action.id) }),
     queryClient.invalidateQueries({ queryKey: ["actions", "site", detail.action.siteId] }),
     queryClient.invalidateQueries({ queryKey: myActionsQueryKey }),
-    queryClient.invalidateQueries({ queryKey: myVerificationsQueryKey }),
+    queryClient.invalidateQueries({ queryKey: myChecksQueryKey }),
   ]);
 }

@@ -24,7 +24,7 @@ export function addProof(actionId: string, upload: ProofUpload): Promise<ActionD
   });
 }
 
-/** While a proof photo uploads, the page holds back sending for verification. */
+/** While a photo of the fix uploads, the page holds back asking for a check. */
 export const addProofMutationKey = (actionId: string) => ["actions", "proof", actionId] as const;
 
 const resends = 2;

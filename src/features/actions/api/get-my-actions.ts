@@ -5,7 +5,7 @@ import { apiRequest } from "@/lib/api-client";
 
 export const myActionsQueryKey = ["actions", "mine"] as const;
 
-/** The unclosed actions the signed-in person owns, overdue first. */
+/** The unfinished actions the signed-in person owns, overdue first. */
 export async function getMyActions({ signal }: { signal?: AbortSignal } = {}): Promise<
   ActionSummary[]
 > {

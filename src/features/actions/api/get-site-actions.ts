@@ -24,7 +24,7 @@ export function actionFilterSearch(filters: SiteActionFilters): string {
   return text ? `?${text}` : "";
 }
 
-/** A site's corrective actions: unclosed first, overdue first, then by due time. */
+/** A site's corrective actions: unfinished first, overdue first, then by due time. */
 export async function getSiteActions(
   siteId: string,
   filters: SiteActionFilters = {},

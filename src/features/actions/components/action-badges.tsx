@@ -1,5 +1,5 @@
 import type { Severity } from "@shared/calc/verdict";
-import { type ActionStatus, actionStatusLabels } from "@shared/schemas/actions";
+import { type ActionState, actionStateLabels } from "@shared/schemas/actions";
 
 import { Badge, type BadgeTone } from "@/components/ui/badge";
 import { cn } from "@/lib/cn";
@@ -75,18 +75,18 @@ export function SeverityBadge({ severity, className }: { severity: Severity; cla
   );
 }
 
-const statusTones: Record<ActionStatus, BadgeTone> = {
-  open: "neutral",
-  in_progress: "pending",
-  awaiting_verification: "neutral",
-  closed: "positive",
+const statusTones: Record<ActionState, BadgeTone> = {
+  to_fix: "neutral",
+  fixing: "pending",
+  to_check: "neutral",
+  done: "positive",
 };
 
-export function StatusBadge({ status, className }: { status: ActionStatus; className?: string }) {
+export function StatusBadge({ status, className }: { status: ActionState; className?: string }) {
   return (
     <Badge tone={statusTones[status]} className={cn("gap-1.5", className)}>
-      {status === "awaiting_verification" ? <AwaitingSymbol /> : null}
-      {actionStatusLabels[status]}
+      {status === "to_check" ? <AwaitingSymbol /> : null}
+      {actionStateLabels[status]}
     </Badge>
   );
 }

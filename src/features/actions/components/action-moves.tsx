@@ -1,8 +1,15 @@
+import type { Permission } from "@shared/permissions";
 import {
   type ActionDetail,
   actionNoteBodySchema,
   actionReasonBodySchema,
 } from "@shared/schemas/actions";
+import {
+  actionMoves,
+  actionStateHints,
+  availableMoves,
+  type ActionMoveName,
+} from "@shared/workflow/action-workflow";
 import { useIsMutating } from "@tanstack/react-query";
 import { type ChangeEvent, type FormEvent, type ReactNode, useId, useRef, useState } from "react";
 
@@ -20,21 +27,13 @@ import { cn } from "@/lib/cn";
 import { addProofMutationKey, useAddProof } from "../api/add-proof";
 import { useAssignAction } from "../api/assign-action";
 import { useActionAssignees } from "../api/get-action-assignees";
-import { useRejectAction } from "../api/reject-action";
-import { useReopenAction } from "../api/reopen-action";
-import { useRequestVerification } from "../api/request-verification";
-import { useStartAction } from "../api/start-action";
-import { useVerifyAction } from "../api/verify-action";
+import { useMakeMove, type WordMove } from "../api/make-move";
 import { createProofIds, mayResendUpload } from "../lib/proof-ids";
 
 export interface ActionMovesProps {
   detail: ActionDetail;
-  /** Facilities lead: start, add proof, send for verification. */
-  mayWork: boolean;
-  /** Auditor: verify, reject, reopen. */
-  mayVerify: boolean;
-  /** Administrator or facilities lead: give the action to someone else. */
-  mayAssign: boolean;
+  /** Whether the person holds a permission at the action's site. */
+  can: (permission: Permission) => boolean;
 }
 
 /** The field's own message from the server, else the whole refusal when no field explains it. */
@@ -134,7 +133,7 @@ interface ProofPickerProps {
   onAdded: () => void;
 }
 
-export const proofInputLabel = "Add a photo of the fix";
+export const proofInputLabel = actionMoves.add_photo.label;
 
 /** Opens the camera on a phone; the photo uploads at once and joins this attempt's proof. */
 function ProofPicker({ actionId, hasCurrentProof, proofError, onAdded }: ProofPickerProps) {
@@ -194,8 +193,8 @@ function ProofPicker({ actionId, hasCurrentProof, proofError, onAdded }: ProofPi
         {addProof.isPending
           ? "Uploading the photo…"
           : hasCurrentProof
-            ? "This attempt has a photo. Add another if it helps the auditor see the fix."
-            : "A photo of this attempt is needed before the fix can be sent for verification."}
+            ? "There is a photo of this fix. Add another if it helps the auditor see it."
+            : `A photo of the fix is needed before you can "${actionMoves.ask_check.label}".`}
       </p>
       {problem ? <FieldError id={errorId}>{problem}</FieldError> : null}
     </div>
@@ -232,7 +231,7 @@ function AssignMove({ detail }: { detail: ActionDetail }) {
   return (
     <form noValidate onSubmit={submit} className="flex flex-col gap-3">
       <SelectField
-        label="Give to"
+        label="New owner"
         placeholder={assignees.isPending ? "Loading…" : "Choose a facilities lead"}
         options={options}
         value={choice}
@@ -257,7 +256,7 @@ function AssignMove({ detail }: { detail: ActionDetail }) {
         className="self-start"
       >
         {assign.isPending ? <SpinnerGlyph /> : null}
-        Change owner
+        {actionMoves.assign.label}
       </Button>
     </form>
   );
@@ -275,143 +274,150 @@ function MoveSection({ title, children }: { title: string; children: ReactNode }
   );
 }
 
-/** What this person may do next, given the action's status and their role at its site. */
-export function ActionMoves({ detail, mayWork, mayVerify, mayAssign }: ActionMovesProps) {
-  const { action, proofs } = detail;
-  const start = useStartAction(action.id);
-  const send = useRequestVerification(action.id);
-  const uploading = useIsMutating({ mutationKey: addProofMutationKey(action.id) }) > 0;
-  const verify = useVerifyAction(action.id);
-  const reject = useRejectAction(action.id);
-  const reopen = useReopenAction(action.id);
-  const [notice, setNotice] = useState<string | null>(null);
-  const hasCurrentProof = proofs.some((proof) => proof.current);
-  const status = action.status;
+/** The words each move asks for, beside the hint the workflow table gives. */
+const wordsFor: Partial<Record<WordMove, { label: string; hint: string; done: string }>> = {
+  ask_check: {
+    label: "Note for the auditor",
+    hint: "Say what was fixed and where, so the auditor knows what to look for.",
+    done: "An auditor of the site is asked to check the fix.",
+  },
+  confirm: {
+    label: "What you saw",
+    hint: "Say what you saw on site or in the photos.",
+    done: "The fix is confirmed: this action is done.",
+  },
+  send_back: {
+    label: "Why it goes back",
+    hint: actionMoves.send_back.hint,
+    done: "Sent back to its owner, who needs a new photo of the fix.",
+  },
+  reopen: {
+    label: "Why reopen",
+    hint: actionMoves.reopen.hint,
+    done: "The action is reopened and back with its owner.",
+  },
+};
 
-  const proofError = isApiError(send.error) ? send.error.fieldError("proof") : undefined;
-  const done = (message: string, clear?: () => void) => () => {
-    clear?.();
-    setNotice(message);
-  };
+const moveDone: Record<WordMove, string> = {
+  start: "You have started fixing this.",
+  ask_check: wordsFor.ask_check!.done,
+  confirm: wordsFor.confirm!.done,
+  send_back: wordsFor.send_back!.done,
+  reopen: wordsFor.reopen!.done,
+};
 
-  const sections: ReactNode[] = [];
-  if (mayWork && status === "open") {
-    sections.push(
-      <MoveSection key="start" title="Start the fix">
-        <p className="text-sm text-ink-muted">
-          Say you have begun, so the auditors know the gap is being dealt with.
-        </p>
-        <FormProblem message={start.error ? start.error.message : null} />
+interface WordMoveProps {
+  actionId: string;
+  move: WordMove;
+  /** A photo upload in flight: asking for a check waits for it. */
+  uploading: boolean;
+  onDone: (message: string) => void;
+  onError?: (error: unknown) => void;
+  mutation: ReturnType<typeof useMakeMove>;
+}
+
+/** A move from the workflow table that needs a button and, at most, a few words. */
+function WordMoveForm({ move, uploading, onDone, mutation }: WordMoveProps) {
+  const rule = actionMoves[move];
+  const words = wordsFor[move];
+  if (!words) {
+    return (
+      <>
+        <p className="text-sm text-ink-muted">{rule.hint}</p>
+        <FormProblem message={mutation.error ? mutation.error.message : null} />
         <Button
           size="lg"
           className="self-start"
-          disabled={start.isPending}
-          onClick={() => {
-            setNotice(null);
-            start.mutate(undefined, { onSuccess: done("Work on this action has started.") });
-          }}
+          disabled={mutation.isPending}
+          onClick={() => mutation.mutate(undefined, { onSuccess: () => onDone(moveDone[move]) })}
         >
-          {start.isPending ? <SpinnerGlyph /> : null}
-          Start work
+          {mutation.isPending ? <SpinnerGlyph /> : null}
+          {rule.label}
         </Button>
-      </MoveSection>,
+      </>
     );
   }
-  if (mayWork && (status === "open" || status === "in_progress")) {
-    sections.push(
-      <MoveSection key="proof" title="Proof of the fix">
-        <ProofPicker
+  return (
+    <>
+      {rule.needs === "reason" ? null : <p className="text-sm text-ink-muted">{rule.hint}</p>}
+      <TextMove
+        label={words.label}
+        hint={words.hint}
+        buttonLabel={rule.label}
+        field={rule.needs === "reason" ? "reason" : "note"}
+        variant={move === "send_back" ? "danger" : move === "reopen" ? "secondary" : "primary"}
+        pending={mutation.isPending || (rule.needsProofOfAttempt && uploading)}
+        error={mutation.error}
+        otherFieldKeys={rule.needsProofOfAttempt ? ["proof"] : []}
+        onSubmit={(text, clear) =>
+          mutation.mutate(text, {
+            onSuccess: () => {
+              clear();
+              onDone(moveDone[move]);
+            },
+          })
+        }
+      />
+    </>
+  );
+}
+
+/**
+ * What this person may do next: the moves the workflow table allows from the action's state to
+ * someone holding their permissions at its site, in the table's order.
+ */
+export function ActionMoves({ detail, can }: ActionMovesProps) {
+  const { action, proofs } = detail;
+  const mutations: Record<WordMove, ReturnType<typeof useMakeMove>> = {
+    start: useMakeMove(action.id, "start"),
+    ask_check: useMakeMove(action.id, "ask_check"),
+    confirm: useMakeMove(action.id, "confirm"),
+    send_back: useMakeMove(action.id, "send_back"),
+    reopen: useMakeMove(action.id, "reopen"),
+  };
+  const uploading = useIsMutating({ mutationKey: addProofMutationKey(action.id) }) > 0;
+  const [notice, setNotice] = useState<string | null>(null);
+  const hasCurrentProof = proofs.some((proof) => proof.current);
+  const askCheck = mutations.ask_check;
+  const proofError = isApiError(askCheck.error) ? askCheck.error.fieldError("proof") : undefined;
+  const moves = availableMoves(action.state, can);
+
+  const section = (move: ActionMoveName): ReactNode => {
+    const title = move === "add_photo" ? "Photo of the fix" : actionMoves[move].label;
+    if (move === "add_photo") {
+      return (
+        <MoveSection key={move} title={title}>
+          <ProofPicker
+            actionId={action.id}
+            hasCurrentProof={hasCurrentProof}
+            proofError={proofError}
+            onAdded={() => {
+              askCheck.reset();
+              setNotice("The photo is added.");
+            }}
+          />
+        </MoveSection>
+      );
+    }
+    if (move === "assign") {
+      return (
+        <MoveSection key={move} title="Owner">
+          <AssignMove detail={detail} />
+        </MoveSection>
+      );
+    }
+    return (
+      <MoveSection key={move} title={title}>
+        <WordMoveForm
           actionId={action.id}
-          hasCurrentProof={hasCurrentProof}
-          proofError={proofError}
-          onAdded={() => {
-            send.reset();
-            setNotice("The photo is added.");
-          }}
+          move={move}
+          uploading={uploading}
+          mutation={mutations[move]}
+          onDone={(message) => setNotice(message)}
         />
-      </MoveSection>,
+      </MoveSection>
     );
-  }
-  if (mayWork && status === "in_progress") {
-    sections.push(
-      <MoveSection key="send" title="Send for verification">
-        <TextMove
-          label="Note for the auditor"
-          hint="Say what was fixed and where, so the auditor knows what to look for."
-          buttonLabel="Send for verification"
-          field="note"
-          pending={send.isPending || uploading}
-          error={send.error}
-          otherFieldKeys={["proof"]}
-          onSubmit={(note, clear) => {
-            setNotice(null);
-            send.mutate(note, { onSuccess: done("Sent for verification.", clear) });
-          }}
-        />
-      </MoveSection>,
-    );
-  }
-  if (mayVerify && status === "awaiting_verification") {
-    sections.push(
-      <MoveSection key="verify" title="Verify the fix">
-        <TextMove
-          label="Verification note"
-          hint="Say what you saw on site or in the photos."
-          buttonLabel="Verify and close"
-          field="note"
-          pending={verify.isPending}
-          error={verify.error}
-          onSubmit={(note, clear) => {
-            setNotice(null);
-            verify.mutate(note, { onSuccess: done("Verified and closed.", clear) });
-          }}
-        />
-      </MoveSection>,
-      <MoveSection key="reject" title="Reject the proof">
-        <TextMove
-          label="Reason for rejecting"
-          hint="The action goes back to in progress and needs a new photo of the fix."
-          buttonLabel="Reject"
-          field="reason"
-          variant="danger"
-          pending={reject.isPending}
-          error={reject.error}
-          onSubmit={(reason, clear) => {
-            setNotice(null);
-            reject.mutate(reason, {
-              onSuccess: done("The proof is rejected; the action is back in progress.", clear),
-            });
-          }}
-        />
-      </MoveSection>,
-    );
-  }
-  if (mayVerify && status === "closed") {
-    sections.push(
-      <MoveSection key="reopen" title="Reopen">
-        <TextMove
-          label="Reason for reopening"
-          hint="The action keeps its history and its original due time."
-          buttonLabel="Reopen"
-          field="reason"
-          variant="secondary"
-          pending={reopen.isPending}
-          error={reopen.error}
-          onSubmit={(reason, clear) => {
-            setNotice(null);
-            reopen.mutate(reason, { onSuccess: done("The action is reopened.", clear) });
-          }}
-        />
-      </MoveSection>,
-    );
-  }
-  if (mayAssign && status !== "closed") {
-    sections.push(
-      <MoveSection key="assign" title="Owner">
-        <AssignMove detail={detail} />
-      </MoveSection>,
-    );
-  }
+  };
 
   return (
     <Card>
@@ -421,16 +427,15 @@ export function ActionMoves({ detail, mayWork, mayVerify, mayAssign }: ActionMov
           {notice}
         </Alert>
       ) : null}
-      {sections.length === 0 ? (
+      {moves.length === 0 ? (
         <p className="mt-2 text-ink-muted">
-          {status === "closed"
-            ? "This action is closed. An auditor may reopen it if the gap returns."
-            : status === "awaiting_verification"
-              ? "The fix is waiting for an auditor to verify it."
-              : "The facilities lead who owns this action is working on it."}
+          {actionStateHints[action.state]}{" "}
+          {action.state === "done" ? "An auditor may reopen it if the gap returns." : null}
         </p>
       ) : (
-        <div className="mt-4 flex flex-col gap-4">{sections}</div>
+        <div className="mt-4 flex flex-col gap-4" onSubmitCapture={() => setNotice(null)}>
+          {moves.map(section)}
+        </div>
       )}
     </Card>
   );

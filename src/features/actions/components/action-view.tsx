@@ -1,7 +1,7 @@
 import { formatInZone } from "@shared/calc/due";
 import { zoneTypeLabels } from "@shared/zones";
 import type { ActionDetail, Finding, Proof, TimelineEntry } from "@shared/schemas/actions";
-import { actionStatusLabels } from "@shared/schemas/actions";
+import { actionStateLabels } from "@shared/schemas/actions";
 import type { ReactNode } from "react";
 import { Link } from "react-router-dom";
 
@@ -90,19 +90,26 @@ function ProofList({ proofs, timeZone }: { proofs: readonly Proof[]; timeZone: s
   );
   return (
     <Card>
-      <h2 className="text-lg font-semibold">Proof of the fix</h2>
+      <h2 className="text-lg font-semibold">Photos of the fix</h2>
       {current.length > 0 ? (
         <>
-          <h3 className="mt-3 text-sm font-semibold text-ink-muted">This attempt</h3>
-          {list(current, "Proof of this attempt")}
+          <h3 className="mt-3 text-sm font-semibold text-ink-muted">
+            Since the fix was last sent back or reopened
+          </h3>
+          {list(current, "Photos of the fix now")}
         </>
       ) : (
-        <p className="mt-2 text-ink-muted">No photo of this attempt yet.</p>
+        <p className="mt-2 text-ink-muted">
+          No photo of the fix yet
+          {earlier.length > 0 ? " since it was last sent back or reopened" : ""}.
+        </p>
       )}
       {earlier.length > 0 ? (
         <>
-          <h3 className="mt-4 text-sm font-semibold text-ink-muted">Earlier attempts</h3>
-          {list(earlier, "Proof of earlier attempts")}
+          <h3 className="mt-4 text-sm font-semibold text-ink-muted">
+            Earlier photos (a fix that was sent back or did not hold)
+          </h3>
+          {list(earlier, "Earlier photos of the fix")}
         </>
       ) : null}
     </Card>
@@ -112,9 +119,9 @@ function ProofList({ proofs, timeZone }: { proofs: readonly Proof[]; timeZone: s
 function Timeline({ entries, timeZone }: { entries: readonly TimelineEntry[]; timeZone: string }) {
   return (
     <Card>
-      <h2 className="text-lg font-semibold">Every move</h2>
+      <h2 className="text-lg font-semibold">History</h2>
       <ol
-        aria-label="Every move"
+        aria-label="History"
         className="mt-3 flex flex-col gap-4 border-l-2 border-brand-200 pl-4"
       >
         {entries.map((entry) => (
@@ -127,8 +134,8 @@ function Timeline({ entries, timeZone }: { entries: readonly TimelineEntry[]; ti
             <p className="text-sm text-ink-muted">
               {atSite(entry.at, timeZone)}
               {entry.actorName ? ` · ${entry.actorName}` : ""}
-              {entry.fromStatus && entry.toStatus && entry.fromStatus !== entry.toStatus
-                ? ` · ${actionStatusLabels[entry.fromStatus]} → ${actionStatusLabels[entry.toStatus]}`
+              {entry.fromState && entry.toState && entry.fromState !== entry.toState
+                ? ` · ${actionStateLabels[entry.fromState]} → ${actionStateLabels[entry.toState]}`
                 : ""}
             </p>
             {entry.text ? (
@@ -174,7 +181,7 @@ export function ActionView({ detail, siteHref, floorHref, location, moves }: Act
       </p>
       <div className="mt-3 flex flex-wrap items-center gap-2">
         <SeverityBadge severity={action.severity} />
-        <StatusBadge status={action.status} />
+        <StatusBadge status={action.state} />
         {action.overdue ? <OverdueMark /> : null}
       </div>
       <dl className="mt-4 grid grid-cols-1 gap-x-6 gap-y-2 text-sm min-[420px]:grid-cols-2 lg:grid-cols-4">
@@ -190,15 +197,15 @@ export function ActionView({ detail, siteHref, floorHref, location, moves }: Act
           <dt className="text-ink-muted">Opened</dt>
           <dd>{atSite(action.openedAt, zone)}</dd>
         </div>
-        {action.status === "closed" && action.daysToClose !== null ? (
+        {action.state === "done" && action.daysToClose !== null ? (
           <div>
             <dt className="text-ink-muted">Days to close</dt>
             <dd className="font-semibold">{daysToCloseText(action.daysToClose)}</dd>
           </div>
         ) : null}
-        {action.status === "closed" ? (
+        {action.state === "done" ? (
           <div>
-            <dt className="text-ink-muted">Why it closed</dt>
+            <dt className="text-ink-muted">How it was done</dt>
             <dd className="font-semibold">{closeReasonText(action)}</dd>
           </div>
         ) : null}

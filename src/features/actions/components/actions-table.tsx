@@ -1,5 +1,5 @@
 import { type Severity, severities } from "@shared/calc/verdict";
-import { type ActionStatus, type ActionSummary, actionStatuses } from "@shared/schemas/actions";
+import { type ActionState, type ActionSummary, actionStates } from "@shared/schemas/actions";
 import {
   type ColumnFiltersState,
   createColumnHelper,
@@ -23,16 +23,16 @@ import { cn } from "@/lib/cn";
 
 import { daysToCloseText, dueText, severityLabels } from "../lib/action-labels";
 import {
-  type ActionState,
+  type ActionListState,
   type ActionTableFilters,
   defaultTableFilters,
   matchesState,
 } from "../lib/action-filters";
 import { OverdueMark, SeverityBadge, StatusBadge } from "./action-badges";
 
-const stateFilter: FilterFn<ActionSummary> = (row, _columnId, state: ActionState) =>
+const stateFilter: FilterFn<ActionSummary> = (row, _columnId, state: ActionListState) =>
   matchesState(row.original, state);
-stateFilter.autoRemove = (state?: ActionState) => !state || state === "all";
+stateFilter.autoRemove = (state?: ActionListState) => !state || state === "all";
 
 const rankOf =
   <T extends string>(
@@ -43,7 +43,7 @@ const rankOf =
     order.indexOf(pick(a.original)) - order.indexOf(pick(b.original));
 
 const severityOrder: readonly Severity[] = severities;
-const statusOrder: readonly ActionStatus[] = actionStatuses;
+const statusOrder: readonly ActionState[] = actionStates;
 
 const column = createColumnHelper<ActionSummary>();
 
@@ -72,10 +72,10 @@ function columnsFor(actionHref: (actionId: string) => string) {
       sortingFn: rankOf(severityOrder, (action) => action.severity),
       cell: (info) => <SeverityBadge severity={info.getValue()} />,
     }),
-    column.accessor("status", {
+    column.accessor("state", {
       header: "Status",
       filterFn: stateFilter,
-      sortingFn: rankOf(statusOrder, (action) => action.status),
+      sortingFn: rankOf(statusOrder, (action) => action.state),
       cell: (info) => <StatusBadge status={info.getValue()} />,
     }),
     column.accessor((action) => action.assignee?.name ?? "", {
@@ -120,9 +120,9 @@ const cellPlacement: Record<string, string> = {
 
 const labelledOnPhone = new Set(["space", "floor", "owner", "due", "daysToClose"]);
 
-const stateOptions = [
-  { value: "open", label: "Open (not yet closed)" },
-  { value: "closed", label: "Closed" },
+const stateOptions: { value: ActionListState; label: string }[] = [
+  { value: "unfinished", label: "Not done yet" },
+  { value: "done", label: "Done" },
   { value: "all", label: "All" },
 ];
 
@@ -148,12 +148,12 @@ export function ActionsTable({
   actionHref,
   exportHref,
 }: ActionsTableProps) {
-  // No sorting at first: the server's order (unclosed, overdue, then by due time) is the useful one.
+  // No sorting at first: the server's order (unfinished, overdue, then by due time) is the useful one.
   const [sorting, setSorting] = useState<SortingState>([]);
   const data = useMemo(() => [...actions], [actions]);
   const columns = useMemo(() => columnsFor(actionHref), [actionHref]);
   const columnFilters = useMemo<ColumnFiltersState>(() => {
-    const list: ColumnFiltersState = [{ id: "status", value: filters.state }];
+    const list: ColumnFiltersState = [{ id: "state", value: filters.state }];
     if (filters.severity) list.push({ id: "severity", value: filters.severity });
     if (filters.overdueOnly) list.push({ id: "overdue", value: true });
     return list;
@@ -188,7 +188,7 @@ export function ActionsTable({
           label="State"
           options={stateOptions}
           value={filters.state}
-          onChange={(event) => change({ state: event.target.value as ActionState })}
+          onChange={(event) => change({ state: event.target.value as ActionListState })}
         />
         <SelectField
           label="Severity"

@@ -78,7 +78,7 @@ export function FloorActionsKey({
         </li>
         <li className="flex items-center gap-2">
           <AwaitingSymbol className="size-5" />
-          Fix sent, awaiting verification
+          Fix to check (photo sent to an auditor)
         </li>
       </ul>
     </Card>

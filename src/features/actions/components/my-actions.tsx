@@ -73,7 +73,7 @@ export function MyActions({ actionHref, showAll = false, headingLevel = 2 }: MyA
                 </span>
                 <span className="flex flex-wrap gap-2">
                   {action.overdue ? <OverdueMark /> : null}
-                  <StatusBadge status={action.status} />
+                  <StatusBadge status={action.state} />
                 </span>
               </Link>
             </li>

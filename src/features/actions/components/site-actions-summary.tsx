@@ -11,29 +11,28 @@ export interface SiteActionsSummaryProps {
   listHref: string;
 }
 
-/** How many of the site's actions are open and overdue, with the way to the full list. */
+/** How many of the site's actions are not done yet and overdue, with the way to the full list. */
 export function SiteActionsSummary({ siteId, listHref }: SiteActionsSummaryProps) {
-  const open = useSiteActions(siteId, { state: "open" });
-  const overdue = open.data?.filter((action) => action.overdue).length ?? 0;
-  const awaiting =
-    open.data?.filter((action) => action.status === "awaiting_verification").length ?? 0;
+  const unfinished = useSiteActions(siteId, { state: "unfinished" });
+  const overdue = unfinished.data?.filter((action) => action.overdue).length ?? 0;
+  const toCheck = unfinished.data?.filter((action) => action.state === "to_check").length ?? 0;
   return (
     <Card>
       <h2 className="text-lg font-semibold">Corrective actions</h2>
       <p className="mt-1 text-ink-muted">
         Every failed item becomes an action with an owner and a due time, followed until an auditor
-        verifies the fix.
+        confirms the fix.
       </p>
-      {open.isPending ? (
+      {unfinished.isPending ? (
         <Spinner label="Counting actions…" className="py-3" />
-      ) : open.isError ? (
+      ) : unfinished.isError ? (
         <p className="mt-3 text-ink-muted">The actions could not be counted just now.</p>
       ) : (
         <dl className="mt-4 grid grid-cols-3 gap-3 text-center">
           <div className="rounded-lg bg-surface-sunken p-3">
-            <dt className="text-sm text-ink-muted">Open</dt>
+            <dt className="text-sm text-ink-muted">Not done</dt>
             <dd data-testid="open-actions-count" className="text-2xl font-bold">
-              {open.data.length}
+              {unfinished.data.length}
             </dd>
           </div>
           <div className="rounded-lg bg-surface-sunken p-3">
@@ -48,8 +47,8 @@ export function SiteActionsSummary({ siteId, listHref }: SiteActionsSummaryProps
             </dd>
           </div>
           <div className="rounded-lg bg-surface-sunken p-3">
-            <dt className="text-sm text-ink-muted">To verify</dt>
-            <dd className="text-2xl font-bold">{awaiting}</dd>
+            <dt className="text-sm text-ink-muted">Fix to check</dt>
+            <dd className="text-2xl font-bold">{toCheck}</dd>
           </div>
         </dl>
       )}

@@ -3,16 +3,17 @@ import type { ActionSummary } from "@shared/schemas/actions";
 
 import type { SiteActionFilters } from "../api/get-site-actions";
 
-export type ActionState = "open" | "closed" | "all";
+/** Which actions a list shows: the unfinished ones, the done ones, or all. */
+export type ActionListState = "unfinished" | "done" | "all";
 
 export interface ActionTableFilters {
-  state: ActionState;
+  state: ActionListState;
   severity: Severity | "";
   overdueOnly: boolean;
 }
 
 export const defaultTableFilters: ActionTableFilters = {
-  state: "open",
+  state: "unfinished",
   severity: "",
   overdueOnly: false,
 };
@@ -22,7 +23,7 @@ export function filtersFromSearch(search: URLSearchParams): ActionTableFilters {
   const state = search.get("state");
   const severity = search.get("severity");
   return {
-    state: state === "closed" || state === "all" ? state : "open",
+    state: state === "done" || state === "all" ? state : "unfinished",
     severity: (severities as readonly string[]).includes(severity ?? "")
       ? (severity as Severity)
       : "",
@@ -47,9 +48,12 @@ export function filtersToQuery(filters: ActionTableFilters): SiteActionFilters {
   };
 }
 
-export function matchesState(action: Pick<ActionSummary, "status">, state: ActionState): boolean {
+export function matchesState(
+  action: Pick<ActionSummary, "state">,
+  state: ActionListState,
+): boolean {
   if (state === "all") return true;
-  return state === "closed" ? action.status === "closed" : action.status !== "closed";
+  return state === "done" ? action.state === "done" : action.state !== "done";
 }
 
 export interface PinFilter {

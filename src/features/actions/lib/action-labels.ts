@@ -1,6 +1,7 @@
 import type { Severity } from "@shared/calc/verdict";
 import { formatInZone } from "@shared/calc/due";
-import type { ActionSummary, TimelineKind } from "@shared/schemas/actions";
+import type { ActionSummary } from "@shared/schemas/actions";
+import { actionCloseReasonLabels } from "@shared/workflow/action-workflow";
 
 export const severityLabels: Record<Severity, string> = {
   critical: "Critical",
@@ -20,23 +21,10 @@ export function daysToCloseText(days: number | null): string {
   return `${days} ${days === 1 ? "day" : "days"}`;
 }
 
-export const timelineLabels: Record<TimelineKind, string> = {
-  opened: "Opened from a failed item",
-  finding_added: "Found again in a later audit",
-  assigned: "Given to a new owner",
-  started: "Work started",
-  proof_added: "Photo of the fix added",
-  sent_for_verification: "Sent for verification",
-  verified: "Verified and closed",
-  rejected: "Proof rejected",
-  reopened: "Reopened",
-  space_retired: "Closed: space retired",
-  space_restored: "Reopened: space restored",
-};
+/** What each timeline entry says happened, from the workflow's own words. */
+export { timelineKindLabels as timelineLabels } from "@shared/workflow/action-workflow";
 
-/** Why a closed action closed, in words; a retirement is never shown as a fix. */
+/** Why a done action is done, in words; a retirement is never shown as a fix. */
 export function closeReasonText(action: Pick<ActionSummary, "closeReason">): string {
-  return action.closeReason === "space_retired"
-    ? "Space retired — not counted as fixed"
-    : "Verified fixed by an auditor";
+  return actionCloseReasonLabels[action.closeReason ?? "confirmed"];
 }

@@ -34,31 +34,29 @@ function escapeAttribute(value: string): string {
 
 /** What a pin says to a screen reader and on hover, e.g. "Critical, overdue: Dirty chair — Doffing area". */
 export function actionPinTitle(
-  action: Pick<ActionSummary, "severity" | "overdue" | "status" | "title" | "spaceName">,
+  action: Pick<ActionSummary, "severity" | "overdue" | "state" | "title" | "spaceName">,
 ): string {
   const marks = [severityLabels[action.severity]];
   if (action.overdue) marks.push("overdue");
-  if (action.status === "awaiting_verification") marks.push("awaiting verification");
+  if (action.state === "to_check") marks.push("fix to check");
   return `${marks.join(", ")}: ${action.title} — ${action.spaceName}`;
 }
 
 /** The markup inside a pin; carries the action's id so it can be found on the page. */
 export function actionPinHtml(
-  action: Pick<ActionSummary, "id" | "severity" | "overdue" | "status">,
+  action: Pick<ActionSummary, "id" | "severity" | "overdue" | "state">,
 ): string {
   const classes = [
     "lintel-action-pin",
     `is-${action.severity}`,
     action.overdue ? "is-overdue" : "",
-    action.status === "awaiting_verification" ? "is-awaiting" : "",
+    action.state === "to_check" ? "is-awaiting" : "",
   ]
     .filter(Boolean)
     .join(" ");
   const marks = [
     action.overdue ? glyphSvg(overdueGlyph, "lintel-action-pin-clock") : "",
-    action.status === "awaiting_verification"
-      ? glyphSvg(awaitingGlyph, "lintel-action-pin-tick")
-      : "",
+    action.state === "to_check" ? glyphSvg(awaitingGlyph, "lintel-action-pin-tick") : "",
   ].join("");
   return `<span class="${classes}" data-action-id="${escapeAttribute(action.id)}" data-severity="${action.severity}">${glyphSvg(severityGlyphs[action.severity], "lintel-action-pin-shape")}${marks}</span>`;
 }

@@ -6,8 +6,8 @@ const topicLabels: Record<string, string> = {
   action_due_soon: "Corrective action due soon",
   action_overdue: "Corrective action overdue",
   action_reminder: "Overdue reminder",
-  action_awaiting_verification: "Fix to verify",
-  action_rejected: "Proof rejected",
+  action_to_check: "Fix to check",
+  action_sent_back: "Fix sent back",
   action_reopened: "Corrective action reopened",
 };
 

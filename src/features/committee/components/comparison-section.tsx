@@ -44,11 +44,11 @@ function ReadinessCells({ proportion }: { proportion: Proportion }) {
 
 type VerdictTally = ComparisonResponse["sites"][number]["verdicts"];
 
-const verdictOrder = ["ready", "ready_with_conditions", "not_ready"] as const;
+const verdictOrder = ["all_clear", "gaps_to_fix", "hold"] as const;
 const verdictTones = {
-  ready: "text-verdict-ready",
-  ready_with_conditions: "text-verdict-conditions",
-  not_ready: "text-verdict-not-ready",
+  all_clear: "text-verdict-ready",
+  gaps_to_fix: "text-verdict-conditions",
+  hold: "text-verdict-not-ready",
 } as const;
 
 /**
@@ -72,11 +72,11 @@ function VerdictCounts({ verdicts }: { verdicts: VerdictTally }) {
 function SiteTable({ comparison, siteHref }: ComparisonSectionProps) {
   const totals = comparison.sites.reduce<VerdictTally>(
     (sum, site) => ({
-      ready: sum.ready + site.verdicts.ready,
-      ready_with_conditions: sum.ready_with_conditions + site.verdicts.ready_with_conditions,
-      not_ready: sum.not_ready + site.verdicts.not_ready,
+      all_clear: sum.all_clear + site.verdicts.all_clear,
+      gaps_to_fix: sum.gaps_to_fix + site.verdicts.gaps_to_fix,
+      hold: sum.hold + site.verdicts.hold,
     }),
-    { ready: 0, ready_with_conditions: 0, not_ready: 0 },
+    { all_clear: 0, gaps_to_fix: 0, hold: 0 },
   );
   return (
     <div className={tableStyles.frame}>

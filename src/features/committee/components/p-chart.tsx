@@ -92,7 +92,7 @@ function PointsTable({ site }: { site: SiteTrend }) {
                 {monthText(point.month)}
               </th>
               <td className={tableStyles.number}>{point.audits}</td>
-              <td className={tableStyles.number}>{point.ready}</td>
+              <td className={tableStyles.number}>{point.allClear}</td>
               <td className={tableStyles.number}>{percentText(point.p)}</td>
               <td className={tableStyles.number}>{percentText(point.lower)}</td>
               <td className={tableStyles.number}>{percentText(point.upper)}</td>
@@ -206,7 +206,7 @@ export function PChart({ site }: PChartProps) {
               >
                 {outside.map((point) => (
                   <li key={point.month}>
-                    {`${monthText(point.month, "long")}: ${percentText(point.p)} ready (${point.ready} of ${point.audits} audits), ${outsideText(point)} of ${percentText(point.p > point.upper ? point.upper : point.lower)}.`}
+                    {`${monthText(point.month, "long")}: ${percentText(point.p)} all clear (${point.allClear} of ${point.audits} audits), ${outsideText(point)} of ${percentText(point.p > point.upper ? point.upper : point.lower)}.`}
                   </li>
                 ))}
               </ul>

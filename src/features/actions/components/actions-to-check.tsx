@@ -4,32 +4,32 @@ import { Card } from "@/components/ui/card";
 import { Spinner } from "@/components/ui/spinner";
 import { cn } from "@/lib/cn";
 
-import { useMyVerifications } from "../api/get-my-verifications";
+import { useMyChecks } from "../api/get-my-checks";
 import { dueText } from "../lib/action-labels";
 import { OverdueMark, SeverityBadge, StatusBadge } from "./action-badges";
 
-export interface ActionsToVerifyProps {
+export interface ActionsToCheckProps {
   actionHref: (actionId: string) => string;
 }
 
 /**
- * Fixes a facilities lead has sent for verification at the auditor's sites: the home page shows
+ * Fixes a facilities lead has asked to have checked at the auditor's sites: the home page shows
  * them whether or not the e-mail that announced them arrived.
  */
 const firstFew = 6;
 
-export function ActionsToVerify({ actionHref }: ActionsToVerifyProps) {
-  const { data, isPending, isError, refetch } = useMyVerifications();
+export function ActionsToCheck({ actionHref }: ActionsToCheckProps) {
+  const { data, isPending, isError, refetch } = useMyChecks();
   return (
-    <section aria-labelledby="actions-to-verify-heading" className="mb-6">
-      <h2 id="actions-to-verify-heading" className="text-lg font-semibold tracking-tight">
-        Fixes to verify
+    <section aria-labelledby="actions-to-check-heading" className="mb-6">
+      <h2 id="actions-to-check-heading" className="text-lg font-semibold tracking-tight">
+        Fixes to check
       </h2>
       {isPending ? (
-        <Spinner label="Loading fixes to verify…" className="py-4" />
+        <Spinner label="Loading fixes to check…" className="py-4" />
       ) : isError ? (
         <Card className="mt-3">
-          <p className="text-ink-muted">The fixes to verify could not be loaded.</p>
+          <p className="text-ink-muted">The fixes to check could not be loaded.</p>
           <button
             type="button"
             className="mt-2 min-h-tap font-semibold text-brand-700"
@@ -40,10 +40,10 @@ export function ActionsToVerify({ actionHref }: ActionsToVerifyProps) {
         </Card>
       ) : data.length === 0 ? (
         <Card className="mt-3">
-          <p className="text-ink-muted">No fixes are waiting for your verification.</p>
+          <p className="text-ink-muted">No fixes are waiting for your check.</p>
         </Card>
       ) : (
-        <ul aria-label="Fixes to verify" className="mt-3 grid gap-3 md:grid-cols-2">
+        <ul aria-label="Fixes to check" className="mt-3 grid gap-3 md:grid-cols-2">
           {data.slice(0, firstFew).map((action) => (
             <li key={action.id} aria-label={action.title}>
               <Link
@@ -64,7 +64,7 @@ export function ActionsToVerify({ actionHref }: ActionsToVerifyProps) {
                 <span className="flex flex-wrap gap-2">
                   <SeverityBadge severity={action.severity} />
                   {action.overdue ? <OverdueMark /> : null}
-                  <StatusBadge status={action.status} />
+                  <StatusBadge status={action.state} />
                 </span>
               </Link>
             </li>
