@@ -7,6 +7,13 @@ export type Severity = (typeof severities)[number];
 
 export const severityWeights: Record<Severity, number> = { critical: 5, major: 3, minor: 1 };
 
+/** How a severity reads to people, in files as on screen. */
+export const severityLabels: Record<Severity, string> = {
+  critical: "Critical",
+  major: "Major",
+  minor: "Minor",
+};
+
 export const verdicts = ["not_ready", "ready_with_conditions", "ready"] as const;
 export type Verdict = (typeof verdicts)[number];
 
