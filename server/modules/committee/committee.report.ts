@@ -5,7 +5,8 @@ import PDFDocument from "pdfkit";
 import { cautionText } from "@shared/cautions";
 import { itemCategoryLabels } from "@shared/checklists/categories";
 import { formatInZone } from "@shared/calc/due";
-import { rulesVersion } from "@shared/calc/verdict";
+import { rulesVersion, severityLabels } from "@shared/calc/verdict";
+import { actionStateLabels } from "@shared/workflow/action-workflow";
 import type { ComparisonResponse, TrendsResponse } from "@shared/schemas/committee";
 import { zoneTypeLabels } from "@shared/zones";
 
@@ -56,41 +57,20 @@ export function buildMonthlyReport(input: ReportInput): Promise<Buffer> {
 
   const width = doc.page.width - doc.page.margins.left - doc.page.margins.right;
   const left = doc.page.margins.left;
+  const bottom = () => doc.page.height - doc.page.margins.bottom;
   const heading = (text: string) => {
     if (doc.y > doc.page.height - 160) doc.addPage();
     doc.moveDown(0.8).font("bold").fontSize(14).fillColor(brand).text(text, left);
     doc.moveDown(0.3).font("body").fontSize(10).fillColor(ink);
   };
-  const table = (columns: { label: string; width: number }[], rows: string[][]) => {
-    const line = (cells: string[], bold: boolean) => {
-      if (doc.y > doc.page.height - 72) doc.addPage();
-      const y = doc.y;
-      let x = left;
-      let height = 0;
-      cells.forEach((cell, index) => {
-        doc
-          .font(bold ? "bold" : "body")
-          .fontSize(9)
-          .fillColor(ink);
-        doc.text(cell, x, y, { width: columns[index]!.width - 6 });
-        height = Math.max(height, doc.y - y);
-        x += columns[index]!.width;
-      });
-      doc.y = y + height + 3;
-      doc.x = left;
-    };
-    line(
-      columns.map((c) => c.label),
-      true,
-    );
-    doc
-      .moveTo(left, doc.y - 1)
-      .lineTo(left + width, doc.y - 1)
-      .strokeColor(muted)
-      .lineWidth(0.5)
-      .stroke();
-    for (const row of rows) line(row, false);
+  /** A short paragraph kept whole: it starts the next page rather than leave a line or two behind. */
+  const paragraph = (text: string, size: number, color: string) => {
+    doc.font("body").fontSize(size).fillColor(color);
+    if (doc.y + doc.heightOfString(text, { width }) > bottom()) doc.addPage();
+    doc.text(text, left, doc.y, { width });
   };
+  const table = (columns: string[], rows: string[][]) =>
+    drawTable(doc, { left, width, bottom }, columns, rows);
 
   // Title and scope.
   doc.font("bold").fontSize(20).fillColor(brand).text(comparison.networkName);
@@ -110,23 +90,14 @@ export function buildMonthlyReport(input: ReportInput): Promise<Buffer> {
   doc.moveDown(0.6).fontSize(9).fillColor(warn).text(cautionText, { width });
 
   heading("Readiness by site");
-  doc
-    .fontSize(9)
-    .fillColor(muted)
-    .text(
-      `Share of submitted audits with a "ready" verdict, with 95% Wilson score intervals (Newcombe 1998). Sites with fewer than ${comparison.minimumRankedSample} audits are flagged and not ranked. Network: ${percent(comparison.network.rate)} of ${comparison.network.n} audits. Under the readiness rules version ${rulesVersion}, an isolation room is "not ready" unless inward airflow was confirmed in the audit (a pressure reading meeting the threshold or a passing visual test); each audit's page gives the reasons for its verdict.`,
-      { width },
-    );
-  doc.moveDown(0.4).fillColor(ink);
+  paragraph(
+    `Share of submitted audits with an "All clear" verdict, with 95% Wilson score intervals (Newcombe 1998). Sites with fewer than ${comparison.minimumRankedSample} audits are flagged and not ranked. Network: ${percent(comparison.network.rate)} of ${comparison.network.n} audits. Under the readiness rules version ${rulesVersion}, an isolation room is put on "Hold until fixed" unless inward airflow was confirmed in the audit (a pressure reading meeting the threshold or a passing visual test); each audit's page gives the reasons for its verdict.`,
+    9,
+    muted,
+  );
+  doc.moveDown(0.4);
   table(
-    [
-      { label: "Rank", width: 40 },
-      { label: "Site", width: 170 },
-      { label: "Audits", width: 55 },
-      { label: "Ready", width: 60 },
-      { label: "95% interval", width: 110 },
-      { label: "Note", width: width - 435 },
-    ],
+    ["Rank", "Site", "Audits", "All clear", "95% interval", "Note"],
     comparison.sites.map((site) => [
       site.rank ? String(site.rank) : "–",
       site.siteName,
@@ -142,13 +113,12 @@ export function buildMonthlyReport(input: ReportInput): Promise<Buffer> {
     const a = comparison.sites.find((s) => s.siteId === comparison.difference!.siteA)!;
     const b = comparison.sites.find((s) => s.siteId === comparison.difference!.siteB)!;
     const d = comparison.difference;
-    doc
-      .moveDown(0.4)
-      .fontSize(9)
-      .text(
-        `${a.siteName} minus ${b.siteName}: ${percent(d.difference)} (95% interval ${percent(d.interval.lower)} to ${percent(d.interval.upper)}, Newcombe's hybrid score method). ${d.excludesZero ? "The interval leaves out zero: the difference is unlikely to be chance." : "The interval includes zero: the difference may be chance."}`,
-        { width },
-      );
+    doc.moveDown(0.4);
+    paragraph(
+      `${a.siteName} minus ${b.siteName}: ${percent(d.difference)} (95% interval ${percent(d.interval.lower)} to ${percent(d.interval.upper)}, Newcombe's hybrid score method). ${d.excludesZero ? "The interval leaves out zero: the difference is unlikely to be chance." : "The interval includes zero: the difference may be chance."}`,
+      9,
+      ink,
+    );
   }
 
   heading("Compliance by item group");
@@ -156,13 +126,7 @@ export function buildMonthlyReport(input: ReportInput): Promise<Buffer> {
     ...new Set(comparison.sites.flatMap((s) => s.categories.map((c) => c.category))),
   ];
   table(
-    [
-      { label: "Site", width: 150 },
-      ...categories.map((category) => ({
-        label: itemCategoryLabels[category],
-        width: (width - 150) / Math.max(1, categories.length),
-      })),
-    ],
+    ["Site", ...categories.map((category) => itemCategoryLabels[category])],
     comparison.sites.map((site) => [
       site.siteName,
       ...categories.map((category) => {
@@ -175,13 +139,11 @@ export function buildMonthlyReport(input: ReportInput): Promise<Buffer> {
   );
 
   heading("Monthly readiness (p-chart, 3-sigma limits)");
-  doc
-    .fontSize(9)
-    .fillColor(muted)
-    .text(
-      "Dots: monthly share of audits ready; line: the site's centre; band: 3-sigma limits for each month's number of audits. Red dots lie outside the limits. Months without audits are left out.",
-      { width },
-    );
+  paragraph(
+    "Dots: monthly share of audits with an \"All clear\" verdict; line: the site's centre; band: 3-sigma limits for each month's number of audits. Red dots lie outside the limits, and the months outside are listed under each chart. Months without audits are left out.",
+    9,
+    muted,
+  );
   for (const site of trends.sites) {
     if (site.points.length === 0) continue;
     if (doc.y > doc.page.height - 190) doc.addPage();
@@ -227,25 +189,16 @@ export function buildMonthlyReport(input: ReportInput): Promise<Buffer> {
     doc.x = left;
     doc.y = top + chartHeight + 16;
     const outside = site.points.filter((p) => p.outside).map((p) => p.month);
-    doc
-      .fontSize(8)
-      .fillColor(ink)
-      .text(
-        `Centre ${percent(site.centre)}. ${outside.length > 0 ? `Outside the limits: ${outside.join(", ")}.` : "No month outside the limits."}`,
-        left,
-      );
+    paragraph(
+      `Centre ${percent(site.centre)}. ${outside.length > 0 ? `Outside the limits: ${outside.join(", ")}.` : "No month outside the limits."}`,
+      8,
+      ink,
+    );
   }
 
-  heading("Corrective actions: age of open work");
+  heading("Corrective actions not yet done: days since raised");
   table(
-    [
-      { label: "Site", width: 170 },
-      { label: "Open 0–7 d", width: 70 },
-      { label: "8–30 d", width: 55 },
-      { label: "31–90 d", width: 55 },
-      { label: "> 90 d", width: 55 },
-      { label: "Overdue (all)", width: width - 405 },
-    ],
+    ["Site", "0–7 days", "8–30 days", "31–90 days", "Over 90 days", "Overdue (all)"],
     trends.aging.map((row) => [
       row.siteName,
       String(row.open["0-7"]),
@@ -256,45 +209,140 @@ export function buildMonthlyReport(input: ReportInput): Promise<Buffer> {
     ]),
   );
 
-  heading("Median days to close (actions closed in the period)");
+  heading("Median days to Done (fixes confirmed in the period)");
   table(
-    [
-      { label: "Site", width: 200 },
-      { label: "Severity", width: 90 },
-      { label: "Closed", width: 80 },
-      { label: "Median days", width: width - 370 },
-    ],
+    ["Site", "Severity", "Done", "Median days"],
     trends.closeTimes.map((row) => [
       row.siteName,
-      row.severity,
+      severityLabels[row.severity],
       String(row.closed),
       row.medianDays.toFixed(1),
     ]),
   );
 
   heading("Overdue corrective actions");
-  if (input.overdue.length === 0) doc.text("None.");
+  if (input.overdue.length === 0) paragraph("None.", 10, ink);
   else
     table(
-      [
-        { label: "Site", width: 110 },
-        { label: "Space", width: 80 },
-        { label: "Finding", width: 160 },
-        { label: "Severity", width: 50 },
-        { label: "Due (site time)", width: 100 },
-        { label: "Owner", width: width - 500 },
-      ],
+      ["Site", "Space", "Finding", "Severity", "State", "Due (site time)", "Owner"],
       input.overdue.map((row) => [
         row.site_name,
         row.space_name,
         row.title,
-        row.severity,
+        severityLabels[row.severity],
+        actionStateLabels[row.state],
         formatInZone(row.due_at, row.time_zone),
         row.owner ?? "No owner",
       ]),
     );
 
-  doc.moveDown(1).fontSize(8).fillColor(warn).text(cautionText, left, doc.y, { width });
+  doc.moveDown(1);
+  paragraph(cautionText, 8, warn);
   doc.end();
   return done;
+}
+
+const cellGap = 6;
+const rowGap = 3;
+const cellSize = 9;
+
+/**
+ * Column widths that add up to the width between the margins: shares in proportion to each
+ * column's text on one line, but never narrower than its longest word (up to a fifth of the page),
+ * so a long value wraps at spaces and hyphens rather than inside a word.
+ */
+function columnWidths(doc: PDFKit.PDFDocument, table: string[][], width: number): number[] {
+  const count = table[0]!.length;
+  const measure = (text: string, bold: boolean) =>
+    doc
+      .font(bold ? "bold" : "body")
+      .fontSize(cellSize)
+      .widthOfString(text) + cellGap;
+  const least = Array.from({ length: count }, () => cellGap);
+  const natural = Array.from({ length: count }, () => cellGap);
+  table.forEach((cells, row) =>
+    cells.forEach((cell, column) => {
+      const words = cell.split(/\s+|(?<=-)/).map((word) => measure(word, row === 0));
+      least[column] = Math.min(width / 5, Math.max(least[column]!, ...words));
+      natural[column] = Math.max(natural[column]!, measure(cell, row === 0));
+    }),
+  );
+  const leastTotal = least.reduce((total, value) => total + value, 0);
+  if (leastTotal >= width) return least.map((value) => (value / leastTotal) * width);
+  // Pin the columns whose share would fall below their longest word; share the rest again.
+  const pinned = new Set<number>();
+  for (;;) {
+    const free = natural.filter((_, column) => !pinned.has(column));
+    const room = width - [...pinned].reduce((total, column) => total + least[column]!, 0);
+    const scale = room / free.reduce((total, value) => total + value, 0);
+    const widths = natural.map((value, column) =>
+      pinned.has(column) ? least[column]! : value * scale,
+    );
+    const short = widths.findIndex(
+      (value, column) => !pinned.has(column) && value < least[column]!,
+    );
+    if (short === -1 || pinned.size === count - 1) return widths;
+    pinned.add(short);
+  }
+}
+
+/**
+ * A table drawn row by row: each row is measured first and drawn whole at one height, on the next
+ * page under a repeated header when it does not fit; long values wrap inside their column (a word
+ * wider than its column breaks within the word), so nothing runs past the margins.
+ */
+function drawTable(
+  doc: PDFKit.PDFDocument,
+  area: { left: number; width: number; bottom: () => number },
+  header: string[],
+  rows: string[][],
+) {
+  const widths = columnWidths(doc, [header, ...rows], area.width);
+  const style = (bold: boolean) =>
+    doc
+      .font(bold ? "bold" : "body")
+      .fontSize(cellSize)
+      .fillColor(ink);
+  const heightOf = (cells: string[], bold: boolean) => {
+    style(bold);
+    return Math.max(
+      ...cells.map((cell, index) =>
+        cell === "" ? 0 : doc.heightOfString(cell, { width: widths[index]! - cellGap }),
+      ),
+    );
+  };
+  const draw = (cells: string[], bold: boolean, height: number) => {
+    const y = doc.y;
+    let x = area.left;
+    style(bold);
+    cells.forEach((cell, index) => {
+      const cellWidth = widths[index]! - cellGap;
+      // The height bound keeps pdfkit from ever flowing a cell onto a page of its own.
+      if (cell !== "") doc.text(cell, x, y, { width: cellWidth, height: height + 1 });
+      x += widths[index]!;
+    });
+    doc.x = area.left;
+    doc.y = y + height + rowGap;
+  };
+  const headerHeight = heightOf(header, true);
+  const drawHeader = () => {
+    draw(header, true, headerHeight);
+    doc
+      .moveTo(area.left, doc.y - 1)
+      .lineTo(area.left + area.width, doc.y - 1)
+      .strokeColor(muted)
+      .lineWidth(0.5)
+      .stroke();
+  };
+  const firstHeight = rows.length > 0 ? heightOf(rows[0]!, false) : 0;
+  if (doc.y + headerHeight + rowGap + firstHeight > area.bottom()) doc.addPage();
+  drawHeader();
+  for (const row of rows) {
+    const height = heightOf(row, false);
+    if (doc.y + height > area.bottom()) {
+      doc.addPage();
+      drawHeader();
+    }
+    draw(row, false, height);
+  }
 }
