@@ -56,7 +56,7 @@ describe("the action page", () => {
     const photo = screen.getByRole("img", { name: "Finding 1, photo 1" });
     expect(photo.getAttribute("src")).toContain("variant=thumb");
     expect(photo.closest("a")?.getAttribute("href")).toContain("variant=display");
-    const timeline = screen.getByRole("list", { name: "Every move" });
+    const timeline = screen.getByRole("list", { name: "History" });
     expect(timeline.textContent).toContain("Opened from a failed item");
     expect(
       await screen.findByRole("region", { name: "Where Doffing area 4 is on Ward 4 East" }),
@@ -68,37 +68,37 @@ describe("the action page", () => {
     stubAction(facilitiesLead, buildActionDetail({ state: "to_fix" }));
     renderApp(actionUrl);
 
-    expect(await screen.findByRole("button", { name: "Start work" })).toBeTruthy();
+    expect(await screen.findByRole("button", { name: "Start fixing" })).toBeTruthy();
     const photo = screen.getByLabelText("Add a photo of the fix");
     expect(photo.getAttribute("accept")).toBe("image/*");
     expect(photo.getAttribute("capture")).toBe("environment");
-    expect(screen.getByRole("combobox", { name: "Give to" })).toBeTruthy();
-    expect(moveButtons()).toEqual(["Start work", "Change owner"]);
-    expect(screen.queryByRole("button", { name: "Send for verification" })).toBeNull();
+    expect(screen.getByRole("combobox", { name: "New owner" })).toBeTruthy();
+    expect(moveButtons()).toEqual(["Start fixing", "Change owner"]);
+    expect(screen.queryByRole("button", { name: "Ask for a check" })).toBeNull();
   });
 
   it("when a facilities lead opens an action in progress, then they may send it for verification and are told a photo is needed", async () => {
     stubAction(facilitiesLead, buildActionDetail({ state: "fixing" }));
     renderApp(actionUrl);
 
-    expect(await screen.findByRole("button", { name: "Send for verification" })).toBeTruthy();
+    expect(await screen.findByRole("button", { name: "Ask for a check" })).toBeTruthy();
     expect(screen.getByLabelText("Note for the auditor")).toBeTruthy();
     expect(
       screen.getByText(
         "A photo of this attempt is needed before the fix can be sent for verification.",
       ),
     ).toBeTruthy();
-    expect(screen.queryByRole("button", { name: "Start work" })).toBeNull();
+    expect(screen.queryByRole("button", { name: "Start fixing" })).toBeNull();
   });
 
   it("when an auditor opens an action awaiting verification, then they may verify or reject, and nothing else", async () => {
     stubAction(siteAuditor, buildActionDetail({ state: "to_check" }));
     renderApp(actionUrl);
 
-    expect(await screen.findByRole("button", { name: "Verify and close" })).toBeTruthy();
-    expect(screen.getByLabelText("Verification note")).toBeTruthy();
-    expect(screen.getByLabelText("Reason for rejecting")).toBeTruthy();
-    expect(moveButtons()).toEqual(["Verify and close", "Reject"]);
+    expect(await screen.findByRole("button", { name: "Confirm the fix" })).toBeTruthy();
+    expect(screen.getByLabelText("What you saw")).toBeTruthy();
+    expect(screen.getByLabelText("Why it goes back")).toBeTruthy();
+    expect(moveButtons()).toEqual(["Confirm the fix", "Reject"]);
     expect(screen.queryByLabelText("Add a photo of the fix")).toBeNull();
   });
 
@@ -109,7 +109,7 @@ describe("the action page", () => {
     await screen.findByRole("heading", { name: "What happens next" });
     expect(moveButtons()).toEqual([]);
     expect(
-      screen.getByText("The facilities lead who owns this action is working on it."),
+      screen.getByText("Its owner is working on the fix."),
     ).toBeTruthy();
   });
 
@@ -125,7 +125,7 @@ describe("the action page", () => {
     renderApp(actionUrl);
 
     expect(await screen.findByRole("button", { name: "Reopen" })).toBeTruthy();
-    expect(screen.getByLabelText("Reason for reopening")).toBeTruthy();
+    expect(screen.getByLabelText("Why reopen")).toBeTruthy();
     expect(screen.getByText("0.9 days")).toBeTruthy();
   });
 
@@ -135,14 +135,14 @@ describe("the action page", () => {
 
     await screen.findByRole("heading", { name: "What happens next" });
     expect(moveButtons()).toEqual([]);
-    expect(screen.getByText("The fix is waiting for an auditor to verify it.")).toBeTruthy();
+    expect(screen.getByText("Proof of the fix was sent; an auditor of the site must look at it.")).toBeTruthy();
   });
 
   it("when a facilities lead sends for verification without a note, then it is refused beside the note and nothing is sent", async () => {
     const { calls } = stubAction(facilitiesLead, buildActionDetail({ state: "fixing" }));
     const { user } = renderApp(actionUrl);
 
-    await user.click(await screen.findByRole("button", { name: "Send for verification" }));
+    await user.click(await screen.findByRole("button", { name: "Ask for a check" }));
 
     const note = screen.getByLabelText("Note for the auditor");
     expect(note.getAttribute("aria-invalid")).toBe("true");
@@ -160,7 +160,7 @@ describe("the action page", () => {
 
     const note = await screen.findByLabelText("Note for the auditor");
     await user.type(note, "New chair fixed to the wall and labelled.");
-    await user.click(screen.getByRole("button", { name: "Send for verification" }));
+    await user.click(screen.getByRole("button", { name: "Ask for a check" }));
 
     const photo = screen.getByLabelText("Add a photo of the fix");
     const message = await screen.findByText(proofMessage);
@@ -202,14 +202,14 @@ describe("the action page", () => {
     const { user } = renderApp(actionUrl);
 
     await user.type(
-      await screen.findByLabelText("Verification note"),
+      await screen.findByLabelText("What you saw"),
       "Chair in place and labelled.",
     );
-    await user.click(screen.getByRole("button", { name: "Verify and close" }));
+    await user.click(screen.getByRole("button", { name: "Confirm the fix" }));
 
-    expect(await screen.findByText("Verified and closed.")).toBeTruthy();
+    expect(await screen.findByText("The fix is confirmed: this action is done.")).toBeTruthy();
     expect(screen.getByRole("button", { name: "Reopen" })).toBeTruthy();
-    const timeline = screen.getByRole("list", { name: "Every move" });
+    const timeline = screen.getByRole("list", { name: "History" });
     expect(timeline.textContent).toContain("Chair in place and labelled.");
     expect(calls.find((call) => call.method === "POST")?.body).toEqual({
       note: "Chair in place and labelled.",
@@ -243,7 +243,7 @@ describe("the action page", () => {
     const file = new File([new Uint8Array([0xff, 0xd8, 0xff])], "fix.jpg", { type: "image/jpeg" });
     await user.upload(await screen.findByLabelText("Add a photo of the fix"), file);
 
-    expect(await screen.findByRole("img", { name: "Proof of this attempt, photo 1" })).toBeTruthy();
+    expect(await screen.findByRole("img", { name: "Photos of the fix now, photo 1" })).toBeTruthy();
     const upload = calls.find((call) => call.method === "POST");
     expect(upload?.body).toBeInstanceOf(FormData);
     expect((upload?.body as FormData).get("photo")).toBeInstanceOf(File);
@@ -307,21 +307,21 @@ describe("the action page", () => {
         }),
     });
     const { user } = renderApp(actionUrl);
-    const send = await screen.findByRole("button", { name: "Send for verification" });
+    const send = await screen.findByRole("button", { name: "Ask for a check" });
     expect((send as HTMLButtonElement).disabled).toBe(false);
 
     const file = new File([new Uint8Array([0xff, 0xd8, 0xff])], "fix.jpg", { type: "image/jpeg" });
     await user.upload(screen.getByLabelText("Add a photo of the fix"), file);
     await waitFor(() =>
       expect(
-        (screen.getByRole("button", { name: "Send for verification" }) as HTMLButtonElement)
+        (screen.getByRole("button", { name: "Ask for a check" }) as HTMLButtonElement)
           .disabled,
       ).toBe(true),
     );
     finish(jsonResponse(detail, 201));
     await waitFor(() =>
       expect(
-        (screen.getByRole("button", { name: "Send for verification" }) as HTMLButtonElement)
+        (screen.getByRole("button", { name: "Ask for a check" }) as HTMLButtonElement)
           .disabled,
       ).toBe(false),
     );

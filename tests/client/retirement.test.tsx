@@ -348,7 +348,7 @@ describe("a retired space's history and actions", () => {
     renderApp(`/actions/${detail.action.id}`);
 
     expect(
-      await screen.findByText("Space retired — not counted as fixed", {}, { timeout: 3000 }),
+      await screen.findByText("Space retired (not a fix)", {}, { timeout: 3000 }),
     ).toBeTruthy();
     expect(screen.queryByText("Days to close")).toBeNull();
     expect(screen.getByText(/Doffing area 4 was retired on/)).toBeTruthy();

@@ -73,7 +73,7 @@ describe("a corrective action from e-mail to verified fix, on phones (390×844)"
       .getByRole("region", { name: new RegExp(`^Where ${action.space_name} is`) })
       .waitFor();
 
-    const start = lead.page.getByRole("button", { name: "Start work" });
+    const start = lead.page.getByRole("button", { name: "Start fixing" });
     if (action.status === "open") {
       await start.click();
       await lead.page.getByLabel("Note for the auditor").waitFor();
@@ -88,7 +88,7 @@ describe("a corrective action from e-mail to verified fix, on phones (390×844)"
     await lead.page
       .getByLabel("Note for the auditor")
       .fill("Dispensers moved to 1.3 m apart and refilled");
-    await lead.page.getByRole("button", { name: "Send for verification" }).click();
+    await lead.page.getByRole("button", { name: "Ask for a check" }).click();
     await lead.page.getByText("Sent for verification.").waitFor();
     expect(lead.problems).toEqual([]);
 
@@ -104,10 +104,10 @@ describe("a corrective action from e-mail to verified fix, on phones (390×844)"
     await auditor.page.waitForURL(new RegExp(`/actions/${action.id}$`));
     await auditor.page.getByRole("heading", { level: 1, name: action.title }).waitFor();
     await auditor.page
-      .getByLabel("Verification note")
+      .getByLabel("What you saw")
       .fill("Checked on the ward: spacing and stock right");
-    await auditor.page.getByRole("button", { name: "Verify and close" }).click();
-    await auditor.page.getByText("Verified and closed.").waitFor();
+    await auditor.page.getByRole("button", { name: "Confirm the fix" }).click();
+    await auditor.page.getByText("The fix is confirmed: this action is done.").waitFor();
 
     // Back on the floor plan, the map shows its pins but this one is gone.
     // A full page load: the floor's open actions come fresh from the server.
