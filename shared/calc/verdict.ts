@@ -11,9 +11,9 @@ export const verdicts = ["not_ready", "ready_with_conditions", "ready"] as const
 export type Verdict = (typeof verdicts)[number];
 
 export const verdictLabels: Record<Verdict, string> = {
-  not_ready: "Not ready",
-  ready_with_conditions: "Ready with conditions",
-  ready: "Ready",
+  not_ready: "Hold until fixed",
+  ready_with_conditions: "Gaps to fix",
+  ready: "All clear",
 };
 
 export type Outcome = "pass" | "fail" | "not_applicable";
