@@ -88,8 +88,10 @@ export function markerPath(shape: MarkerShape, cx: number, cy: number, r: number
   switch (shape) {
     case "circle":
     case "ring":
-    case "clock":
       return `M${n(cx - r)} ${n(cy)}a${n(r)} ${n(r)} 0 1 0 ${n(2 * r)} 0a${n(r)} ${n(r)} 0 1 0 ${n(-2 * r)} 0Z`;
+    case "clock":
+      // A ring with two hands.
+      return `${markerPath("ring", cx, cy, r)}M${n(cx)} ${n(cy - 0.55 * r)}V${n(cy)}l${n(0.35 * r)} ${n(0.25 * r)}`;
     case "triangle":
       return `M${n(cx)} ${n(cy - r)}L${n(cx + r)} ${n(cy + 0.8 * r)}H${n(cx - r)}Z`;
     case "diamond":
@@ -134,9 +136,5 @@ export function markerMarkup(name: MarkerName, size = 24): string {
   const paint = Object.entries(markerPaint(marker, size / 10))
     .map(([key, value]) => `${key}="${value}"`)
     .join(" ");
-  const hands =
-    marker.shape === "clock"
-      ? `<path d="M${c} ${n(c - r * 0.55)}V${c}l${n(r * 0.35)} ${n(r * 0.25)}" fill="none" stroke="${marker.colour}" stroke-width="${size / 10}" stroke-linecap="round"/>`
-      : "";
-  return `<path data-marker="${name}" d="${markerPath(marker.shape, c, c, r)}" ${paint}/>${hands}`;
+  return `<path data-marker="${name}" d="${markerPath(marker.shape, c, c, r)}" ${paint} stroke-linecap="round"/>`;
 }
