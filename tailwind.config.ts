@@ -1,7 +1,10 @@
 import type { Config } from "tailwindcss";
 
+import { actionStatePalette, severityPalette, verdictPalette } from "./src/components/ui/palette";
+
 // Lintel's design tokens. The palette is our own: a deep "slate-teal" brand, a warm "clay"
-// accent, and verdict colours chosen for AA contrast against white text and white backgrounds.
+// accent. Severity and verdict colours come from the one mark palette in
+// src/components/ui/palette.ts (shared with the map pins and charts, contrast-tested).
 export default {
   content: ["./index.html", "./src/**/*.{ts,tsx}"],
   theme: {
@@ -39,10 +42,19 @@ export default {
           sunken: "#f3f5f6",
           line: "#d7dde2",
         },
+        // Named by old verdict codes because forms, alerts and buttons reuse them as
+        // "good / warning / error"; the values are the mark palette's.
         verdict: {
-          ready: "#1d6b3a",
-          conditions: "#8a5a00",
-          "not-ready": "#a3212b",
+          ready: verdictPalette.all_clear,
+          conditions: verdictPalette.gaps_to_fix,
+          "not-ready": verdictPalette.hold,
+        },
+        severity: severityPalette,
+        action: {
+          "to-fix": actionStatePalette.to_fix,
+          fixing: actionStatePalette.fixing,
+          "to-check": actionStatePalette.to_check,
+          done: actionStatePalette.done,
         },
       },
       spacing: {

@@ -61,7 +61,9 @@ describe("open actions on the floor plan", () => {
     expect(byId.get(critical.id)?.classList.contains("is-overdue")).toBe(true);
     expect(byId.get(critical.id)?.querySelector(".lintel-action-pin-clock")).not.toBeNull();
     expect(byId.get(major.id)?.dataset.severity).toBe("major");
-    expect(byId.get(major.id)?.querySelector(".lintel-action-pin-tick")).not.toBeNull();
+    expect(
+      byId.get(major.id)?.querySelector('.lintel-action-pin-check[data-mark="to_check"]'),
+    ).not.toBeNull();
     expect(byId.get(minor.id)?.dataset.severity).toBe("minor");
 
     const marker = byId.get(critical.id)!.closest(".leaflet-marker-icon")!;
@@ -69,7 +71,7 @@ describe("open actions on the floor plan", () => {
       "Critical, overdue: Dirty chair present and labelled — Doffing area 4",
     );
     expect(byId.get(major.id)!.closest(".leaflet-marker-icon")!.getAttribute("title")).toBe(
-      "Major, awaiting verification: Hands-free lidded bin — Doffing area 4",
+      "Major, fix to check: Hands-free lidded bin — Doffing area 4",
     );
     const asked = calls.find((call) => call.path === `/api/sites/${tamsinGeneral.id}/actions`);
     expect(asked).toBeTruthy();

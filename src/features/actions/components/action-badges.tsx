@@ -1,34 +1,26 @@
 import type { Severity } from "@shared/calc/verdict";
-import { type ActionState, actionStateLabels } from "@shared/schemas/actions";
+import { type ActionState, actionStateLabels } from "@shared/workflow/action-workflow";
 
-import { Badge, type BadgeTone } from "@/components/ui/badge";
+import { type MarkerName, markerMarkup } from "@/components/ui/markers";
+import { Mark } from "@/components/ui/marks";
 import { cn } from "@/lib/cn";
 
 import { severityLabels } from "../lib/action-labels";
-import { awaitingGlyph, overdueGlyph, severityColours, severityGlyphs } from "../lib/action-pins";
 
-function Glyph({
-  glyph,
-  className,
-  colour,
-}: {
-  glyph: string;
-  className?: string;
-  colour?: string;
-}) {
+function Marker({ name, className }: { name: MarkerName; className?: string }) {
   return (
     <svg
       aria-hidden="true"
       focusable="false"
       viewBox="0 0 24 24"
       className={cn("size-4 shrink-0", className)}
-      style={colour ? { color: colour } : undefined}
-      // Fixed markup from our own symbol table, shared with the map pins.
-      dangerouslySetInnerHTML={{ __html: glyph }}
+      // Fixed markup from the one marker vocabulary, shared with the map pins.
+      dangerouslySetInnerHTML={{ __html: markerMarkup(name) }}
     />
   );
 }
 
+/** A severity's own shape from the marker vocabulary: diamond, square or hexagon. */
 export function SeveritySymbol({
   severity,
   className,
@@ -36,68 +28,58 @@ export function SeveritySymbol({
   severity: Severity;
   className?: string;
 }) {
-  return (
-    <Glyph
-      glyph={severityGlyphs[severity]}
-      colour={severityColours[severity]}
-      className={className}
-    />
-  );
+  return <Marker name={severity} className={className} />;
 }
 
 export function OverdueSymbol({ className }: { className?: string }) {
-  return <Glyph glyph={overdueGlyph} colour="#a3212b" className={className} />;
+  return <Marker name="overdue" className={className} />;
 }
 
+/** The "Fix to check" mark: proof is waiting for an auditor to look. */
 export function AwaitingSymbol({ className }: { className?: string }) {
-  return <Glyph glyph={awaitingGlyph} colour="#1f6b3a" className={className} />;
+  return <Mark meaning="to_check" className={className} />;
 }
 
 const severityTones: Record<Severity, string> = {
-  critical: "border-verdict-not-ready/40 bg-verdict-not-ready/10 text-verdict-not-ready",
-  major: "border-verdict-conditions/40 bg-verdict-conditions/10 text-verdict-conditions",
-  minor: "border-brand-200 bg-brand-50 text-brand-800",
+  critical: "border-severity-critical/40 bg-severity-critical/10 text-severity-critical",
+  major: "border-severity-major/40 bg-severity-major/10 text-severity-major",
+  minor: "border-severity-minor/40 bg-severity-minor/10 text-severity-minor",
 };
+
+const chip =
+  "inline-flex items-center gap-1.5 rounded-full border px-2.5 py-0.5 text-sm font-semibold whitespace-nowrap";
 
 /** Severity as shape and word together, so it reads without colour. */
 export function SeverityBadge({ severity, className }: { severity: Severity; className?: string }) {
   return (
-    <span
-      className={cn(
-        "inline-flex items-center gap-1.5 rounded-full border px-2.5 py-0.5 text-sm font-semibold whitespace-nowrap",
-        severityTones[severity],
-        className,
-      )}
-    >
+    <span className={cn(chip, severityTones[severity], className)}>
       <SeveritySymbol severity={severity} />
       {severityLabels[severity]}
     </span>
   );
 }
 
-const statusTones: Record<ActionState, BadgeTone> = {
-  to_fix: "neutral",
-  fixing: "pending",
-  to_check: "neutral",
-  done: "positive",
+const statusTones: Record<ActionState, string> = {
+  to_fix: "border-action-to-fix/40 bg-action-to-fix/10 text-action-to-fix",
+  fixing: "border-action-fixing/40 bg-action-fixing/10 text-action-fixing",
+  to_check: "border-action-to-check/40 bg-action-to-check/10 text-action-to-check",
+  done: "border-action-done/40 bg-action-done/10 text-action-done",
 };
 
+/** Where an action stands: its doorway mark (see `marks.tsx`) and its words. */
 export function StatusBadge({ status, className }: { status: ActionState; className?: string }) {
   return (
-    <Badge tone={statusTones[status]} className={cn("gap-1.5", className)}>
-      {status === "to_check" ? <AwaitingSymbol /> : null}
+    <span className={cn(chip, statusTones[status], className)} data-status={status}>
+      <Mark meaning={status} />
       {actionStateLabels[status]}
-    </Badge>
+    </span>
   );
 }
 
 export function OverdueMark({ className }: { className?: string }) {
   return (
     <span
-      className={cn(
-        "inline-flex items-center gap-1.5 rounded-full border border-verdict-not-ready bg-verdict-not-ready px-2.5 py-0.5 text-sm font-semibold whitespace-nowrap text-white",
-        className,
-      )}
+      className={cn(chip, "border-severity-critical bg-severity-critical text-white", className)}
     >
       <svg aria-hidden="true" viewBox="0 0 24 24" className="size-4 shrink-0">
         <circle cx="12" cy="12" r="8.5" fill="none" stroke="currentColor" strokeWidth="2.4" />

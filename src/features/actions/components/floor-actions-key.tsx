@@ -78,7 +78,7 @@ export function FloorActionsKey({
         </li>
         <li className="flex items-center gap-2">
           <AwaitingSymbol className="size-5" />
-          Fix to check (photo sent to an auditor)
+          Fix to check (proof sent, an auditor must look)
         </li>
       </ul>
     </Card>

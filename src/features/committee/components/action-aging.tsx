@@ -1,6 +1,7 @@
 import { ageBuckets, type TrendsResponse } from "@shared/schemas/committee";
 import { Bar, BarChart, CartesianGrid, XAxis, YAxis } from "recharts";
 
+import { markerPath, markers } from "@/components/ui/markers";
 import { cn } from "@/lib/cn";
 
 import { ageBucketColours, axisTick, chartColours, tableStyles } from "../lib/chart-style";
@@ -18,7 +19,14 @@ const titles: Record<Measure, string> = {
 
 const legend: LegendEntry[] = ageBuckets.map((bucket) => ({
   label: ageBucketLabels[bucket],
-  mark: <rect x="2" y="2" width="12" height="12" rx="2" fill={ageBucketColours[bucket]} />,
+  // A bar swatch (the vocabulary's "bar" shape) in the bucket's colour.
+  mark: (
+    <path
+      data-marker="barColour"
+      d={markerPath(markers.barColour.shape, 8, 8, 7)}
+      fill={ageBucketColours[bucket]}
+    />
+  ),
 }));
 
 const totalOf = (buckets: Aging[number]["open"]) =>

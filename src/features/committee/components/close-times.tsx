@@ -2,6 +2,7 @@ import { severities } from "@shared/calc/verdict";
 import type { TrendsResponse } from "@shared/schemas/committee";
 import { Bar, BarChart, CartesianGrid, XAxis, YAxis } from "recharts";
 
+import { Marker } from "@/components/ui/marker";
 import { cn } from "@/lib/cn";
 
 import { axisTick, chartColours, severityColours, tableStyles } from "../lib/chart-style";
@@ -13,7 +14,8 @@ type CloseTimes = TrendsResponse["closeTimes"];
 
 const legend: LegendEntry[] = severities.map((severity) => ({
   label: severityLabels[severity],
-  mark: <rect x="2" y="2" width="12" height="12" rx="2" fill={severityColours[severity]} />,
+  // The severity's own shape in its colour: the bars of that colour are that severity.
+  mark: <Marker name={severity} cx={8} cy={8} r={6} strokeWidth={1.8} />,
 }));
 
 const daysText = (days: number) => `${days.toLocaleString()} ${days === 1 ? "day" : "days"}`;

@@ -45,11 +45,6 @@ function ReadinessCells({ proportion }: { proportion: Proportion }) {
 type VerdictTally = ComparisonResponse["sites"][number]["verdicts"];
 
 const verdictOrder = ["all_clear", "gaps_to_fix", "hold"] as const;
-const verdictTones = {
-  all_clear: "text-verdict-ready",
-  gaps_to_fix: "text-verdict-conditions",
-  hold: "text-verdict-not-ready",
-} as const;
 
 /**
  * The three verdict counts, one per line, each behind the verdict's own shape (the word is there
@@ -60,7 +55,7 @@ function VerdictCounts({ verdicts }: { verdicts: VerdictTally }) {
     <ul className="whitespace-nowrap">
       {verdictOrder.map((verdict) => (
         <li key={verdict} title={verdictLabels[verdict]} className="flex items-center gap-1.5">
-          <VerdictIcon verdict={verdict} className={verdictTones[verdict]} />
+          <VerdictIcon verdict={verdict} />
           <span className="sr-only">{`${verdictLabels[verdict]}: `}</span>
           <span className="tabular-nums">{verdicts[verdict].toLocaleString()}</span>
         </li>
@@ -217,8 +212,9 @@ export function ComparisonSection({ comparison, siteHref }: ComparisonSectionPro
         Readiness by site
       </h2>
       <p className="max-w-prose text-ink-muted">
-        Readiness is the share of audits whose verdict was “ready”. Each figure comes with its 95%
-        interval: the range the true rate most likely lies in, given how many audits there were.
+        {`Readiness is the share of audits whose verdict was “${verdictLabels.all_clear}”.`} Each
+        figure comes with its 95% interval: the range the true rate most likely lies in, given how
+        many audits there were.
       </p>
       <ReadinessChart
         comparison={comparison}
@@ -227,7 +223,7 @@ export function ComparisonSection({ comparison, siteHref }: ComparisonSectionPro
       <ul aria-hidden="true" className="flex flex-wrap gap-x-4 gap-y-1 text-sm text-ink-muted">
         {verdictOrder.map((verdict) => (
           <li key={verdict} className="flex items-center gap-1.5">
-            <VerdictIcon verdict={verdict} className={verdictTones[verdict]} />
+            <VerdictIcon verdict={verdict} />
             {verdictLabels[verdict]}
           </li>
         ))}

@@ -1,6 +1,8 @@
 import type { TrendsResponse } from "@shared/schemas/committee";
 import { CartesianGrid, ComposedChart, Line, ReferenceLine, XAxis, YAxis } from "recharts";
 
+import { Marker } from "@/components/ui/marker";
+import { chartLines, markers } from "@/components/ui/markers";
 import { cn } from "@/lib/cn";
 
 import { axisTick, chartColours, tableStyles } from "../lib/chart-style";
@@ -23,35 +25,40 @@ export function outsideText(point: TrendPoint): string {
   return point.p > point.upper ? "above the upper limit" : "below the lower limit";
 }
 
-/** A diamond in the accent colour for a month outside the limits, a small dot for the others. */
+/** A triangle for a month outside the limits, a small solid circle for the others. */
 function MonthMark(props: unknown) {
   const { cx, cy, payload } = props as { cx?: number; cy?: number; payload?: ChartRow };
   if (cx === undefined || cy === undefined) return <g />;
   return payload?.outside ? (
-    <path
-      d={`M${cx} ${cy - 8} L${cx + 8} ${cy} L${cx} ${cy + 8} L${cx - 8} ${cy} Z`}
-      fill={chartColours.clay}
-      stroke="white"
-      strokeWidth={1.5}
-    />
+    <Marker name="outsideLimits" cx={cx} cy={cy} r={8} strokeWidth={3} />
   ) : (
-    <circle cx={cx} cy={cy} r={4} fill={chartColours.brand} stroke="white" strokeWidth={1} />
+    <Marker name="readiness" cx={cx} cy={cy} r={4.5} />
   );
 }
 
 const legend = (centre: number): LegendEntry[] => [
-  { label: "Monthly readiness", mark: <circle cx="8" cy="8" r="4" fill={chartColours.brand} /> },
   {
-    label: "Outside the limits",
-    mark: <path d="M8 1.5 14.5 8 8 14.5 1.5 8Z" fill={chartColours.clay} />,
+    label: "Readiness of a month",
+    mark: <Marker name="readiness" cx={8} cy={8} r={4.5} />,
   },
   {
-    label: `Centre line (${percentText(centre)})`,
-    mark: <path d="M1 8h14" stroke={chartColours.inkMuted} strokeWidth="2" />,
+    label: markers.outsideLimits.words,
+    mark: <Marker name="outsideLimits" cx={8} cy={8.5} r={6.5} />,
   },
   {
-    label: "Control limits (3 sigma, for each month's audits)",
-    mark: <path d="M1 8h14" stroke={chartColours.clay} strokeWidth="1.5" strokeDasharray="3 2" />,
+    label: `${chartLines.centre.words} (${percentText(centre)})`,
+    mark: <path d="M1 8h14" stroke={chartLines.centre.colour} strokeWidth="2" />,
+  },
+  {
+    label: `${chartLines.limits.words} (3 sigma, for each month's audits)`,
+    mark: (
+      <path
+        d="M1 8h14"
+        stroke={chartLines.limits.colour}
+        strokeWidth="1.5"
+        strokeDasharray={chartLines.limits.dash}
+      />
+    ),
   },
 ];
 
@@ -163,16 +170,20 @@ export function PChart({ site }: PChartProps) {
                   tick={axisTick}
                   width={48}
                 />
-                <ReferenceLine y={centre * 100} stroke={chartColours.inkMuted} strokeWidth={2} />
+                <ReferenceLine
+                  y={centre * 100}
+                  stroke={chartLines.centre.colour}
+                  strokeWidth={chartLines.centre.width}
+                />
                 {/* The 3-sigma limits, stepping with each month's number of audits. */}
                 {(["upper", "lower"] as const).map((limit) => (
                   <Line
                     key={limit}
                     dataKey={limit}
                     type="step"
-                    stroke={chartColours.clay}
-                    strokeDasharray="5 3"
-                    strokeWidth={1.5}
+                    stroke={chartLines.limits.colour}
+                    strokeDasharray={chartLines.limits.dash}
+                    strokeWidth={chartLines.limits.width}
                     dot={false}
                     activeDot={false}
                     isAnimationActive={false}

@@ -10,6 +10,9 @@ import {
   YAxis,
 } from "recharts";
 
+import { Marker } from "@/components/ui/marker";
+import { chartLines, markers } from "@/components/ui/markers";
+
 import { axisTick, chartColours } from "../lib/chart-style";
 import { intervalText, percentText } from "../lib/committee-format";
 import { ChartFigure, type LegendEntry } from "./chart-figure";
@@ -23,48 +26,47 @@ interface Point {
   small: boolean;
 }
 
-/** A filled circle for a ranked site, a hollow diamond for a small sample: shape, not colour alone. */
+/** A solid circle for a ranked site, a ring for a small sample: shape, not colour alone. */
 function SiteMark(props: unknown) {
   const { cx, cy, payload } = props as { cx?: number; cy?: number; payload?: Point };
   if (cx === undefined || cy === undefined) return <g />;
   return payload?.small ? (
-    <path
-      d={`M${cx} ${cy - 8} L${cx + 8} ${cy} L${cx} ${cy + 8} L${cx - 8} ${cy} Z`}
-      fill="white"
-      stroke={chartColours.clay}
-      strokeWidth={2.5}
-    />
+    <Marker name="smallSample" cx={cx} cy={cy} r={7} strokeWidth={2.5} />
   ) : (
-    <circle cx={cx} cy={cy} r={7} fill={chartColours.brand} />
+    <Marker name="readiness" cx={cx} cy={cy} r={7} />
   );
 }
 
 const legend: LegendEntry[] = [
   {
-    label: "Readiness, ranked",
-    mark: <circle cx="8" cy="8" r="5" fill={chartColours.brand} />,
+    label: "Readiness of a site, ranked",
+    mark: <Marker name="readiness" cx={8} cy={8} r={5} />,
   },
   {
-    label: "Small sample, not ranked",
+    label: markers.smallSample.words,
+    mark: <Marker name="smallSample" cx={8} cy={8} r={5} />,
+  },
+  {
+    label: chartLines.interval.words,
     mark: (
       <path
-        d="M8 2.5 13.5 8 8 13.5 2.5 8Z"
-        fill="white"
-        stroke={chartColours.clay}
-        strokeWidth="2"
+        d="M2 8h12M2 5v6M14 5v6"
+        stroke={chartLines.interval.colour}
+        strokeWidth="1.5"
+        fill="none"
       />
     ),
   },
   {
-    label: "95% interval",
+    label: chartLines.allSites.words,
     mark: (
-      <path d="M2 8h12M2 5v6M14 5v6" stroke={chartColours.inkMuted} strokeWidth="1.5" fill="none" />
-    ),
-  },
-  {
-    label: "All sites together",
-    mark: (
-      <path d="M8 1v14" stroke={chartColours.inkMuted} strokeWidth="1.5" strokeDasharray="3 2" />
+      <path
+        d="M8 1v14"
+        stroke={chartLines.allSites.colour}
+        strokeWidth="2"
+        strokeDasharray={chartLines.allSites.dash}
+        strokeLinecap="round"
+      />
     ),
   },
 ];
@@ -129,8 +131,10 @@ export function ReadinessChart({ comparison, table }: ReadinessChartProps) {
           {comparison.network.rate !== null ? (
             <ReferenceLine
               x={comparison.network.rate * 100}
-              stroke={chartColours.inkMuted}
-              strokeDasharray="4 3"
+              stroke={chartLines.allSites.colour}
+              strokeWidth={chartLines.allSites.width}
+              strokeDasharray={chartLines.allSites.dash}
+              strokeLinecap="round"
               ifOverflow="extendDomain"
             />
           ) : null}
@@ -139,8 +143,8 @@ export function ReadinessChart({ comparison, table }: ReadinessChartProps) {
               dataKey="whisker"
               direction="x"
               width={10}
-              stroke={chartColours.inkMuted}
-              strokeWidth={2}
+              stroke={chartLines.interval.colour}
+              strokeWidth={chartLines.interval.width}
               isAnimationActive={false}
             />
           </Scatter>

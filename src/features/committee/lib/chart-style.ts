@@ -1,14 +1,15 @@
 import type { Severity } from "@shared/calc/verdict";
 import type { AgeBucket } from "@shared/schemas/committee";
 
+import { chartPalette, severityPalette } from "@/components/ui/palette";
+
 /** The design tokens the charts draw with (SVG attributes cannot take Tailwind classes). */
 export const chartColours = {
-  brand: "#1a4a4d",
-  brandSoft: "#6fb0b2",
-  clay: "#9a4f22",
-  ink: "#17212b",
-  inkMuted: "#4a5866",
-  grid: "#d7dde2",
+  brand: chartPalette.value,
+  clay: chartPalette.flagged,
+  ink: chartPalette.ink,
+  inkMuted: chartPalette.reference,
+  grid: chartPalette.grid,
 } as const;
 
 /** Lighter to darker with age; the oldest in the warm accent so it stands out. */
@@ -19,11 +20,7 @@ export const ageBucketColours: Record<AgeBucket, string> = {
   "90+": "#9a4f22",
 };
 
-export const severityColours: Record<Severity, string> = {
-  critical: "#a3212b",
-  major: "#8a5a00",
-  minor: "#3f8d90",
-};
+export const severityColours: Record<Severity, string> = severityPalette;
 
 export const axisTick = { fill: chartColours.inkMuted, fontSize: 12 } as const;
 
