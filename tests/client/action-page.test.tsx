@@ -57,7 +57,7 @@ describe("the action page", () => {
     expect(photo.getAttribute("src")).toContain("variant=thumb");
     expect(photo.closest("a")?.getAttribute("href")).toContain("variant=display");
     const timeline = screen.getByRole("list", { name: "History" });
-    expect(timeline.textContent).toContain("Opened from a failed item");
+    expect(timeline.textContent).toContain("Raised from a finding");
     expect(
       await screen.findByRole("region", { name: "Where Doffing area 4 is on Ward 4 East" }),
     ).toBeTruthy();
@@ -85,7 +85,7 @@ describe("the action page", () => {
     expect(screen.getByLabelText("Note for the auditor")).toBeTruthy();
     expect(
       screen.getByText(
-        "A photo of this attempt is needed before the fix can be sent for verification.",
+        "A photo of the fix is needed before you can \"Ask for a check\".",
       ),
     ).toBeTruthy();
     expect(screen.queryByRole("button", { name: "Start fixing" })).toBeNull();
@@ -98,7 +98,7 @@ describe("the action page", () => {
     expect(await screen.findByRole("button", { name: "Confirm the fix" })).toBeTruthy();
     expect(screen.getByLabelText("What you saw")).toBeTruthy();
     expect(screen.getByLabelText("Why it goes back")).toBeTruthy();
-    expect(moveButtons()).toEqual(["Confirm the fix", "Reject"]);
+    expect(moveButtons()).toEqual(["Confirm the fix", "Send back"]);
     expect(screen.queryByLabelText("Add a photo of the fix")).toBeNull();
   });
 
@@ -109,7 +109,7 @@ describe("the action page", () => {
     await screen.findByRole("heading", { name: "What happens next" });
     expect(moveButtons()).toEqual([]);
     expect(
-      screen.getByText("Its owner is working on the fix."),
+      screen.getByText("Raised from a finding; nobody has started on it yet."),
     ).toBeTruthy();
   });
 

@@ -177,7 +177,7 @@ describe("the committee trends", () => {
       within(list)
         .getAllByRole("listitem")
         .map((item) => item.textContent),
-    ).toEqual(["March 2026: 30.0% ready (12 of 40 audits), below the lower limit of 48.0%."]);
+    ).toEqual(["March 2026: 30.0% all clear (12 of 40 audits), below the lower limit of 48.0%."]);
     expect(
       screen.queryByRole("list", { name: `Months outside the limits at ${orchardHill.name}` }),
     ).toBeNull();
