@@ -5,15 +5,22 @@
 export const severities = ["critical", "major", "minor"] as const;
 export type Severity = (typeof severities)[number];
 
+/** Severity as people read it, in screens and in every export cell. */
+export const severityLabels: Record<Severity, string> = {
+  critical: "Critical",
+  major: "Major",
+  minor: "Minor",
+};
+
 export const severityWeights: Record<Severity, number> = { critical: 5, major: 3, minor: 1 };
 
 export const verdicts = ["not_ready", "ready_with_conditions", "ready"] as const;
 export type Verdict = (typeof verdicts)[number];
 
 export const verdictLabels: Record<Verdict, string> = {
-  not_ready: "Not ready",
-  ready_with_conditions: "Ready with conditions",
-  ready: "Ready",
+  not_ready: "Hold until fixed",
+  ready_with_conditions: "Gaps to fix",
+  ready: "All clear",
 };
 
 export type Outcome = "pass" | "fail" | "not_applicable";

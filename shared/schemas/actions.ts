@@ -10,10 +10,10 @@ export const actionStatuses = ["open", "in_progress", "awaiting_verification", "
 export type ActionStatus = (typeof actionStatuses)[number];
 
 export const actionStatusLabels: Record<ActionStatus, string> = {
-  open: "Open",
-  in_progress: "In progress",
-  awaiting_verification: "Awaiting verification",
-  closed: "Closed",
+  open: "To fix",
+  in_progress: "Being fixed",
+  awaiting_verification: "Fix to check",
+  closed: "Done",
 };
 
 export const actionParamsSchema = z.strictObject({ actionId: uuidSchema });

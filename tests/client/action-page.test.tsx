@@ -47,7 +47,7 @@ describe("the action page", () => {
     ).toBeTruthy();
     expect(screen.getByText(/Doffing area 4 \(Doffing area\)/)).toBeTruthy();
     expect(screen.getByText("Critical")).toBeTruthy();
-    expect(screen.getByText("Open")).toBeTruthy();
+    expect(screen.getByText("To fix")).toBeTruthy();
     expect(screen.getByText("Overdue")).toBeTruthy();
     // 08:00 UTC on 31 March 2026 is 09:00 British Summer Time.
     expect(screen.getByText("Tue 31 Mar 2026, 09:00 BST")).toBeTruthy();

@@ -61,7 +61,7 @@ describe("my actions on the home page", () => {
     );
     expect(cards[0]!.textContent).toContain("Sun 29 Mar 2026, 09:00 BST");
     expect(within(cards[1]!).queryByText("Overdue")).toBeNull();
-    expect(within(cards[1]!).getByText("In progress")).toBeTruthy();
+    expect(within(cards[1]!).getByText("Being fixed")).toBeTruthy();
     expect(within(cards[0]!).getByRole("link").getAttribute("href")).toBe(
       `/actions/${overdueCritical.id}`,
     );

@@ -91,9 +91,9 @@ describe("a space's audit history", () => {
     const rows = within(screen.getByRole("list", { name: "Audits" })).getAllByRole("link");
     expect(rows).toHaveLength(2);
     expect(rows[0]!.textContent).toContain("Rowan Ellery");
-    expect(rows[0]!.textContent).toContain("Not ready");
+    expect(rows[0]!.textContent).toContain("Hold until fixed");
     expect(rows[0]!.textContent).toContain("50%");
-    expect(rows[1]!.textContent).toContain("Ready");
+    expect(rows[1]!.textContent).toContain("All clear");
     expect(rows[1]!.textContent).toContain("100%");
     expect(rows[0]!.getAttribute("href")).toBe(`/audits/${auditId}`);
     expect(screen.getByRole("link", { name: "Start audit" })).toBeTruthy();
@@ -124,7 +124,7 @@ describe("a space's audit history", () => {
     renderApp(`/audits/${auditId}`);
 
     expect(await screen.findByRole("heading", { level: 1, name: "Isolation room 1" })).toBeTruthy();
-    expect(screen.getByRole("heading", { level: 2, name: "Not ready" })).toBeTruthy();
+    expect(screen.getByRole("heading", { level: 2, name: "Hold until fixed" })).toBeTruthy();
     const answers = screen.getByRole("list", { name: "All answers" });
     expect(within(answers).getByText("\u22120.008 in. w.c.")).toBeTruthy();
     expect(within(answers).getByText("100 cfm")).toBeTruthy();
@@ -151,7 +151,7 @@ describe("why an audit's verdict is what it is", () => {
     });
     renderApp(`/audits/${auditId}`);
 
-    expect(await screen.findByRole("heading", { level: 2, name: "Not ready" })).toBeTruthy();
+    expect(await screen.findByRole("heading", { level: 2, name: "Hold until fixed" })).toBeTruthy();
     const why = screen.getByRole("list", { name: "Why" });
     expect(
       within(why)
@@ -170,7 +170,7 @@ describe("why an audit's verdict is what it is", () => {
     });
     renderApp(`/audits/${auditId}`);
 
-    expect(await screen.findByRole("heading", { level: 2, name: "Not ready" })).toBeTruthy();
+    expect(await screen.findByRole("heading", { level: 2, name: "Hold until fixed" })).toBeTruthy();
     expect(screen.queryByRole("list", { name: "Why" })).toBeNull();
     expect(screen.getByText("Decided by Lintel's readiness rules, version 1.")).toBeTruthy();
   });

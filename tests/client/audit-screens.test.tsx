@@ -218,8 +218,8 @@ describe("what is due", () => {
     expect(names).toEqual(["Doffing area 1", "Isolation room 2"]);
     const groups = screen.getAllByRole("heading", { level: 2 }).map((h) => h.textContent);
     expect(groups).toEqual(["Overdue (2)", "Due soon (1)", "Up to date (1)"]);
-    expect(within(overdue).getByText("Not ready")).toBeTruthy();
-    expect(within(overdue).getByText("Ready with conditions")).toBeTruthy();
+    expect(within(overdue).getByText("Hold until fixed")).toBeTruthy();
+    expect(within(overdue).getByText("Gaps to fix")).toBeTruthy();
     expect(within(overdue).getAllByRole("link", { name: "Start audit" })).toHaveLength(2);
   });
 
@@ -378,7 +378,7 @@ describe("an audit on the phone", () => {
     await screen.findByRole("heading", { name: "Review and submit" });
     await user.click(screen.getByRole("button", { name: "Submit audit" }));
 
-    expect(await screen.findByRole("heading", { level: 2, name: "Not ready" })).toBeTruthy();
+    expect(await screen.findByRole("heading", { level: 2, name: "Hold until fixed" })).toBeTruthy();
     expect(screen.getByText("Provisional")).toBeTruthy();
     expect(server.submits).toBe(0);
 
@@ -387,7 +387,7 @@ describe("an audit on the phone", () => {
     window.dispatchEvent(new Event("online"));
 
     expect(await screen.findByText("All changes saved", {}, { timeout: 3000 })).toBeTruthy();
-    expect(screen.getByRole("heading", { level: 2, name: "Not ready" })).toBeTruthy();
+    expect(screen.getByRole("heading", { level: 2, name: "Hold until fixed" })).toBeTruthy();
     expect(screen.queryByText("Provisional")).toBeNull();
     expect(server.submits).toBe(1);
     expect(server.photoIds).toHaveLength(1);

@@ -274,7 +274,7 @@ describe("the committee drill-down", () => {
     const row = within(table).getByRole("row", { name: /Doffing area 4/ });
     expect(within(row).getByText("75.0%")).toBeTruthy();
     expect(within(row).getByText("46.8% – 91.1%")).toBeTruthy();
-    expect(within(row).getByText("Ready with conditions")).toBeTruthy();
+    expect(within(row).getByText("Gaps to fix")).toBeTruthy();
     expect(
       within(row)
         .getByRole("link", { name: "Audit history of Doffing area 4" })

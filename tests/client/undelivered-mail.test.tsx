@@ -130,7 +130,7 @@ describe("fixes to verify on the auditor's home page", () => {
     const card = within(list).getByRole("link");
     expect(card.getAttribute("href")).toBe(`/actions/${actionId}`);
     expect(within(card).getByText("Critical")).toBeTruthy();
-    expect(within(card).getByText("Awaiting verification")).toBeTruthy();
+    expect(within(card).getByText("Fix to check")).toBeTruthy();
     expect(within(card).getByText(/fixed by Jonah Whitlock/)).toBeTruthy();
     await waitFor(() => expect(screen.queryByText(/could not be loaded/)).toBeNull());
   });

@@ -59,7 +59,7 @@ describe("an isolation room whose airflow nobody confirmed (390×844)", () => {
       await page.getByRole("button", { name: "Next", exact: true }).click();
     }
     await page.getByRole("button", { name: "Submit audit" }).click();
-    await page.getByRole("heading", { level: 2, name: "Not ready" }).waitFor();
+    await page.getByRole("heading", { level: 2, name: "Hold until fixed" }).waitFor();
     const why = page.getByRole("list", { name: "Why" });
     await why.getByText(/^Inward airflow not confirmed/).waitFor();
     await page.getByText("All changes saved").waitFor({ timeout: 30_000 });

@@ -76,7 +76,7 @@ describe("an audit on a phone that loses its connection half-way (390×844)", ()
     }
 
     await page.getByRole("button", { name: "Submit audit" }).click();
-    await page.getByRole("heading", { level: 2, name: "Not ready" }).waitFor();
+    await page.getByRole("heading", { level: 2, name: "Hold until fixed" }).waitFor();
     await page.getByText("Provisional").first().waitFor();
 
     // Back online: the phone sends what it kept, by itself.

@@ -529,7 +529,7 @@ describe("corrective actions", () => {
     expect(dues).toEqual([...dues].sort());
   });
 
-  it("when the list is exported, then the CSV has a header, one row per action with formula-like text defused, and the caution last", async () => {
+  it("when the list is exported, then the CSV has a header, one row per action with formula-like text defused and severity and state in words, and the caution last", async () => {
     const { db } = testApp().deps;
     const space = await insertSpace(db, floor);
     await submitWithFailures(space, ["Spare clean gloves in several sizes"]);
@@ -548,7 +548,7 @@ describe("corrective actions", () => {
     );
     const lines = response.text.replace(/^\uFEFF/, "").split("\n");
     expect(lines[0]).toBe(
-      "id,site,floor,space,zone type,item,severity,status,owner,opened (UTC),due (UTC),due (site time),overdue,closed (UTC),days to close,findings,link",
+      "id,site,floor,space,zone type,item,severity,state,owner,opened (UTC),due (UTC),due (site time),overdue,closed (UTC),days to close,findings,link",
     );
     expect(lines[1]).toContain(`"'=HYPERLINK(""x"")"`);
     const { rows, objects } = readExport(response.text);
@@ -556,6 +556,8 @@ describe("corrective actions", () => {
     expect(objects[0]).toMatchObject({
       id: action!.id,
       item: `'=HYPERLINK("x")`,
+      severity: { critical: "Critical", major: "Major", minor: "Minor" }[action!.severity],
+      state: "To fix",
       link: `http://lintel.test/actions/${action!.id}`,
     });
   });

@@ -1,6 +1,7 @@
 import { stringify } from "csv-stringify/sync";
 
 import { formatInZone } from "@shared/calc/due";
+import { severityLabels } from "@shared/calc/verdict";
 import type { Permission } from "@shared/permissions";
 import {
   actionListQuerySchema,
@@ -41,7 +42,7 @@ const actionExportColumns = [
   "zone type",
   "item",
   "severity",
-  "status",
+  "state",
   "owner",
   "opened (UTC)",
   "due (UTC)",
@@ -84,7 +85,7 @@ export const actionRoutes = [
             row.spaceName,
             zoneTypeLabels[row.zoneType],
             row.title,
-            row.severity,
+            severityLabels[row.severity],
             actionStatusLabels[row.status],
             row.assignee?.name ?? "",
             row.openedAt,

@@ -1,12 +1,7 @@
-import type { Severity } from "@shared/calc/verdict";
 import { formatInZone } from "@shared/calc/due";
 import type { ActionSummary, TimelineKind } from "@shared/schemas/actions";
 
-export const severityLabels: Record<Severity, string> = {
-  critical: "Critical",
-  major: "Major",
-  minor: "Minor",
-};
+export { severityLabels } from "@shared/calc/verdict";
 
 /** The due time as the site's clock shows it, so everyone reads the same deadline. */
 export function dueText(action: Pick<ActionSummary, "dueAt" | "siteTimeZone">): string {
