@@ -73,7 +73,7 @@ function columnsFor(actionHref: (actionId: string) => string) {
       cell: (info) => <SeverityBadge severity={info.getValue()} />,
     }),
     column.accessor("status", {
-      header: "Status",
+      header: "State",
       filterFn: stateFilter,
       sortingFn: rankOf(statusOrder, (action) => action.status),
       cell: (info) => <StatusBadge status={info.getValue()} />,
