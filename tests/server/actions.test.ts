@@ -585,6 +585,14 @@ describe("corrective actions", () => {
     expect((await actionsOf(space.id))[0]).toMatchObject({ id: action!.id, status: "open" });
   });
 
+  it("when an action's address carries a broken id, then 400 names the field in plain words", async () => {
+    const response = await as(auditor).get("/api/actions/not-an-id");
+    expect(response.status).toBe(400);
+    expect(response.body.error.fields).toEqual({
+      actionId: "This does not point to anything in Lintel; choose it again from the list.",
+    });
+  });
+
   it("when the list filter is unknown, then 400 names the field", async () => {
     const response = await as(auditor).get(`/api/sites/${siteId}/actions?state=sometimes`);
     expect(response.status).toBe(400);
