@@ -121,8 +121,8 @@ const cellPlacement: Record<string, string> = {
 const labelledOnPhone = new Set(["space", "floor", "owner", "due", "daysToClose"]);
 
 const stateOptions = [
-  { value: "open", label: "Open (not yet closed)" },
-  { value: "closed", label: "Closed" },
+  { value: "open", label: "Not done yet" },
+  { value: "closed", label: "Done" },
   { value: "all", label: "All" },
 ];
 
