@@ -49,8 +49,8 @@ function MailboxPage() {
       </p>
       <Alert tone="info" title="Only in the demo" className="mt-3 mb-6">
         <p>
-          Nothing here leaves this machine. A real deployment sends real e-mail to each person's
-          own inbox instead, and this page is not there.
+          Nothing here leaves this machine. A real deployment sends real e-mail to each person's own
+          inbox instead, and this page is not there.
         </p>
       </Alert>
       <Mailbox />

@@ -35,7 +35,8 @@ export function MyActions({ actionHref, showAll = false, headingLevel = 2 }: MyA
       </Heading>
       {headingLevel === 1 ? (
         <p className="mt-1 text-ink-muted">
-          The fixes you own, overdue first. Open one to start fixing it or to send a photo of the fix.
+          The fixes you own, overdue first. Open one to start fixing it or to send a photo of the
+          fix.
         </p>
       ) : null}
       {isPending ? (
