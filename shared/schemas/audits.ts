@@ -32,7 +32,12 @@ export const answerBodySchema = z.strictObject({
   id: uuidSchema,
   outcome: z.enum(outcomes, { message: "Choose pass, fail or not applicable." }).nullable(),
   value: numberInput().nullable().optional(),
-  unit: z.enum(readingUnits, { message: "Unknown unit." }).nullable().optional(),
+  unit: z
+    .enum(readingUnits, {
+      message: "Choose one of the units the form offers, such as Pa or inches of water.",
+    })
+    .nullable()
+    .optional(),
   count: numberInput()
     .int({ message: "A whole number." })
     .min(0, { message: "Zero or more." })

@@ -95,5 +95,5 @@ export const checklistDraftBodySchema = z.strictObject({
 export type ChecklistDraftBody = z.infer<typeof checklistDraftBodySchema>;
 
 export const zoneTypeParamsSchema = z.strictObject({
-  zoneType: z.enum(zoneTypes, { message: "Unknown zone type." }),
+  zoneType: z.enum(zoneTypes, { message: "Choose a zone type." }),
 });

@@ -1,10 +1,26 @@
 import { z } from "zod";
 
-export const uuidSchema = z.uuid({ message: "Must be a valid id." });
+/** A reference to something Lintel made (a space, a person, an action); people pick these, never type them. */
+export const uuidSchema = z.uuid({
+  message: "This does not point to anything in Lintel; choose it again from the list.",
+});
 
-/** Messages that tell a missing value from a value of the wrong type. */
-const typeMessage = (kind: string) => (issue: { input?: unknown }) =>
-  issue.input === undefined ? "Required." : `Must be ${kind}.`;
+/**
+ * Messages that tell a missing value from a value of the wrong type, and say a limit in words
+ * (a check without a message of its own would otherwise read like code, or claim the wrong type).
+ */
+const typeMessage = (kind: string) => (issue: z.core.$ZodRawIssue) => {
+  if (issue.code === "too_big")
+    return issue.origin === "string"
+      ? `At most ${issue.maximum} characters.`
+      : `At most ${issue.maximum}.`;
+  if (issue.code === "too_small")
+    return issue.origin === "string"
+      ? `At least ${issue.minimum} characters.`
+      : `At least ${issue.minimum}.`;
+  if (issue.code !== "invalid_type") return undefined;
+  return issue.input === undefined ? "Required." : `Must be ${kind}.`;
+};
 
 /**
  * Characters a text field refuses: control characters other than tab, line feed and carriage
@@ -70,4 +86,6 @@ export function isKnownTimeZone(value: string): boolean {
 export const timeZoneSchema = text()
   .trim()
   .max(64, { message: "At most 64 characters." })
-  .refine(isKnownTimeZone, { message: "Use an IANA time zone name such as Europe/Dublin." });
+  .refine(isKnownTimeZone, {
+    message: "Use a time zone name such as Europe/Dublin or America/New_York.",
+  });

@@ -68,7 +68,14 @@ export const scaleBodySchema = z
 export type ScaleBody = z.infer<typeof scaleBodySchema>;
 
 const polygonSchema = z
-  .array(z.tuple([coordinate, coordinate]), { message: "A list of [x, y] corners." })
+  .array(
+    z.tuple([coordinate, coordinate], {
+      message: "Each corner is one position across the plan and one down it.",
+    }),
+    {
+      message: "Draw the outline again: each corner needs a position across and down the plan.",
+    },
+  )
   .min(3, { message: "At least three corners." })
   .max(200, { message: "At most 200 corners." });
 

@@ -33,7 +33,7 @@ export const navigationItems: readonly NavigationItem[] = [
     alsoActiveOn: [paths.committeeSite.path],
   },
   {
-    label: "Actions",
+    label: "Fixes",
     to: paths.myActions.getHref(),
     icon: <ActionsIcon />,
     permission: "work:action:site",
@@ -53,7 +53,7 @@ export const navigationItems: readonly NavigationItem[] = [
     permission: "manage:checklists:network",
   },
   {
-    label: "Mailbox",
+    label: "Demo e-mails",
     to: paths.mailbox.getHref(),
     icon: <MailIcon />,
     permission: "read:dev-mailbox:network",
@@ -62,7 +62,7 @@ export const navigationItems: readonly NavigationItem[] = [
 ];
 
 /**
- * The entries for this person. The mailbox exists only where the local mail catcher runs, so
+ * The entries for this person. The demo e-mails exist only where the local mail catcher runs, so
  * the installation is asked about it, and only when the person could read it at all.
  * The committee view compares sites, so it is offered to those who read the whole network
  * (committee members, administrators); anyone else may still open it for their own sites.

@@ -81,6 +81,26 @@ describe("my actions on the home page", () => {
   });
 });
 
+describe("the Fixes page", () => {
+  it("when a facilities lead opens Fixes from the menu, then the page is titled Corrective actions and lists their fixes", async () => {
+    stubApi({
+      "GET /api/auth/me": () => jsonResponse(facilitiesLead),
+      "GET /api/sites": () => jsonResponse({ sites: [tamsinGeneral] }),
+      "GET /api/my/actions": () => jsonResponse({ actions: [overdueCritical, majorInProgress] }),
+    });
+    const { user } = renderApp("/");
+
+    const menu = await screen.findByRole("navigation", { name: "Main" });
+    await user.click(within(menu).getByRole("link", { name: "Fixes" }));
+
+    expect(
+      await screen.findByRole("heading", { level: 1, name: "Corrective actions" }),
+    ).toBeTruthy();
+    const list = await screen.findByRole("list", { name: "My corrective actions" });
+    expect(within(list).getAllByRole("listitem")).toHaveLength(2);
+  });
+});
+
 function stubList() {
   return stubApi({
     "GET /api/auth/me": () => jsonResponse(siteAuditor),
@@ -108,6 +128,9 @@ describe("the site's action list", () => {
 
     await screen.findByRole("table", { name: "Corrective actions" });
     expect(itemNames()).toEqual([overdueCritical.title, majorInProgress.title]);
+    // One word for an action's state on every screen.
+    expect(screen.getByRole("columnheader", { name: /^State/ })).toBeTruthy();
+    expect(screen.queryByRole("columnheader", { name: /^Status/ })).toBeNull();
     expect(exportLink()).toBe(`/api/sites/${tamsinGeneral.id}/actions/export?state=unfinished`);
   });
 

@@ -7,7 +7,7 @@ import {
   emptyAnswer,
   needsNote,
   outcomeFromEntry,
-  provisionalResult,
+  resultOnPhone,
   reviewAudit,
 } from "@/features/walkthroughs/lib/answer-rules";
 import { describeDue, dueNow, orderByDue } from "@/features/walkthroughs/lib/due-order";
@@ -129,7 +129,7 @@ describe("what stands between a draft and submitting it", () => {
     expect(reviewAudit([chair!], answers, new Map([[chair!.id, 1]])).ready).toBe(true);
   });
 
-  it("when a critical item fails, then the provisional verdict is not ready, scored over what applies", () => {
+  it("when a critical item fails, then the verdict worked out on the phone is hold until fixed, scored over what applies", () => {
     const items = doffingItems();
     const answers = new Map([
       [items[0]!.id, answer({ outcome: "fail" })],
@@ -138,7 +138,7 @@ describe("what stands between a draft and submitting it", () => {
       [items[3]!.id, answer({ outcome: "not_applicable" })],
     ]);
     // critical 5 failed, major 3 + 3 passed, minor not applicable: 6 / 11.
-    expect(provisionalResult("doffing_area", items, answers)).toEqual({
+    expect(resultOnPhone("doffing_area", items, answers)).toEqual({
       verdict: "hold",
       reasons: [`Critical item failed: ${items[0]!.text}`],
       score: 6 / 11,

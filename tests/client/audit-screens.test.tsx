@@ -379,7 +379,7 @@ describe("an audit on the phone", () => {
     await user.click(screen.getByRole("button", { name: "Submit audit" }));
 
     expect(await screen.findByRole("heading", { level: 2, name: "Hold until fixed" })).toBeTruthy();
-    expect(screen.getByText("Provisional")).toBeTruthy();
+    expect(screen.getByText("On this phone only")).toBeTruthy();
     expect(server.submits).toBe(0);
 
     server.down = false;
@@ -388,7 +388,7 @@ describe("an audit on the phone", () => {
 
     expect(await screen.findByText("All changes saved", {}, { timeout: 3000 })).toBeTruthy();
     expect(screen.getByRole("heading", { level: 2, name: "Hold until fixed" })).toBeTruthy();
-    expect(screen.queryByText("Provisional")).toBeNull();
+    expect(screen.queryByText("On this phone only")).toBeNull();
     expect(server.submits).toBe(1);
     expect(server.photoIds).toHaveLength(1);
     expect(server.audits.get([...server.audits.keys()][0]!)!.answers).toHaveLength(4);

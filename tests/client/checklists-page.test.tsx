@@ -99,6 +99,14 @@ describe("the checklist editor", () => {
     await user.click(screen.getByRole("button", { name: "Add item" }));
     await user.type(texts()[2]!, "Spare clean gloves in several sizes");
     await user.selectOptions(screen.getAllByLabelText("Severity")[2]!, "major");
+    // How an item is answered is said in words, with a hint listing the kinds.
+    const answered = screen.getAllByLabelText("How the auditor answers")[2]!;
+    expect(
+      (answered.getAttribute("aria-describedby") ?? "")
+        .split(" ")
+        .map((id) => document.getElementById(id)?.textContent ?? "")
+        .join(" "),
+    ).toContain("Pass or fail, a measured reading, a count, or one of a few choices.");
     await user.click(screen.getByRole("button", { name: "Publish version 2" }));
 
     await screen.findByText("Doffing area checklist version 2 is published. New audits use it.");

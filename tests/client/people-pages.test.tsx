@@ -43,17 +43,17 @@ function navigationLinks(): string[] {
 }
 
 describe("who sees people and the mailbox", () => {
-  it("when an auditor is signed in, then navigation shows neither People nor Mailbox", async () => {
+  it("when an auditor is signed in, then navigation shows neither People nor Demo e-mails", async () => {
     const { calls } = stubApi(signedInAsAuditor);
     renderApp("/");
 
     await screen.findByRole("heading", { level: 1, name: "My sites" });
     // This auditor is also a facilities lead at another site, so their own actions are listed.
-    expect(navigationLinks()).toEqual(["Sites", "Actions", "Account"]);
+    expect(navigationLinks()).toEqual(["Sites", "Fixes", "Account"]);
     expect(calls.some((call) => call.path === "/api/app-config")).toBe(false);
   });
 
-  it("when a network administrator is signed in where the local mail catcher runs, then People and Mailbox are shown", async () => {
+  it("when a network administrator is signed in where the local mail catcher runs, then People and Demo e-mails are shown", async () => {
     stubApi(signedInAsAdministrator());
     renderApp("/");
 
@@ -64,14 +64,14 @@ describe("who sees people and the mailbox", () => {
         "Committee",
         "People",
         "Checklists",
-        "Mailbox",
+        "Demo e-mails",
         "Account",
       ]),
     );
     expect(screen.getByRole("link", { name: "People" }).getAttribute("href")).toBe("/admin/people");
   });
 
-  it("when the local mail catcher does not run, then the administrator sees People but no Mailbox", async () => {
+  it("when the local mail catcher does not run, then the administrator sees People but no Demo e-mails", async () => {
     stubApi(signedInAsAdministrator({ demoMailbox: false }));
     renderApp("/");
 
@@ -241,8 +241,9 @@ describe("mailbox", () => {
     });
     const { user } = renderApp("/admin/mail");
 
-    expect(await screen.findByRole("heading", { level: 1, name: "Mailbox" })).toBeTruthy();
-    expect(screen.getByText(/nothing leaves this machine/)).toBeTruthy();
+    expect(await screen.findByRole("heading", { level: 1, name: "Demo e-mails" })).toBeTruthy();
+    // A visible note, not only a tooltip: real deployments send real mail instead.
+    expect(screen.getByText(/A real deployment sends real e-mail/)).toBeTruthy();
     const toggle = await screen.findByRole("button", { name: /You are invited to Lintel/ });
     expect(toggle.textContent).toContain("To: priya.nair@example.org");
     expect(toggle.getAttribute("aria-expanded")).toBe("false");

@@ -76,7 +76,7 @@ describe("adding a site", () => {
     );
     expect(describedText(screen.getByLabelText("Latitude"))).toContain("Required.");
     expect(describedText(screen.getByLabelText("Time zone"))).toContain(
-      "Use an IANA time zone name such as Europe/Dublin.",
+      "Use a time zone name such as Europe/Dublin or America/New_York.",
     );
     expect(calls.some((call) => call.method === "POST")).toBe(false);
   });

@@ -60,6 +60,15 @@ describe("SpaceForm", () => {
     expect(fetchStub).not.toHaveBeenCalled();
   });
 
+  it("when the suite field shows, then a hint says what a suite is", () => {
+    stubApi({});
+    renderForm();
+
+    expect(describedText(screen.getByLabelText("Suite"))).toContain(
+      "A suite groups the spaces that serve one isolation patient",
+    );
+  });
+
   it("when a new suite is chosen without a name, then the suite name is asked for", async () => {
     stubApi({});
     const { user } = renderForm();

@@ -51,7 +51,9 @@ describe("the committee view", () => {
     await page.getByRole("button", { name: "Download the comparison (CSV)" }).click();
     const csv = readFileSync((await (await csvDownload).path())!, "utf8").replace(/^\uFEFF/, "");
     const lines = csv.trim().split("\n");
-    expect(lines[0]).toMatch(/^site,measure,successes,n,rate,95% lower,95% upper/);
+    expect(lines[0]).toMatch(
+      /^site,measure,all-clear audits or items passed,audits or items answered,share \(0 to 1\),95% interval low \(Wilson\),95% interval high \(Wilson\)/,
+    );
     for (const site of demoSites)
       expect(lines.some((line) => line.startsWith(`${site},Readiness`))).toBe(true);
     expect(problems).toEqual([]);

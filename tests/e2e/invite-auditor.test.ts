@@ -72,7 +72,7 @@ describe("inviting an auditor on a phone (390×844)", () => {
     const admin = await phonePage(browser);
     await signInHome(admin.page, "admin@example.org", "lintel-demo-2026");
     await admin.page.goto(`${baseUrl()}/admin/mail`);
-    await admin.page.getByRole("heading", { level: 1, name: "Mailbox" }).waitFor();
+    await admin.page.getByRole("heading", { level: 1, name: "Demo e-mails" }).waitFor();
     await admin.page
       .getByRole("button", { name: /You have been invited to Lintel/ })
       .first()

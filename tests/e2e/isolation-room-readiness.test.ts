@@ -64,7 +64,7 @@ describe("an isolation room whose airflow nobody confirmed (390×844)", () => {
     await why.getByText(/^Inward airflow not confirmed/).waitFor();
     await page.getByText("All changes saved").waitFor({ timeout: 30_000 });
     await expect
-      .poll(async () => page.getByText("Provisional").count(), { timeout: 15_000 })
+      .poll(async () => page.getByText("On this phone only").count(), { timeout: 15_000 })
       .toBe(0);
     await why.getByText(/^Inward airflow not confirmed/).waitFor();
     await page.getByText("Decided by Lintel's readiness rules, version 2.").waitFor();

@@ -77,14 +77,14 @@ describe("an audit on a phone that loses its connection half-way (390×844)", ()
 
     await page.getByRole("button", { name: "Submit audit" }).click();
     await page.getByRole("heading", { level: 2, name: "Hold until fixed" }).waitFor();
-    await page.getByText("Provisional").first().waitFor();
+    await page.getByText("On this phone only").first().waitFor();
 
     // Back online: the phone sends what it kept, by itself.
     await context.unroute("**/api/**");
     await context.setOffline(false);
     await page.getByText("All changes saved").waitFor({ timeout: 30_000 });
     await expect
-      .poll(async () => page.getByText("Provisional").count(), { timeout: 15_000 })
+      .poll(async () => page.getByText("On this phone only").count(), { timeout: 15_000 })
       .toBe(0);
 
     const detail = await (await page.request.get(`${baseUrl()}/api/audits/${auditId}`)).json();

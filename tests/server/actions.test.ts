@@ -521,7 +521,7 @@ describe("corrective actions", () => {
     expect(dues).toEqual([...dues].sort());
   });
 
-  it("when the list is exported, then the CSV has a header, one row per action with formula-like text defused, and the caution last", async () => {
+  it("when the list is exported, then the CSV has a header, one row per action with formula-like text defused and severity and state in words, and the caution last", async () => {
     const { db } = testApp().deps;
     const space = await insertSpace(db, floor);
     await submitWithFailures(space, ["Spare clean gloves in several sizes"]);
@@ -548,6 +548,8 @@ describe("corrective actions", () => {
     expect(objects[0]).toMatchObject({
       id: action!.id,
       item: `'=HYPERLINK("x")`,
+      severity: { critical: "Critical", major: "Major", minor: "Minor" }[action!.severity],
+      state: "To fix",
       link: `http://lintel.test/actions/${action!.id}`,
     });
   });
@@ -573,6 +575,14 @@ describe("corrective actions", () => {
       .post(`/api/audits/${auditId}/amendments`)
       .send({ itemId: wipes.id, outcome: "pass", reason: "Wipes were there after all" });
     expect((await actionsOf(space.id))[0]).toMatchObject({ id: action!.id, state: "to_fix" });
+  });
+
+  it("when an action's address carries a broken id, then 400 names the field in plain words", async () => {
+    const response = await as(auditor).get("/api/actions/not-an-id");
+    expect(response.status).toBe(400);
+    expect(response.body.error.fields).toEqual({
+      actionId: "This does not point to anything in Lintel; choose it again from the list.",
+    });
   });
 
   it("when the list filter is unknown, then 400 names the field", async () => {

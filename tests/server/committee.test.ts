@@ -384,22 +384,32 @@ describe("committee view", () => {
     );
     expect(comparison.headers["content-type"]).toMatch(/^text\/csv/);
     const comparisonCsv = readExport(comparison.text);
-    expect(comparisonCsv.header.slice(0, 7)).toEqual([
+    expect(comparisonCsv.header).toEqual([
       "site",
       "measure",
-      "successes",
-      "n",
-      "rate",
-      "95% lower",
-      "95% upper",
+      "all-clear audits or items passed",
+      "audits or items answered",
+      "share (0 to 1)",
+      "95% interval low (Wilson)",
+      "95% interval high (Wilson)",
+      "small sample (fewer than 30)",
+      "rank among sites",
     ]);
-    expect(comparisonCsv.rows.filter((row) => row[1]!.startsWith("Readiness"))).toHaveLength(3);
+    const readiness = comparisonCsv.objects.filter(
+      (row) => row["measure"] === "Readiness: all-clear audits out of audits",
+    );
+    expect(readiness).toHaveLength(3);
 
     const auditsCsv = await as(committee).get(`/api/committee/audits/export?from=${from}&to=${to}`);
     const audits = readExport(auditsCsv.text);
     expect(audits.header[0]).toBe("audit id");
     expect(audits.rows).toHaveLength(seeded.length + 1); // plus the one submitted over HTTP
-    expect(audits.objects.every((row) => row["verdict"] !== "")).toBe(true);
+    // Verdicts in words, never the stored code.
+    expect(
+      audits.objects.every((row) =>
+        ["All clear", "Gaps to fix", "Hold until fixed"].includes(row["verdict"]!),
+      ),
+    ).toBe(true);
   });
 
   it("when the audits are exported in small batches, then every audit comes once, oldest first", async () => {

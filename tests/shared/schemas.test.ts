@@ -1,6 +1,8 @@
 import { describe, expect, it } from "vitest";
 
+import { answerBodySchema } from "@shared/schemas/audits";
 import { signInBodySchema } from "@shared/schemas/auth";
+import { spaceBodySchema } from "@shared/schemas/floors";
 import { refusedCharacterIndex, text, timeZoneSchema } from "@shared/schemas/common";
 import { createSiteBodySchema } from "@shared/schemas/site";
 
@@ -31,6 +33,50 @@ describe("shared input schemas", () => {
       result.error!.issues.map((issue) => [issue.path.join("."), issue.message]),
     );
     expect(messages).toEqual({ name: "Required.", address: "Must be text." });
+  });
+});
+
+describe("validation messages are plain words", () => {
+  const messagesOf = (result: { error?: { issues: { path: PropertyKey[]; message: string }[] } }) =>
+    Object.fromEntries(
+      // The first message for a field wins, as in the API's error envelope.
+      [...(result.error?.issues ?? [])]
+        .reverse()
+        .map((issue) => [issue.path.join("."), issue.message]),
+    );
+  const answerId = "00000000-0000-4000-8000-000000000000";
+  const outline = [
+    [0, 0],
+    [1, 0],
+    [1, 1],
+  ];
+
+  it("when an id, an outline, a unit or a limit is wrong, then each field's message says what to do without code words", () => {
+    const found = {
+      ...messagesOf(answerBodySchema.safeParse({ id: "nope", outcome: "pass", unit: "furlong" })),
+      ...messagesOf(answerBodySchema.safeParse({ id: answerId, outcome: null, count: 10_001 })),
+      ...messagesOf(
+        answerBodySchema.safeParse({ id: answerId, outcome: null, choice: "x".repeat(41) }),
+      ),
+      ...messagesOf(spaceBodySchema.safeParse({ zoneType: "lobby", name: "A", polygon: "x" })),
+      ...messagesOf(
+        spaceBodySchema.safeParse({ zoneType: "anteroom", name: "A", polygon: [[1], ...outline] }),
+      ),
+    };
+    expect(found).toEqual({
+      id: "This does not point to anything in Lintel; choose it again from the list.",
+      unit: "Choose one of the units the form offers, such as Pa or inches of water.",
+      count: "At most 10000.",
+      choice: "At most 40 characters.",
+      zoneType: "Choose a zone type.",
+      polygon: "Draw the outline again: each corner needs a position across and down the plan.",
+      "polygon.0": "Each corner is one position across the plan and one down it.",
+    });
+    for (const message of Object.values(found)) {
+      expect(message).not.toMatch(
+        /\b(id|uuid|enum|array|tuple|regex|expected)\b|\[x, y\]|Unknown|<=|>=/i,
+      );
+    }
   });
 });
 

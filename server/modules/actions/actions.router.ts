@@ -1,6 +1,7 @@
 import { stringify } from "csv-stringify/sync";
 
 import { formatInZone } from "@shared/calc/due";
+import { severityLabels } from "@shared/calc/verdict";
 import type { Permission } from "@shared/permissions";
 import {
   actionListQuerySchema,
@@ -92,7 +93,7 @@ export const actionRoutes = [
             row.spaceName,
             zoneTypeLabels[row.zoneType],
             row.title,
-            row.severity,
+            severityLabels[row.severity],
             actionStateLabels[row.state],
             row.assignee?.name ?? "",
             row.openedAt,

@@ -71,9 +71,9 @@ export const committeeRoutes = [
       const rows: unknown[][] = [];
       for (const site of result.sites) {
         const measures = [
-          { measure: "Readiness (audits ready)", ...site.readiness },
+          { measure: "Readiness: all-clear audits out of audits", ...site.readiness },
           ...site.categories.map((c) => ({
-            measure: `Compliance: ${itemCategoryLabels[c.category]}`,
+            measure: `Compliance: ${itemCategoryLabels[c.category]} items passed out of answered`,
             ...c,
           })),
         ];
@@ -87,20 +87,20 @@ export const committeeRoutes = [
             fixed(m.interval?.lower),
             fixed(m.interval?.upper),
             m.smallSample ? "yes" : "no",
-            m.measure.startsWith("Readiness") ? (site.rank ?? "") : "",
+            m === measures[0] ? (site.rank ?? "") : "",
           ]);
         }
       }
       const columns = [
         "site",
         "measure",
-        "successes",
-        "n",
-        "rate",
-        "95% lower",
-        "95% upper",
-        `small sample (n < ${result.minimumRankedSample})`,
-        "rank",
+        "all-clear audits or items passed",
+        "audits or items answered",
+        "share (0 to 1)",
+        "95% interval low (Wilson)",
+        "95% interval high (Wilson)",
+        `small sample (fewer than ${result.minimumRankedSample})`,
+        "rank among sites",
       ];
       const csv = stringify(
         rows.map((row) => row.map(asCell)),

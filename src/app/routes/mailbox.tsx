@@ -22,7 +22,7 @@ export function mailboxLoader(queryClient: QueryClient) {
 }
 
 const onlyWithMailCatcher =
-  "The mailbox exists only while Lintel runs its local mail catcher (npm start without an SMTP server). Real installations send mail to real inboxes.";
+  "Demo e-mails exist only in the demo, while Lintel keeps its mail on this machine (npm start without an SMTP server). A real deployment sends real e-mail to people's own inboxes.";
 
 function MailboxPage() {
   const appConfig = useAppConfig();
@@ -30,7 +30,7 @@ function MailboxPage() {
   if (appConfig.isPending) return <Spinner label="Loading…" className="py-8" />;
   if (appConfig.isError) {
     return (
-      <Alert role="alert" tone="error" title="We could not open the mailbox">
+      <Alert role="alert" tone="error" title="We could not open the demo e-mails">
         <p>{appConfig.error.message}</p>
         <Button variant="secondary" className="mt-3" onClick={() => void appConfig.refetch()}>
           Try again
@@ -42,12 +42,17 @@ function MailboxPage() {
 
   return (
     <>
-      <title>Mailbox · Lintel</title>
-      <h1 className="text-2xl font-bold tracking-tight md:text-3xl">Mailbox</h1>
-      <p className="mt-2 mb-6 text-ink-muted">
-        This is the local mail catcher: e-mail Lintel sends to the people of your network lands
-        here, so nothing leaves this machine.
+      <title>Demo e-mails · Lintel</title>
+      <h1 className="text-2xl font-bold tracking-tight md:text-3xl">Demo e-mails</h1>
+      <p className="mt-2 text-ink-muted">
+        The e-mails Lintel has sent to the people of your network, kept here so you can read them.
       </p>
+      <Alert tone="info" title="Only in the demo" className="mt-3 mb-6">
+        <p>
+          Nothing here leaves this machine. A real deployment sends real e-mail to each person's own
+          inbox instead, and this page is not there.
+        </p>
+      </Alert>
       <Mailbox />
     </>
   );

@@ -16,7 +16,7 @@ export function myActionsLoader(queryClient: QueryClient) {
 export function MyActionsRoute() {
   return (
     <>
-      <title>My corrective actions · Lintel</title>
+      <title>Corrective actions · Lintel</title>
       <MyActions actionHref={paths.action.getHref} showAll headingLevel={1} />
     </>
   );

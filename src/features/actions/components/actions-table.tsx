@@ -73,7 +73,7 @@ function columnsFor(actionHref: (actionId: string) => string) {
       cell: (info) => <SeverityBadge severity={info.getValue()} />,
     }),
     column.accessor("state", {
-      header: "Status",
+      header: "State",
       filterFn: stateFilter,
       sortingFn: rankOf(statusOrder, (action) => action.state),
       cell: (info) => <StatusBadge status={info.getValue()} />,

@@ -31,8 +31,14 @@ export function MyActions({ actionHref, showAll = false, headingLevel = 2 }: MyA
           headingLevel === 1 ? "text-2xl md:text-3xl" : "text-lg font-semibold",
         )}
       >
-        My corrective actions
+        {headingLevel === 1 ? "Corrective actions" : "My corrective actions"}
       </Heading>
+      {headingLevel === 1 ? (
+        <p className="mt-1 text-ink-muted">
+          The fixes you own, overdue first. Open one to start fixing it or to send a photo of the
+          fix.
+        </p>
+      ) : null}
       {isPending ? (
         <Spinner label="Loading your actions…" className="py-4" />
       ) : isError ? (

@@ -1,13 +1,8 @@
-import type { Severity } from "@shared/calc/verdict";
 import { formatInZone } from "@shared/calc/due";
 import type { ActionSummary } from "@shared/schemas/actions";
 import { actionCloseReasonLabels } from "@shared/workflow/action-workflow";
 
-export const severityLabels: Record<Severity, string> = {
-  critical: "Critical",
-  major: "Major",
-  minor: "Minor",
-};
+export { severityLabels } from "@shared/calc/verdict";
 
 /** The due time as the site's clock shows it, so everyone reads the same deadline. */
 export function dueText(action: Pick<ActionSummary, "dueAt" | "siteTimeZone">): string {

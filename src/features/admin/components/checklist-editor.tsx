@@ -159,7 +159,8 @@ function ItemFields({
             {...register(`items.${index}.severity`)}
           />
           <SelectField
-            label="Answered as"
+            label="How the auditor answers"
+            hint="Pass or fail, a measured reading, a count, or one of a few choices."
             options={responseKinds.map((value) => ({ value, label: responseLabels[value] }))}
             error={itemErrors?.response?.message}
             {...register(`items.${index}.response`)}

@@ -63,7 +63,7 @@ export function Mailbox() {
   if (mailbox.isPending) return <Spinner label="Loading messages…" className="py-8" />;
   if (mailbox.isError) {
     return (
-      <Alert role="alert" tone="error" title="We could not load the mailbox">
+      <Alert role="alert" tone="error" title="We could not load the demo e-mails">
         <p>{mailbox.error.message}</p>
         <Button variant="secondary" className="mt-3" onClick={() => void mailbox.refetch()}>
           Try again

@@ -146,7 +146,7 @@ export function SpaceForm({
       </div>
       <SelectField
         label="Suite"
-        hint="The room, anteroom, donning zone and doffing area that serve one patient."
+        hint="A suite groups the spaces that serve one isolation patient: the room, its anteroom, donning zone and doffing area."
         placeholder="No suite"
         options={suiteOptions}
         error={errors.suite?.message}
@@ -155,6 +155,7 @@ export function SpaceForm({
       {suite === newSuiteValue ? (
         <TextField
           label="Suite name"
+          hint="For example, Isolation suite 3."
           autoComplete="off"
           error={errors.suiteName?.message}
           {...register("suiteName")}

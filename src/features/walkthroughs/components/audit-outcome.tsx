@@ -15,8 +15,8 @@ export interface AuditOutcomeProps {
   /** The version of the readiness rules that decided it; null when not recorded. */
   rulesVersion: number | null;
   score: number | null;
-  /** Worked out on the phone; the server has not confirmed it yet. */
-  provisional: boolean;
+  /** Worked out on the phone; Lintel's server has not decided it yet. */
+  onPhoneOnly: boolean;
   rows: readonly AnswerRow[];
   /** Submitted when and by whom, once known. */
   byline?: ReactNode;
@@ -28,7 +28,7 @@ export function AuditOutcome({
   verdict,
   reasons,
   rulesVersion,
-  provisional,
+  onPhoneOnly,
   score,
   rows,
   byline,
@@ -40,11 +40,11 @@ export function AuditOutcome({
   return (
     <div className="flex flex-col gap-5">
       <section aria-label="Verdict" className="flex flex-col gap-3">
-        {provisional ? (
+        {onPhoneOnly ? (
           <div className="flex flex-wrap items-center gap-2">
-            <Badge tone="pending">Provisional</Badge>
+            <Badge tone="pending">On this phone only</Badge>
             <p className="text-sm text-ink-muted">
-              Worked out on this phone. Lintel confirms the verdict when the audit reaches it.
+              Worked out on this phone. Lintel decides the verdict when the audit reaches it.
             </p>
           </div>
         ) : null}

@@ -14,7 +14,7 @@ import { formatDateTime } from "@/lib/format";
 import { useAuditActions } from "../hooks/use-audit-actions";
 import type { LocalAuditSnapshot } from "../hooks/use-local-audit";
 import { useSyncStatus } from "../hooks/use-sync-status";
-import { type AnswerFields, provisionalResult, reviewAudit } from "../lib/answer-rules";
+import { type AnswerFields, resultOnPhone, reviewAudit } from "../lib/answer-rules";
 import { refusalsByItem } from "../lib/refusals";
 import { unconfirmedAirChanges, ventilationFigures } from "../lib/ventilation-figures";
 import { AnswerSummary, rowsFromPhone, rowsFromServer } from "./answer-summary";
@@ -291,14 +291,14 @@ export function AuditWalkthrough({ snapshot, afterLinks }: AuditWalkthroughProps
     body = <DraftWalkthrough auditId={audit.auditId} detail={detail} snapshot={snapshot} />;
   } else {
     const confirmed = audit.state === "submitted" && detail.audit.verdict !== null;
-    const local = provisionalResult(detail.audit.zoneType, detail.items, answers);
+    const local = resultOnPhone(detail.audit.zoneType, detail.items, answers);
     body = (
       <AuditOutcome
         verdict={confirmed ? detail.audit.verdict! : local.verdict}
         reasons={confirmed ? (detail.audit.verdictReasons ?? null) : local.reasons}
         rulesVersion={confirmed ? (detail.audit.rulesVersion ?? null) : rulesVersion}
         score={confirmed ? detail.audit.score : local.score}
-        provisional={!confirmed}
+        onPhoneOnly={!confirmed}
         rows={rowsFromPhone(detail.items, answers, photos)}
         byline={
           confirmed && detail.audit.submittedAt
@@ -359,7 +359,7 @@ export function SubmittedAudit({
           reasons={audit.verdictReasons ?? null}
           rulesVersion={audit.rulesVersion ?? null}
           score={audit.score}
-          provisional={false}
+          onPhoneOnly={false}
           rows={rows}
           byline={`Submitted ${audit.submittedAt ? formatDateTime(audit.submittedAt) : ""} by ${audit.auditorName}`}
           actions={afterLinks}

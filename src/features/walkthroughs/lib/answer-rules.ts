@@ -148,7 +148,7 @@ export function reviewAudit(
  * The verdict, its reasons and the score the answers give, worked out on the phone with the same
  * rules as the server, before the server confirms.
  */
-export function provisionalResult(
+export function resultOnPhone(
   zoneType: ZoneType,
   items: readonly ChecklistItem[],
   answers: ReadonlyMap<string, AnswerFields>,
