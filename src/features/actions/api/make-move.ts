@@ -1,5 +1,5 @@
 import { type ActionDetail, actionDetailSchema } from "@shared/schemas/actions";
-import { actionMoves, type ActionMoveName } from "@shared/workflow/action-workflow";
+import { actionMoves } from "@shared/workflow/action-workflow";
 import { useMutation, useQueryClient } from "@tanstack/react-query";
 
 import { apiRequest } from "@/lib/api-client";
@@ -33,5 +33,3 @@ export function useMakeMove(actionId: string, move: WordMove) {
   });
 }
 
-export const isWordMove = (move: ActionMoveName): move is WordMove =>
-  move !== "add_photo" && move !== "assign";

@@ -307,12 +307,10 @@ const moveDone: Record<WordMove, string> = {
 };
 
 interface WordMoveProps {
-  actionId: string;
   move: WordMove;
   /** A photo upload in flight: asking for a check waits for it. */
   uploading: boolean;
   onDone: (message: string) => void;
-  onError?: (error: unknown) => void;
   mutation: ReturnType<typeof useMakeMove>;
 }
 
@@ -409,7 +407,6 @@ export function ActionMoves({ detail, can }: ActionMovesProps) {
     return (
       <MoveSection key={move} title={title}>
         <WordMoveForm
-          actionId={action.id}
           move={move}
           uploading={uploading}
           mutation={mutations[move]}
