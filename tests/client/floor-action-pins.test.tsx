@@ -75,7 +75,7 @@ describe("open actions on the floor plan", () => {
     );
     const asked = calls.find((call) => call.path === `/api/sites/${tamsinGeneral.id}/actions`);
     expect(asked).toBeTruthy();
-    expect(screen.getByRole("heading", { name: "Open corrective actions" })).toBeTruthy();
+    expect(screen.getByRole("heading", { name: "Corrective actions not done yet" })).toBeTruthy();
   });
 
   it("when two actions share a spot, then their pins are drawn apart", async () => {

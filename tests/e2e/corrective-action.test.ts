@@ -17,7 +17,7 @@ function fixPhoto(): Promise<Buffer> {
   return sharp(Buffer.from(svg)).jpeg().toBuffer();
 }
 
-describe("a corrective action from e-mail to verified fix, on phones (390×844)", () => {
+describe("a corrective action from e-mail to confirmed fix, on phones (390×844)", () => {
   let browser: Browser;
   let db: pg.Client;
   beforeAll(async () => {
@@ -30,7 +30,7 @@ describe("a corrective action from e-mail to verified fix, on phones (390×844)"
     await db.end();
   });
 
-  it("when the facilities lead follows the overdue e-mail, proves the fix and the auditor verifies it, then the pin leaves the floor plan", async () => {
+  it("when the facilities lead follows the overdue e-mail, proves the fix and the auditor confirms it, then the pin leaves the floor plan", async () => {
     // The demo's overdue action at the General, on a floor with a plan.
     const { rows } = await db.query<{
       id: string;
@@ -38,15 +38,15 @@ describe("a corrective action from e-mail to verified fix, on phones (390×844)"
       space_name: string;
       site_id: string;
       floor_id: string;
-      status: string;
+      state: string;
     }>(`
-      select ca.id, ca.status, ca.title, sp.name as space_name, ca.site_id, ca.floor_id
+      select ca.id, ca.state, ca.title, sp.name as space_name, ca.site_id, ca.floor_id
         from corrective_actions ca
         join sites s on s.id = ca.site_id
         join spaces sp on sp.id = ca.space_id
         join floors f on f.id = ca.floor_id
         join users u on u.id = ca.assignee_id
-       where s.name = 'Tamsin Bay General Hospital' and ca.status in ('open', 'in_progress')
+       where s.name = 'Tamsin Bay General Hospital' and ca.state in ('to_fix', 'fixing')
          and ca.due_at < now() and f.plan_image_id is not null
          and u.email = 'facilities.general@example.org'
        order by ca.due_at limit 1`);
@@ -74,7 +74,7 @@ describe("a corrective action from e-mail to verified fix, on phones (390×844)"
       .waitFor();
 
     const start = lead.page.getByRole("button", { name: "Start fixing" });
-    if (action.status === "open") {
+    if (action.state === "to_fix") {
       await start.click();
       await lead.page.getByLabel("Note for the auditor").waitFor();
     }
@@ -84,15 +84,15 @@ describe("a corrective action from e-mail to verified fix, on phones (390×844)"
       buffer: await fixPhoto(),
     });
     await lead.page.getByText("The photo is added.").waitFor();
-    await lead.page.getByText("This attempt has a photo.", { exact: false }).waitFor();
+    await lead.page.getByText("There is a photo of this fix.", { exact: false }).waitFor();
     await lead.page
       .getByLabel("Note for the auditor")
       .fill("Dispensers moved to 1.3 m apart and refilled");
     await lead.page.getByRole("button", { name: "Ask for a check" }).click();
-    await lead.page.getByText("Sent for verification.").waitFor();
+    await lead.page.getByText("An auditor of the site is asked to check the fix.").waitFor();
     expect(lead.problems).toEqual([]);
 
-    // The auditor sees the pin on the floor plan, opens the action from it and verifies.
+    // The auditor sees the pin on the floor plan, opens the action from it and confirms the fix.
     const auditor = await phonePage(browser);
     await signIn(auditor.page, "auditor@example.org", password);
     await auditor.page.getByRole("heading", { level: 1, name: "My sites" }).waitFor();
@@ -116,14 +116,14 @@ describe("a corrective action from e-mail to verified fix, on phones (390×844)"
     await auditor.page.locator("img.leaflet-image-layer").waitFor();
     await auditor.page
       .getByText(
-        /^(No open actions on this floor\.|\d+ of \d+ on the plan\. Tap a pin to open its action\.)$/,
+        /^(No unfinished actions on this floor\.|\d+ of \d+ on the plan\. Tap a pin to open its action\.)$/,
       )
       .waitFor();
     expect(await pin.count()).toBe(0);
     expect(auditor.problems).toEqual([]);
 
-    const { rows: after } = await db.query<{ status: string; days_to_close: number }>(
-      "select status, days_to_close from corrective_actions where id = $1",
+    const { rows: after } = await db.query<{ state: string; days_to_close: number }>(
+      "select state, days_to_close from corrective_actions where id = $1",
       [action.id],
     );
     expect(after[0]).toMatchObject({ state: "done" });

@@ -33,14 +33,14 @@ export function FloorActionsKey({
   };
   return (
     <Card>
-      <h2 className="text-lg font-semibold">Open corrective actions</h2>
+      <h2 className="text-lg font-semibold">Corrective actions not done yet</h2>
       <p aria-live="polite" className="mt-1 text-sm text-ink-muted">
         {loading
           ? "Loading the actions on this floor…"
           : failed
             ? "The actions on this floor could not be loaded."
             : total === 0
-              ? "No open actions on this floor."
+              ? "No unfinished actions on this floor."
               : `${shown} of ${total} on the plan. Tap a pin to open its action.`}
       </p>
       <fieldset className="mt-3">
