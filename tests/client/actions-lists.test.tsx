@@ -40,6 +40,11 @@ const minorClosed = buildAction({
   dueAt: "2026-04-29T08:00:00.000Z",
 });
 
+// The list's route and its table code load on first use; on a loaded two-core machine that can
+// take longer than the default wait, which is not what these tests are about.
+const findActionsTable = () =>
+  screen.findByRole("table", { name: "Corrective actions" }, { timeout: 15_000 });
+
 describe("my actions on the home page", () => {
   it("when a facilities lead opens the home page, then their actions are cards in the server's order, each opening its action", async () => {
     stubApi({
@@ -126,7 +131,7 @@ describe("the site's action list", () => {
     stubList();
     renderApp(listUrl);
 
-    await screen.findByRole("table", { name: "Corrective actions" });
+    await findActionsTable();
     expect(itemNames()).toEqual([overdueCritical.title, majorInProgress.title]);
     // One word for an action's state on every screen.
     expect(screen.getByRole("columnheader", { name: /^State/ })).toBeTruthy();
@@ -138,7 +143,7 @@ describe("the site's action list", () => {
     stubList();
     const { user } = renderApp(`${listUrl}?state=all`);
 
-    await screen.findByRole("table", { name: "Corrective actions" });
+    await findActionsTable();
     await user.click(screen.getByRole("button", { name: "Item" }));
     expect(itemNames()).toEqual([overdueCritical.title, majorInProgress.title, minorClosed.title]);
     await user.click(screen.getByRole("button", { name: "Item" }));
@@ -155,7 +160,7 @@ describe("the site's action list", () => {
     stubList();
     const { user, router } = renderApp(listUrl);
 
-    await screen.findByRole("table", { name: "Corrective actions" });
+    await findActionsTable();
     await user.selectOptions(screen.getByRole("combobox", { name: "State" }), "all");
     // The filters live in the page address, which the router updates after its loader.
     await waitFor(() => expect(itemNames()).toHaveLength(3));
