@@ -17,9 +17,9 @@ export const permissions = [
   "upload:image:site",
   "conduct:audit:site",
   "manage:checklists:network",
-  /** Facilities leads: start the fix, attach proof, send it for verification. */
+  /** Facilities leads: start fixing, add photos of the fix, ask for a check. */
   "work:action:site",
-  /** Auditors: verify a fix, reject its proof, reopen a closed action. */
+  /** Auditors: confirm a fix, send it back, reopen a done action. */
   "verify:action:site",
   /** Who owns an action: administrators, and facilities leads handing over to a colleague. */
   "assign:action:site",

@@ -126,11 +126,11 @@ export const trendsResponseSchema = z.object({
       ),
     }),
   ),
-  /** Unclosed actions by days since opening, and overdue ones by days past due, now. */
+  /** Unfinished actions by days since opening, and overdue ones by days past due, now. */
   aging: z.array(
     z.object({ siteId: uuidSchema, siteName: responseText(), open: buckets, overdue: buckets }),
   ),
-  /** Median days from opening to verified close, for actions closed in the period. */
+  /** Median days from opening to a confirmed fix, for actions done in the period. */
   closeTimes: z.array(
     z.object({
       siteId: uuidSchema,

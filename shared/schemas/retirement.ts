@@ -22,7 +22,7 @@ export const retirementResultSchema = z.object({
     /** Floors and spaces retired or restored by this one step, the item itself included. */
     floors: z.number().int(),
     spaces: z.number().int(),
-    /** Unclosed corrective actions closed (retire) or reopened (restore). */
+    /** Unfinished corrective actions made done (retire) or put back (restore). */
     actions: z.number().int(),
   }),
 });

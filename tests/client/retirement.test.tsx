@@ -216,7 +216,7 @@ describe("retired floors and spaces on the site page", () => {
 
     await user.click(within(section).getByRole("button", { name: "Restore space Doffing area 4" }));
     expect((await within(section).findByRole("status")).textContent).toBe(
-      "Doffing area 4 is back. 1 corrective action closed by the retirement is open again.",
+      "Doffing area 4 is back. 1 corrective action made Done by the retirement is back in the work list.",
     );
     expect(calls.filter((call) => call.method === "POST")).toEqual([
       { method: "POST", path: `/api/spaces/${space.id}/restore`, body: {} },

@@ -104,13 +104,13 @@ export async function myActions(db: Database, auth: SignedIn) {
  */
 export async function myChecks(db: Database, auth: SignedIn) {
   const now = new Date();
-  const verifying = auth.grants.filter((grant) =>
+  const checking = auth.grants.filter((grant) =>
     rolePermissions[grant.role].includes(actionMoves.confirm.permission),
   );
-  if (verifying.length === 0) return [];
-  const siteIds = verifying.some((grant) => grant.siteId === null)
+  if (checking.length === 0) return [];
+  const siteIds = checking.some((grant) => grant.siteId === null)
     ? null
-    : verifying.map((grant) => grant.siteId!);
+    : checking.map((grant) => grant.siteId!);
   return (await repo.actionsToCheck(db, auth.user.networkId, siteIds))
     .map((row) => toSummary(row, now))
     .sort(byUrgency);

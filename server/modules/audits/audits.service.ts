@@ -515,7 +515,7 @@ export async function amendAudit(
       outcomeAfter: body.outcome,
     });
     // A correction to "fail" is a finding like any other; one away from "fail" leaves the action
-    // to be closed by an auditor's verification, so nothing is closed silently.
+    // to be done only when an auditor confirms the fix, so nothing is closed silently.
     if (body.outcome !== "fail" || before.outcome === "fail") return 0;
     return recordFindings(
       tx,

@@ -251,7 +251,7 @@ export async function readinessByMonth(db: DbOrTx, siteIds: readonly string[], p
 
 type Buckets = { "0-7": number; "8-30": number; "31-90": number; "90+": number };
 
-/** Unclosed actions aged since opening, and overdue ones since their due time, as of now. */
+/** Unfinished actions aged since opening, and overdue ones since their due time, as of now. */
 export async function actionAging(db: DbOrTx, siteIds: readonly string[], zoneType?: ZoneType) {
   const [open, overdue] = await Promise.all([
     db.execute<Buckets & { site_id: string }>(committeeQueries.agingOpen(siteIds, zoneType)),
@@ -375,7 +375,7 @@ export async function exportAuditRows(
   });
 }
 
-/** Overdue unclosed actions at the sites, most overdue first (for the report). */
+/** Overdue unfinished actions at the sites, most overdue first (for the report). */
 export async function overdueActions(db: DbOrTx, siteIds: readonly string[], limit: number) {
   const result = await db.execute<{
     id: string;

@@ -37,7 +37,7 @@ export const committeeRoutes = [
     method: "get",
     path: "/committee/trends",
     summary:
-      "Monthly readiness p-charts per site, unclosed and overdue actions by age, median days to close",
+      "Monthly readiness p-charts per site, unfinished and overdue actions by age, median days to close",
     access: anyReadableSite,
     query: committeeQuerySchema,
     async handle({ res, deps, auth, query }) {

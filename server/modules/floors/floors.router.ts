@@ -273,7 +273,7 @@ export const floorRoutes = [
   defineRoute({
     method: "post",
     path: "/spaces/:spaceId/retire",
-    summary: "Retire a space: off the map and new audits, history kept, unclosed actions closed",
+    summary: "Retire a space: off the map and new audits, history kept, unfinished actions done",
     access: space("update:site:site"),
     params: spaceParamsSchema,
     body: retirementBodySchema,

@@ -53,8 +53,8 @@ function SiteActionsPage({ siteId }: { siteId: string }) {
       </p>
       <h1 className="mt-2 text-2xl font-bold tracking-tight md:text-3xl">Corrective actions</h1>
       <p className="mt-1 mb-6 text-ink-muted">
-        Every action{siteName ? ` at ${siteName}` : ""}: not yet closed first, overdue first, then
-        by due time. Tap a column heading to sort by it.
+        Every action{siteName ? ` at ${siteName}` : ""}: not done yet first, overdue first, then by
+        due time. Tap a column heading to sort by it.
       </p>
       {actions.isPending ? (
         <Spinner label="Loading actions…" className="py-8" />

@@ -9,7 +9,7 @@ import { AwaitingSymbol, OverdueSymbol, SeveritySymbol } from "./action-badges";
 export interface FloorActionsKeyProps {
   filter: PinFilter;
   onFilterChange: (filter: PinFilter) => void;
-  /** How many open actions the floor has, and how many are on the map now. */
+  /** How many unfinished actions the floor has, and how many are on the map now. */
   total: number;
   shown: number;
   loading?: boolean;

@@ -63,11 +63,8 @@ export const quantityUnits: Record<Quantity, string> = {
   minutes: "min",
 };
 
-export const severityLabels: Record<Severity, string> = {
-  critical: "Critical",
-  major: "Major",
-  minor: "Minor",
-};
+/** Severities in words, the same everywhere. */
+export { severityLabels } from "@shared/calc/verdict";
 
 export function newItem(): ItemFormValues {
   return {

@@ -60,10 +60,10 @@ function CloseTimesTable({ closeTimes }: { closeTimes: CloseTimes }) {
   );
 }
 
-/** How long actions closed in the period took, per site and severity. */
+/** How long the fixes confirmed in the period took, per site and severity. */
 export function CloseTimes({ closeTimes }: { closeTimes: CloseTimes }) {
   if (closeTimes.length === 0) {
-    return <p className="text-ink-muted">No actions were closed in this period.</p>;
+    return <p className="text-ink-muted">No fixes were confirmed in this period.</p>;
   }
   const sites = [...new Map(closeTimes.map((row) => [row.siteId, row.siteName])).entries()];
   const rows = sites.map(([siteId, name]) => ({

@@ -138,8 +138,8 @@ export function CommitteeOverview({ view, onViewChange }: CommitteeOverviewProps
                   Corrective actions waiting
                 </h2>
                 <p className="mt-1 max-w-prose text-ink-muted">
-                  As of today, whatever the period: actions not yet closed by how long ago they were
-                  opened, and overdue ones by how long past due.
+                  As of today, whatever the period: actions not done yet by how long ago they were
+                  raised, and overdue ones by how long past due.
                 </p>
               </div>
               <ActionAging aging={trends.data.aging} />
@@ -150,7 +150,8 @@ export function CommitteeOverview({ view, onViewChange }: CommitteeOverviewProps
                   Time to close
                 </h2>
                 <p className="mt-1 max-w-prose text-ink-muted">
-                  Median days from opening to a verified close, for actions closed in the period.
+                  Median days from raising an action to its confirmed fix, for fixes confirmed in
+                  the period.
                 </p>
               </div>
               <CloseTimes closeTimes={trends.data.closeTimes} />

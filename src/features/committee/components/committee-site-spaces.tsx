@@ -42,7 +42,7 @@ function SpacesTable({ siteId, spaces }: { siteId: string; spaces: readonly Spac
               Last verdict
             </th>
             <th scope="col" className={cn(tableStyles.head, "text-right")}>
-              Open actions
+              Actions not done
             </th>
             <th scope="col" className={cn(tableStyles.head, "text-right")}>
               Overdue

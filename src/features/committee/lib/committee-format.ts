@@ -1,4 +1,3 @@
-import type { Severity } from "@shared/calc/verdict";
 import { type AgeBucket } from "@shared/schemas/committee";
 
 const minus = "\u2212";
@@ -50,11 +49,8 @@ export function bytesText(bytes: number): string {
   return `${(bytes / 1_000_000).toFixed(1)} MB`;
 }
 
-export const severityLabels: Record<Severity, string> = {
-  critical: "Critical",
-  major: "Major",
-  minor: "Minor",
-};
+/** Severities in words, the same everywhere. */
+export { severityLabels } from "@shared/calc/verdict";
 
 export const ageBucketLabels: Record<AgeBucket, string> = {
   "0-7": "0–7 days",

@@ -75,7 +75,7 @@ export function FloorRetirement({ floorId, floorName, spaceCount, onGone }: Floo
                 {
                   onSuccess: (result) =>
                     onGone(
-                      `${result.name} is retired with ${result.spaces} ${result.spaces === 1 ? "space" : "spaces"}.${result.actions > 0 ? ` ${result.actions} open corrective ${result.actions === 1 ? "action was" : "actions were"} closed as “space retired”.` : ""}`,
+                      `${result.name} is retired with ${result.spaces} ${result.spaces === 1 ? "space" : "spaces"}.${result.actions > 0 ? ` ${result.actions} unfinished corrective ${result.actions === 1 ? "action is" : "actions are"} now Done as “space retired”.` : ""}`,
                     ),
                 },
               )
@@ -87,7 +87,7 @@ export function FloorRetirement({ floorId, floorName, spaceCount, onGone }: Floo
               the committee&apos;s figures.
             </p>
             <p className="text-sm">
-              Corrective actions still open on this floor are closed with the reason &ldquo;space
+              Corrective actions not done yet on this floor become Done with the reason &ldquo;space
               retired&rdquo;; they do not count as fixed. An administrator can restore the floor
               from the site page, and everything this step hides comes back with it.
             </p>

@@ -26,7 +26,7 @@ export function restoredText(result: RetirementResult): string {
     parts.push(`${result.spaces} ${result.spaces === 1 ? "space" : "spaces"} came back with it.`);
   if (result.actions > 0)
     parts.push(
-      `${result.actions} corrective ${result.actions === 1 ? "action" : "actions"} closed by the retirement ${result.actions === 1 ? "is" : "are"} open again.`,
+      `${result.actions} corrective ${result.actions === 1 ? "action" : "actions"} made Done by the retirement ${result.actions === 1 ? "is" : "are"} back in the work list.`,
     );
   return parts.join(" ");
 }

@@ -198,7 +198,7 @@ function SpaceItem({
             figures.
           </p>
           <p className="text-sm">
-            Corrective actions still open here are closed with the reason &ldquo;space
+            Corrective actions not done yet here become Done with the reason &ldquo;space
             retired&rdquo;; they do not count as fixed.
           </p>
           <p className="text-sm">

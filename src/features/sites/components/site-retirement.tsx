@@ -67,7 +67,7 @@ export function SiteRetirement({ siteId, siteName, onRetired }: SiteRetirementPr
               actions are kept in history, exports and the committee&apos;s figures.
             </p>
             <p className="text-sm">
-              Corrective actions still open at the site are closed with the reason &ldquo;space
+              Corrective actions not done yet at the site become Done with the reason &ldquo;space
               retired&rdquo;; they do not count as fixed. A network-wide administrator can restore
               the site from &ldquo;Retired sites&rdquo; on the home page.
             </p>

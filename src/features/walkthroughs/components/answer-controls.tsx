@@ -1,4 +1,4 @@
-import type { Outcome, Severity } from "@shared/calc/verdict";
+import { severityLabels, type Outcome, type Severity } from "@shared/calc/verdict";
 import type { ReactNode } from "react";
 
 import { cn } from "@/lib/cn";
@@ -151,12 +151,6 @@ const severityStyles: Record<Severity, string> = {
   critical: "border-verdict-not-ready/50 bg-verdict-not-ready/10 text-verdict-not-ready",
   major: "border-verdict-conditions/50 bg-verdict-conditions/10 text-verdict-conditions",
   minor: "border-surface-line bg-surface-sunken text-ink-muted",
-};
-
-const severityLabels: Record<Severity, string> = {
-  critical: "Critical",
-  major: "Major",
-  minor: "Minor",
 };
 
 /** Severity in words with a weight mark (three bars, two, one) so it reads without colour. */
