@@ -77,7 +77,7 @@ const rejectedNotes = [
   "The photo is of a different bay.",
 ];
 const reopenedNotes = [
-  "Found the same gap again since it was closed; the fix did not hold.",
+  "Found the same gap again since the fix was confirmed; it did not hold.",
   "The replacement has been taken away again; reopening.",
 ];
 

@@ -644,7 +644,7 @@ export async function reopenAction(move: Move, reason: string): Promise<ActionDe
     const action = await lockFor(tx, move.actionId, "reopen");
     if ((await repo.findAction(tx, action.id))?.spaceRetiredAt) {
       throw conflict(
-        "This action's space is retired. An administrator can restore the space; its actions closed by the retirement then reopen.",
+        "This action's space is retired. An administrator can restore the space; the actions its retirement made Done then go back to where they were.",
       );
     }
     const twin = await repo.newerUnfinishedTwin(tx, action);

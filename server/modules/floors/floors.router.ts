@@ -291,7 +291,7 @@ export const floorRoutes = [
   defineRoute({
     method: "post",
     path: "/spaces/:spaceId/restore",
-    summary: "Restore a retired space and reopen the actions its retirement closed",
+    summary: "Restore a retired space and put back the actions its retirement made Done",
     access: space("update:site:site"),
     params: spaceParamsSchema,
     body: retirementBodySchema,
