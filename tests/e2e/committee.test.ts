@@ -20,7 +20,7 @@ describe("the committee view", () => {
     await browser.close();
   });
 
-  it("when the demo committee member opens the comparison, then three sites show intervals, and the PDF and CSV download", async () => {
+  it("when the demo committee member opens the comparison, then three sites show intervals, the page fits the phone, and the PDF and CSV download", async () => {
     const { page, problems } = await phonePage(browser);
     await signIn(page, "committee@example.org", "lintel-demo-2026");
     await page.getByRole("heading", { level: 1, name: "My sites" }).waitFor();
@@ -35,6 +35,13 @@ describe("the committee view", () => {
       // A 95% interval such as "81.2% – 90.4%" on each site's row.
       expect(await row.innerText()).toMatch(/\d+(\.\d)?% – \d+(\.\d)?%/);
     }
+    // Wide tables scroll inside their frames: the page itself is never wider than the phone.
+    await page.waitForLoadState("networkidle");
+    await page.getByRole("table", { name: /^Median days/ }).waitFor();
+    // (A phone widens its layout to fit overflowing content, so compare with the screen's width.)
+    expect(await page.evaluate(() => document.documentElement.scrollWidth)).toBeLessThanOrEqual(
+      page.viewportSize()!.width,
+    );
 
     const pdfDownload = page.waitForEvent("download");
     await page.getByRole("button", { name: "Download the monthly report (PDF)" }).click();

@@ -234,7 +234,7 @@ export function ActionsTable({
         </p>
       ) : (
         // Explicit roles keep the table's meaning for screen readers while phones restyle it.
-        <div className="md:overflow-x-auto md:rounded-card md:border md:border-surface-line md:bg-surface">
+        <div className="md:relative md:overflow-x-auto md:rounded-card md:border md:border-surface-line md:bg-surface">
           <table role="table" aria-label="Corrective actions" className="block w-full md:table">
             <SortableTableHead table={table} cellClassName="whitespace-nowrap" />
             <tbody role="rowgroup" className="flex flex-col gap-3 md:table-row-group">

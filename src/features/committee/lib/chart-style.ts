@@ -26,7 +26,9 @@ export const axisTick = { fill: chartColours.inkMuted, fontSize: 12 } as const;
 
 export const tableStyles = {
   frame:
-    "overflow-x-auto rounded-card border border-surface-line bg-surface print:overflow-visible",
+    // relative: the words kept for screen readers inside cells are positioned, and would otherwise
+    // escape the scrolling frame and widen the whole page on a phone.
+    "relative overflow-x-auto rounded-card border border-surface-line bg-surface print:overflow-visible",
   table: "committee-table w-full border-collapse text-left text-sm",
   caption: "px-2.5 pt-3 pb-1 text-left font-semibold text-ink",
   head: "border-b-2 border-surface-line px-2.5 py-2 align-bottom font-semibold text-ink-muted",
