@@ -121,7 +121,7 @@ const cellPlacement: Record<string, string> = {
 const labelledOnPhone = new Set(["space", "floor", "owner", "due", "daysToClose"]);
 
 const stateOptions: { value: ActionListState; label: string }[] = [
-  { value: "unfinished", label: "Not done yet" },
+  { value: "unfinished", label: "Not done" },
   { value: "done", label: "Done" },
   { value: "all", label: "All" },
 ];
