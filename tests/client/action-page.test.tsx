@@ -64,7 +64,7 @@ describe("the action page", () => {
     expect(screen.getByRole("complementary", { name: "Caution" })).toBeTruthy();
   });
 
-  it("when a facilities lead opens an open action, then they may start work, add a photo and give it to someone else, but not verify", async () => {
+  it("when a facilities lead opens an action to fix, then they may start fixing, add a photo and change its owner, but not confirm it", async () => {
     stubAction(facilitiesLead, buildActionDetail({ state: "to_fix" }));
     renderApp(actionUrl);
 
@@ -77,21 +77,19 @@ describe("the action page", () => {
     expect(screen.queryByRole("button", { name: "Ask for a check" })).toBeNull();
   });
 
-  it("when a facilities lead opens an action in progress, then they may send it for verification and are told a photo is needed", async () => {
+  it("when a facilities lead opens an action being fixed, then they may ask for a check and are told a photo is needed", async () => {
     stubAction(facilitiesLead, buildActionDetail({ state: "fixing" }));
     renderApp(actionUrl);
 
     expect(await screen.findByRole("button", { name: "Ask for a check" })).toBeTruthy();
     expect(screen.getByLabelText("Note for the auditor")).toBeTruthy();
     expect(
-      screen.getByText(
-        "A photo of the fix is needed before you can \"Ask for a check\".",
-      ),
+      screen.getByText('A photo of the fix is needed before you can "Ask for a check".'),
     ).toBeTruthy();
     expect(screen.queryByRole("button", { name: "Start fixing" })).toBeNull();
   });
 
-  it("when an auditor opens an action awaiting verification, then they may verify or reject, and nothing else", async () => {
+  it("when an auditor opens a fix to check, then they may confirm it or send it back, and nothing else", async () => {
     stubAction(siteAuditor, buildActionDetail({ state: "to_check" }));
     renderApp(actionUrl);
 
@@ -102,18 +100,16 @@ describe("the action page", () => {
     expect(screen.queryByLabelText("Add a photo of the fix")).toBeNull();
   });
 
-  it("when an auditor opens an open action, then there is nothing for them to do yet", async () => {
+  it("when an auditor opens an action to fix, then there is nothing for them to do yet", async () => {
     stubAction(siteAuditor, buildActionDetail({ state: "to_fix" }));
     renderApp(actionUrl);
 
     await screen.findByRole("heading", { name: "What happens next" });
     expect(moveButtons()).toEqual([]);
-    expect(
-      screen.getByText("Raised from a finding; nobody has started on it yet."),
-    ).toBeTruthy();
+    expect(screen.getByText("Raised from a finding; nobody has started on it yet.")).toBeTruthy();
   });
 
-  it("when an auditor opens a closed action, then they may reopen it and the days to close are shown", async () => {
+  it("when an auditor opens a done action, then they may reopen it and the days to close are shown", async () => {
     stubAction(
       siteAuditor,
       buildActionDetail({
@@ -135,10 +131,12 @@ describe("the action page", () => {
 
     await screen.findByRole("heading", { name: "What happens next" });
     expect(moveButtons()).toEqual([]);
-    expect(screen.getByText("Proof of the fix was sent; an auditor of the site must look at it.")).toBeTruthy();
+    expect(
+      screen.getByText("Proof of the fix was sent; an auditor of the site must look at it."),
+    ).toBeTruthy();
   });
 
-  it("when a facilities lead sends for verification without a note, then it is refused beside the note and nothing is sent", async () => {
+  it("when a facilities lead asks for a check without a note, then it is refused beside the note and nothing is sent", async () => {
     const { calls } = stubAction(facilitiesLead, buildActionDetail({ state: "fixing" }));
     const { user } = renderApp(actionUrl);
 
@@ -172,7 +170,7 @@ describe("the action page", () => {
     });
   });
 
-  it("when an auditor verifies with a note, then the action comes back closed and the timeline has the move", async () => {
+  it("when an auditor confirms the fix with a note, then the action comes back done and the history has the move", async () => {
     let detail = buildActionDetail({ state: "to_check" });
     const { calls } = stubAction(siteAuditor, detail, {
       [`GET /api/actions/${actionId}`]: () => jsonResponse(detail),
@@ -201,10 +199,7 @@ describe("the action page", () => {
     });
     const { user } = renderApp(actionUrl);
 
-    await user.type(
-      await screen.findByLabelText("What you saw"),
-      "Chair in place and labelled.",
-    );
+    await user.type(await screen.findByLabelText("What you saw"), "Chair in place and labelled.");
     await user.click(screen.getByRole("button", { name: "Confirm the fix" }));
 
     expect(await screen.findByText("The fix is confirmed: this action is done.")).toBeTruthy();
@@ -296,7 +291,7 @@ describe("the action page", () => {
     expect(sentIds()[4]).toMatch(uuid);
     expect(sentIds()[4]).not.toBe(first);
   });
-  it("when a photo of the fix is still uploading, then sending for verification waits for it", async () => {
+  it("when a photo of the fix is still uploading, then asking for a check waits for it", async () => {
     const detail = buildActionDetail({ state: "fixing" });
     let finish: (response: Response) => void = () => undefined;
     stubAction(facilitiesLead, detail, {
@@ -314,15 +309,13 @@ describe("the action page", () => {
     await user.upload(screen.getByLabelText("Add a photo of the fix"), file);
     await waitFor(() =>
       expect(
-        (screen.getByRole("button", { name: "Ask for a check" }) as HTMLButtonElement)
-          .disabled,
+        (screen.getByRole("button", { name: "Ask for a check" }) as HTMLButtonElement).disabled,
       ).toBe(true),
     );
     finish(jsonResponse(detail, 201));
     await waitFor(() =>
       expect(
-        (screen.getByRole("button", { name: "Ask for a check" }) as HTMLButtonElement)
-          .disabled,
+        (screen.getByRole("button", { name: "Ask for a check" }) as HTMLButtonElement).disabled,
       ).toBe(false),
     );
   });

@@ -127,7 +127,7 @@ describe("the site's action list", () => {
   const listUrl = `/sites/${tamsinGeneral.id}/actions`;
   const exportLink = () => screen.getByRole("link", { name: "Download CSV" }).getAttribute("href");
 
-  it("when it opens, then the open actions show in the server's order and the CSV link asks for the open ones", async () => {
+  it("when it opens, then the unfinished actions show in the server's order and the CSV link asks for the unfinished ones", async () => {
     stubList();
     renderApp(listUrl);
 

@@ -50,8 +50,8 @@ async function pinElements(): Promise<HTMLElement[]> {
   return [...map.querySelectorAll<HTMLElement>("[data-action-id]")];
 }
 
-describe("open actions on the floor plan", () => {
-  it("when the floor has open actions, then each is a pin with its severity symbol, marks and title", async () => {
+describe("unfinished actions on the floor plan", () => {
+  it("when the floor has unfinished actions, then each is a pin with its severity symbol, marks and title", async () => {
     const { calls } = stubFloorWithActions();
     renderApp(floorUrl);
 

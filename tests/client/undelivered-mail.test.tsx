@@ -115,8 +115,8 @@ describe("e-mail that may not have arrived", () => {
   });
 });
 
-describe("fixes to verify on the auditor's home page", () => {
-  it("when a fix waits for verification at the auditor's site, then their home page lists it with its severity and status in words", async () => {
+describe("fixes to check on the auditor's home page", () => {
+  it("when a fix waits for its check at the auditor's site, then their home page lists it with its severity and state in words", async () => {
     const waiting = buildAction({ state: "to_check" });
     stubApi({
       "GET /api/auth/me": () => jsonResponse(siteAuditor),

@@ -18,7 +18,7 @@ describe("an isolation room whose airflow nobody confirmed (390×844)", () => {
     await browser.close();
   });
 
-  it("when the auditor marks the pressure and the visual test not applicable, then the result says not ready: inward airflow not confirmed", async () => {
+  it("when the auditor marks the pressure and the visual test not applicable, then the result says hold until fixed: inward airflow not confirmed", async () => {
     const { page, problems } = await phonePage(browser);
     await page.goto(`${baseUrl()}/sign-in`);
     await page.getByLabel("E-mail").fill("auditor@example.org");

@@ -13,7 +13,7 @@ describe("an audit on a phone that loses its connection half-way (390×844)", ()
     await browser.close();
   });
 
-  it("when the auditor finishes offline and reconnects, then the audit arrives once with its photo and says not ready", async () => {
+  it("when the auditor finishes offline and reconnects, then the audit arrives once with its photo and says hold until fixed", async () => {
     const { page, problems } = await phonePage(browser);
     const context = page.context();
     await page.goto(`${baseUrl()}/sign-in`);

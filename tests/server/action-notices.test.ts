@@ -173,7 +173,7 @@ describe("corrective action e-mail and notices", () => {
     );
   });
 
-  it("when an action waits for verification or is closed, then no time-based notice goes to the owner", async () => {
+  it("when an action's fix waits for its check or the action is done, then no time-based notice goes to the owner", async () => {
     const action = await failedAudit("Removal order displayed at eye level");
     await as(lead).post(`/api/actions/${action.id}/start`);
     await as(lead)

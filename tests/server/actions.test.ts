@@ -222,7 +222,7 @@ describe("corrective actions", () => {
     expect(row!.state).toBe("to_fix");
   });
 
-  it("when the lead sends for verification without a photo of the fix, then 400 names the proof and nothing changes", async () => {
+  it("when the lead asks for a check without a photo of the fix, then 400 names the proof and nothing changes", async () => {
     const space = await insertSpace(testApp().deps.db, floor);
     await submitWithFailures(space, ["Removal order displayed at eye level"]);
     const [action] = await actionsOf(space.id);
@@ -274,7 +274,7 @@ describe("corrective actions", () => {
     expect(asked.some((mail) => mail.textBody?.includes(`/actions/${id}`))).toBe(true);
   });
 
-  it("when anyone but an auditor tries to close, then 403; the auditor's verification closes it with days to close", async () => {
+  it("when anyone but an auditor tries to confirm the fix, then 403; the auditor's confirmation makes it done with days to close", async () => {
     const { actionId } = await sentForCheck();
     for (const person of [lead, admin, committee]) {
       const response = await as(person)
@@ -305,7 +305,7 @@ describe("corrective actions", () => {
     expect(again.status).toBe(409);
   });
 
-  it("when the auditor rejects the proof, then it is back in progress and needs a new photo", async () => {
+  it("when the auditor sends the fix back, then it is being fixed again and needs a new photo", async () => {
     const { actionId } = await sentForCheck("Mirror or observer position");
     const rejected = await as(auditor)
       .post(`/api/actions/${actionId}/send-back`)
@@ -328,7 +328,7 @@ describe("corrective actions", () => {
     ).toBe(200);
   });
 
-  it("when an auditor reopens a closed action, then it is in progress again with its history and original due time", async () => {
+  it("when an auditor reopens a done action, then it is being fixed again with its history and original due time", async () => {
     const { actionId } = await sentForCheck("Clean chair for the last steps");
     await as(auditor).post(`/api/actions/${actionId}/confirm`).send({ note: "Chair in place" });
     const before = (await as(auditor).get(`/api/actions/${actionId}`)).body as ActionDetail;
@@ -375,7 +375,7 @@ describe("corrective actions", () => {
     expect(logged.every((row) => row.actorId !== null)).toBe(true);
   });
 
-  it("when a closed action's item has a newer open action, then reopening is refused as a twin", async () => {
+  it("when a done action's item has a newer unfinished action, then reopening is refused as a twin", async () => {
     const { space, actionId } = await sentForCheck("No clean supplies stored");
     await as(auditor).post(`/api/actions/${actionId}/confirm`).send({ note: "Cleared" });
     await submitWithFailures(space, ["No clean supplies stored in the doffing area"]);

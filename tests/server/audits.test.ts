@@ -130,7 +130,7 @@ describe("audits", () => {
     expect(rows!.n).toBe(1);
   });
 
-  it("when a critical item fails with its photo, then the verdict is not ready and the score weighs severities", async () => {
+  it("when a critical item fails with its photo, then the verdict is hold until fixed and the score weighs severities", async () => {
     const { auditId, detail } = await start(await newSpace("doffing_area"));
     const chair = item(detail, "Dirty chair present");
     expect(chair.severity).toBe("critical");

@@ -84,7 +84,7 @@ describe("proof replays", () => {
     expect(await proofsOf(actionId)).toBe(1);
   });
 
-  it("when a proof is sent again after the fix went for verification, then the stored proof comes back", async () => {
+  it("when a proof is sent again after the owner asked for a check, then the stored proof comes back", async () => {
     const actionId = await startedAction();
     const id = crypto.randomUUID();
     const picture = await jpegWithGps({ colour: "#7d5f3a" });

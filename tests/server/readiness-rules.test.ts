@@ -97,7 +97,7 @@ describe("readiness of an isolation room through the real routes", () => {
 
   const submit = (auditId: string) => as(auditor).post(`/api/audits/${auditId}/submit`);
 
-  it("when pressure and the visual test are both not applicable and everything else passes, then not ready: inward airflow not confirmed", async () => {
+  it("when pressure and the visual test are both not applicable and everything else passes, then hold until fixed: inward airflow not confirmed", async () => {
     const { auditId, detail } = await startIsolationRoom();
     await answerAll(auditId, detail, {
       "room.pressure": { outcome: "not_applicable", note: "Monitor out of service" },
@@ -116,7 +116,7 @@ describe("readiness of an isolation room through the real routes", () => {
     expect(read.body.audit.verdictReasons).toEqual([airflowNotConfirmedReason]);
   });
 
-  it("when the visual test fails while the pressure reading passes, then not ready, the visual test named", async () => {
+  it("when the visual test fails while the pressure reading passes, then hold until fixed, the visual test named", async () => {
     const { auditId, detail } = await startIsolationRoom();
     await answerAll(auditId, detail, {
       "room.smoke-test": { outcome: "fail", note: "Smoke drifts out under the door" },
@@ -159,7 +159,7 @@ describe("readiness of an isolation room through the real routes", () => {
     expect(enough.body.answer).toMatchObject({ outcome: "pass", value: -2.5, enteredValue: -2.5 });
   });
 
-  it("when the pressure fails at −2.4 Pa and the visual test is not applicable, then not ready naming both", async () => {
+  it("when the pressure fails at −2.4 Pa and the visual test is not applicable, then hold until fixed, naming both", async () => {
     const { auditId, detail } = await startIsolationRoom();
     await answerAll(auditId, detail, {
       "room.pressure": { outcome: "pass", value: -2.4, unit: "Pa", note: "Reading low" },

@@ -227,7 +227,7 @@ describe("retired versus deleted", () => {
     expect(logged?.reason).toBe("Ward converted to offices");
   });
 
-  it("when a space with unclosed actions is retired, then they close with the reason space retired, are not counted as fixed, and restore reopens them as they were", async () => {
+  it("when a space with unfinished actions is retired, then they are done with the reason space retired, are not counted as fixed, and restore reopens them as they were", async () => {
     const floor = await insertFloor(db(), siteId);
     const space = await insertSpace(db(), floor);
     await submitted(space, ["Disinfectant wipes available", "Spare clean gloves in several sizes"]);

@@ -246,7 +246,7 @@ describe("fixes to check on the auditor's home page", () => {
     await mail.close();
   });
 
-  it("when a fix is sent for verification, then the site's auditors find it on their home page and nobody else does", async () => {
+  it("when the owner asks for a check, then the site's auditors find it on their home page and nobody else does", async () => {
     const { db } = mail.deps;
     const as = (person: SignedInPerson) => api(mail.app, { cookie: person.cookie });
     const networkId = (await insertNetwork(db)).id;

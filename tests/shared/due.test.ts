@@ -142,7 +142,7 @@ describe("time-based notices", () => {
     expect(dueSoonApplies(criticalOpened, criticalDue, at("2026-03-29T09:00:00Z"))).toBe(false);
   });
 
-  it("when past due and not closed, then overdue; a closed action never is", () => {
+  it("when past due and not done, then overdue; a done action never is", () => {
     expect(isOverdue(due, at("2026-04-01T08:00:00Z"), false)).toBe(false);
     expect(isOverdue(due, at("2026-04-01T08:00:01Z"), false)).toBe(true);
     expect(isOverdue(due, at("2026-05-01T00:00:00Z"), true)).toBe(false);

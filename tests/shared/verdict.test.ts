@@ -25,7 +25,7 @@ describe("verdict (Lintel's own rules, version 2)", () => {
     expect(rulesVersion).toBe(2);
   });
 
-  it("when a critical item fails, then not ready, naming the item, whatever else passes", () => {
+  it("when a critical item fails, then hold until fixed, naming the item, whatever else passes", () => {
     expect(
       readinessOf("doffing_area", [
         answer("critical", "fail"),
@@ -35,7 +35,7 @@ describe("verdict (Lintel's own rules, version 2)", () => {
     ).toEqual({ verdict: "hold", reasons: ["Critical item failed: The critical item"] });
   });
 
-  it("when only major or minor items fail, then ready with conditions, naming each", () => {
+  it("when only major or minor items fail, then gaps to fix, naming each", () => {
     expect(readinessOf("anteroom", [answer("critical", "pass"), answer("minor", "fail")])).toEqual({
       verdict: "gaps_to_fix",
       reasons: ["Minor item failed: The minor item"],
@@ -51,7 +51,7 @@ describe("verdict (Lintel's own rules, version 2)", () => {
 
   // Lintel's own rule, on top of CDC 2005 TB guidelines, MMWR 54(RR-17): check negative pressure
   // (smoke tube or monitor) before occupancy and daily while occupied (clause from memory).
-  it("when an isolation room's pressure and visual test are both not applicable, then not ready: inward airflow not confirmed", () => {
+  it("when an isolation room's pressure and visual test are both not applicable, then hold until fixed: inward airflow not confirmed", () => {
     expect(
       readinessOf("isolation_room", [
         pressure("not_applicable"),
@@ -63,7 +63,7 @@ describe("verdict (Lintel's own rules, version 2)", () => {
     expect(airflowNotConfirmedReason).toMatch(/^Inward airflow not confirmed/);
   });
 
-  it("when an isolation room's checklist has neither airflow item, then not ready: inward airflow not confirmed", () => {
+  it("when an isolation room's checklist has neither airflow item, then hold until fixed: inward airflow not confirmed", () => {
     expect(readinessOf("isolation_room", [answer("critical", "pass")]).reasons).toEqual([
       airflowNotConfirmedReason,
     ]);
@@ -82,7 +82,7 @@ describe("verdict (Lintel's own rules, version 2)", () => {
 
   // Lintel's own rule: a visual test showing air leaving the room is critical, whatever the
   // severity the checklist gives the item.
-  it("when the visual (smoke) test fails, then not ready even though the pressure reading passes", () => {
+  it("when the visual (smoke) test fails, then hold until fixed even though the pressure reading passes", () => {
     const result = readinessOf("isolation_room", [pressure("pass"), smoke("fail")]);
     expect(result.verdict).toBe("hold");
     expect(result.reasons).toEqual([
