@@ -297,7 +297,7 @@ export async function benchCommittee(cluster: Cluster, s3Endpoint: string): Prom
           url: `${origin}/api/committee/trends?${query}`,
           sql: [
             committeeQueries.readinessByMonth(siteIds, period),
-            committeeQueries.agingOpen(siteIds),
+            committeeQueries.agingUnfinished(siteIds),
             committeeQueries.agingOverdue(siteIds),
             committeeQueries.closeTimes(siteIds, period),
           ],

@@ -128,7 +128,12 @@ export const trendsResponseSchema = z.object({
   ),
   /** Unfinished actions by days since opening, and overdue ones by days past due, now. */
   aging: z.array(
-    z.object({ siteId: uuidSchema, siteName: responseText(), open: buckets, overdue: buckets }),
+    z.object({
+      siteId: uuidSchema,
+      siteName: responseText(),
+      unfinished: buckets,
+      overdue: buckets,
+    }),
   ),
   /** Median days from opening to a confirmed fix, for actions done in the period. */
   closeTimes: z.array(
@@ -160,7 +165,7 @@ export const siteDrillDownSchema = z.object({
       readiness: proportionSchema,
       lastVerdict: z.enum(verdicts).nullable(),
       lastAuditAt: responseText().nullable(),
-      openActions: z.number().int(),
+      unfinishedActions: z.number().int(),
       overdueActions: z.number().int(),
     }),
   ),

@@ -185,7 +185,7 @@ describe("the committee trends", () => {
       screen.getByRole("img", { name: new RegExp(`Control chart .* ${tamsinGeneral.name}`) }),
     ).toBeTruthy();
 
-    const open = screen.getByRole("table", { name: "Unclosed actions by days since opening" });
+    const open = screen.getByRole("table", { name: "Actions not done yet, by days since raised" });
     expect(
       within(open).getByRole("row", { name: new RegExp(tamsinGeneral.name) }).textContent,
     ).toContain("4321" + "10");

@@ -39,7 +39,7 @@ describe("the committee view", () => {
     await page.waitForLoadState("networkidle");
     await page.getByRole("table", { name: /^Median days/ }).waitFor();
     // (A phone widens its layout to fit overflowing content, so compare with the screen's width.)
-    expect(await page.evaluate(() => document.documentElement.scrollWidth)).toBeLessThanOrEqual(
+    expect(await page.evaluate<number>("document.documentElement.scrollWidth")).toBeLessThanOrEqual(
       page.viewportSize()!.width,
     );
 

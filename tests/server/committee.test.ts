@@ -340,7 +340,7 @@ describe("committee view", () => {
     const body = (await as(committee).get(`/api/committee/trends?from=${from}&to=${to}`))
       .body as TrendsResponse;
     const aging = body.aging.find((row) => row.siteId === siteId)!;
-    expect(aging.open).toEqual({ "0-7": 1, "8-30": 1, "31-90": 1, "90+": 1 });
+    expect(aging.unfinished).toEqual({ "0-7": 1, "8-30": 1, "31-90": 1, "90+": 1 });
     expect(aging.overdue).toEqual({ "0-7": 1, "8-30": 0, "31-90": 1, "90+": 1 });
     const closing = body.closeTimes.find(
       (row) => row.siteId === siteId && row.severity === "major",

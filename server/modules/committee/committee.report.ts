@@ -201,10 +201,10 @@ export function buildMonthlyReport(input: ReportInput): Promise<Buffer> {
     ["Site", "0–7 days", "8–30 days", "31–90 days", "Over 90 days", "Overdue (all)"],
     trends.aging.map((row) => [
       row.siteName,
-      String(row.open["0-7"]),
-      String(row.open["8-30"]),
-      String(row.open["31-90"]),
-      String(row.open["90+"]),
+      String(row.unfinished["0-7"]),
+      String(row.unfinished["8-30"]),
+      String(row.unfinished["31-90"]),
+      String(row.unfinished["90+"]),
       String(Object.values(row.overdue).reduce((sum, n) => sum + n, 0)),
     ]),
   );

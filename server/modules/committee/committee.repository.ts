@@ -187,7 +187,7 @@ export const committeeQueries = {
      group by site_id, month
     having sum(audits) > 0
      order by site_id, month`,
-  agingOpen: (siteIds: readonly string[], zoneType?: ZoneType) =>
+  agingUnfinished: (siteIds: readonly string[], zoneType?: ZoneType) =>
     agedBuckets(
       "opened_at",
       sql`from corrective_actions ca ${zoneJoin(zoneType)}
@@ -253,11 +253,11 @@ type Buckets = { "0-7": number; "8-30": number; "31-90": number; "90+": number }
 
 /** Unfinished actions aged since opening, and overdue ones since their due time, as of now. */
 export async function actionAging(db: DbOrTx, siteIds: readonly string[], zoneType?: ZoneType) {
-  const [open, overdue] = await Promise.all([
-    db.execute<Buckets & { site_id: string }>(committeeQueries.agingOpen(siteIds, zoneType)),
+  const [unfinished, overdue] = await Promise.all([
+    db.execute<Buckets & { site_id: string }>(committeeQueries.agingUnfinished(siteIds, zoneType)),
     db.execute<Buckets & { site_id: string }>(committeeQueries.agingOverdue(siteIds, zoneType)),
   ]);
-  return { open: open.rows, overdue: overdue.rows };
+  return { unfinished: unfinished.rows, overdue: overdue.rows };
 }
 
 /** Median days to close by site and severity, for actions closed within the period. */
@@ -284,7 +284,7 @@ export async function spacesOfSite(db: DbOrTx, siteId: string, period: Period) {
     all_clear: number;
     last_verdict: Verdict | null;
     last_audit_at: Date | null;
-    open_actions: number;
+    unfinished_actions: number;
     overdue_actions: number;
   }>(sql`
     with bounds as (
@@ -296,7 +296,7 @@ export async function spacesOfSite(db: DbOrTx, siteId: string, period: Period) {
            f.name as floor_name,
            coalesce(stats.audits, 0)::int as audits, coalesce(stats.all_clear, 0)::int as all_clear,
            latest.verdict as last_verdict, latest.submitted_at as last_audit_at,
-           coalesce(work.open_actions, 0)::int as open_actions,
+           coalesce(work.unfinished_actions, 0)::int as unfinished_actions,
            coalesce(work.overdue_actions, 0)::int as overdue_actions
       from spaces sp
       join floors f on f.id = sp.floor_id
@@ -313,7 +313,7 @@ export async function spacesOfSite(db: DbOrTx, siteId: string, period: Period) {
          order by a.submitted_at desc limit 1
       ) latest on true
       left join lateral (
-        select count(*) as open_actions, count(*) filter (where ca.due_at < now()) as overdue_actions
+        select count(*) as unfinished_actions, count(*) filter (where ca.due_at < now()) as overdue_actions
           from corrective_actions ca where ca.space_id = sp.id and ca.state <> 'done'
       ) work on true
      where sp.site_id = ${siteId} ${zone}

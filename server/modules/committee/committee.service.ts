@@ -169,7 +169,7 @@ export async function trends(
       };
     }),
     aging: sites.map((site) => {
-      const pick = (rows: typeof aging.open) => {
+      const pick = (rows: typeof aging.unfinished) => {
         const row = rows.find((candidate) => candidate.site_id === site.id);
         const buckets = emptyBuckets();
         for (const bucket of ageBuckets) buckets[bucket] = row?.[bucket] ?? 0;
@@ -178,7 +178,7 @@ export async function trends(
       return {
         siteId: site.id,
         siteName: site.name,
-        open: pick(aging.open),
+        unfinished: pick(aging.unfinished),
         overdue: pick(aging.overdue),
       };
     }),
@@ -220,7 +220,7 @@ export async function siteDrillDown(
       readiness: proportion(row.all_clear, row.audits),
       lastVerdict: row.last_verdict,
       lastAuditAt: row.last_audit_at ? new Date(row.last_audit_at).toISOString() : null,
-      openActions: row.open_actions,
+      unfinishedActions: row.unfinished_actions,
       overdueActions: row.overdue_actions,
     })),
   };

@@ -107,7 +107,7 @@ export function buildTrends(overrides: Partial<TrendsResponse> = {}): TrendsResp
       {
         siteId: tamsinGeneral.id,
         siteName: tamsinGeneral.name,
-        open: { "0-7": 4, "8-30": 3, "31-90": 2, "90+": 1 },
+        unfinished: { "0-7": 4, "8-30": 3, "31-90": 2, "90+": 1 },
         overdue: { "0-7": 2, "8-30": 1, "31-90": 0, "90+": 1 },
       },
     ],
@@ -145,7 +145,7 @@ export function buildDrillDown(overrides: Partial<SiteDrillDown> = {}): SiteDril
         readiness: proportionOf(9, 12),
         lastVerdict: "gaps_to_fix",
         lastAuditAt: "2026-04-02T09:00:00.000Z",
-        openActions: 2,
+        unfinishedActions: 2,
         overdueActions: 1,
       },
     ],

@@ -10,10 +10,10 @@ import { ChartFigure, type LegendEntry } from "./chart-figure";
 import { SiteNameTickLeft } from "./chart-ticks";
 
 type Aging = TrendsResponse["aging"];
-type Measure = "open" | "overdue";
+type Measure = "unfinished" | "overdue";
 
 const titles: Record<Measure, string> = {
-  open: "Unclosed actions by days since opening",
+  unfinished: "Actions not done yet, by days since raised",
   overdue: "Overdue actions by days past due",
 };
 
@@ -29,7 +29,7 @@ const legend: LegendEntry[] = ageBuckets.map((bucket) => ({
   ),
 }));
 
-const totalOf = (buckets: Aging[number]["open"]) =>
+const totalOf = (buckets: Aging[number]["unfinished"]) =>
   ageBuckets.reduce((sum, bucket) => sum + buckets[bucket], 0);
 
 function AgingTable({ aging, measure }: { aging: Aging; measure: Measure }) {
@@ -119,7 +119,7 @@ function AgingChart({ aging, measure }: { aging: Aging; measure: Measure }) {
 export function ActionAging({ aging }: { aging: Aging }) {
   return (
     <div className="flex flex-col gap-6">
-      <AgingChart aging={aging} measure="open" />
+      <AgingChart aging={aging} measure="unfinished" />
       <AgingChart aging={aging} measure="overdue" />
     </div>
   );

@@ -95,7 +95,7 @@ function SpacesTable({ siteId, spaces }: { siteId: string; spaces: readonly Spac
                   <span className="text-ink-muted">Not audited yet</span>
                 )}
               </td>
-              <td className={tableStyles.number}>{space.openActions}</td>
+              <td className={tableStyles.number}>{space.unfinishedActions}</td>
               <td
                 className={cn(
                   tableStyles.number,
