@@ -19,7 +19,7 @@ export default defineConfig({
         test: {
           name: "unit",
           environment: "node",
-          include: ["tests/shared/**/*.test.ts"],
+          include: ["tests/shared/**/*.test.ts", "tests/tooling/**/*.test.ts"],
           setupFiles: ["tests/setup/fail-on-console-error.ts"],
         },
       },

@@ -62,6 +62,9 @@ process.env.AWS_SDK_JS_NODE_VERSION_SUPPORT_WARNING_DISABLED ??= "true";
 
 export type Env = z.infer<typeof envSchema> & { publicUrl: URL };
 
+/** Every variable the settings parser reads (the README's configuration table names each). */
+export const settingNames = Object.keys(envSchema.shape);
+
 export function parseEnv(source: NodeJS.ProcessEnv = process.env): Env {
   const result = envSchema.safeParse(source);
   if (!result.success) {

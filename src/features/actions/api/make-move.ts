@@ -32,4 +32,3 @@ export function useMakeMove(actionId: string, move: WordMove) {
     onSuccess: (detail) => storeMovedAction(queryClient, detail),
   });
 }
-
