@@ -6,7 +6,7 @@ import { describe, expect, it } from "vitest";
 import { chartLines, markerPath, markers, markerShapes } from "@/components/ui/markers";
 import { markShapes } from "@/components/ui/marks";
 import { VerdictBadge, VerdictBanner } from "@/components/ui/verdict-badge";
-import { StatusBadge } from "@/features/actions/components/action-badges";
+import { StateBadge } from "@/features/actions/components/action-badges";
 import { actionPinHtml } from "@/features/actions/lib/action-pins";
 import { PChart } from "@/features/committee/components/p-chart";
 import { ReadinessChart } from "@/features/committee/components/readiness-chart";
@@ -150,11 +150,11 @@ describe("doorway marks", () => {
       to_check: "Fix to check",
       done: "Done",
     };
-    for (const status of actionStates) {
-      expect(actionStateLabels[status]).toBe(expected[status]);
-      const badge = render(<StatusBadge status={status} />).container.firstElementChild!;
-      expect(badge.textContent).toBe(expected[status]);
-      expect(badge.querySelector("svg")!.getAttribute("data-mark")).toBe(status);
+    for (const state of actionStates) {
+      expect(actionStateLabels[state]).toBe(expected[state]);
+      const badge = render(<StateBadge state={state} />).container.firstElementChild!;
+      expect(badge.textContent).toBe(expected[state]);
+      expect(badge.querySelector("svg")!.getAttribute("data-mark")).toBe(state);
     }
   });
 });

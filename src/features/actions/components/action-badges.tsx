@@ -59,7 +59,7 @@ export function SeverityBadge({ severity, className }: { severity: Severity; cla
   );
 }
 
-const statusTones: Record<ActionState, string> = {
+const stateTones: Record<ActionState, string> = {
   to_fix: "border-action-to-fix/40 bg-action-to-fix/10 text-action-to-fix",
   fixing: "border-action-fixing/40 bg-action-fixing/10 text-action-fixing",
   to_check: "border-action-to-check/40 bg-action-to-check/10 text-action-to-check",
@@ -67,11 +67,11 @@ const statusTones: Record<ActionState, string> = {
 };
 
 /** Where an action stands: its doorway mark (see `marks.tsx`) and its words. */
-export function StatusBadge({ status, className }: { status: ActionState; className?: string }) {
+export function StateBadge({ state, className }: { state: ActionState; className?: string }) {
   return (
-    <span className={cn(chip, statusTones[status], className)} data-status={status}>
-      <Mark meaning={status} />
-      {actionStateLabels[status]}
+    <span className={cn(chip, stateTones[state], className)} data-state={state}>
+      <Mark meaning={state} />
+      {actionStateLabels[state]}
     </span>
   );
 }

@@ -12,7 +12,7 @@ import { linkStyles } from "@/components/ui/text-link";
 
 import { closeReasonText, daysToCloseText, dueText, timelineLabels } from "../lib/action-labels";
 import { actionImageHref } from "../lib/action-images";
-import { OverdueMark, SeverityBadge, StatusBadge } from "./action-badges";
+import { OverdueMark, SeverityBadge, StateBadge } from "./action-badges";
 
 function atSite(iso: string, timeZone: string): string {
   const at = new Date(iso);
@@ -181,7 +181,7 @@ export function ActionView({ detail, siteHref, floorHref, location, moves }: Act
       </p>
       <div className="mt-3 flex flex-wrap items-center gap-2">
         <SeverityBadge severity={action.severity} />
-        <StatusBadge status={action.state} />
+        <StateBadge state={action.state} />
         {action.overdue ? <OverdueMark /> : null}
       </div>
       <dl className="mt-4 grid grid-cols-1 gap-x-6 gap-y-2 text-sm min-[420px]:grid-cols-2 lg:grid-cols-4">

@@ -28,7 +28,7 @@ import {
   defaultTableFilters,
   matchesState,
 } from "../lib/action-filters";
-import { OverdueMark, SeverityBadge, StatusBadge } from "./action-badges";
+import { OverdueMark, SeverityBadge, StateBadge } from "./action-badges";
 
 const stateFilter: FilterFn<ActionSummary> = (row, _columnId, state: ActionListState) =>
   matchesState(row.original, state);
@@ -76,7 +76,7 @@ function columnsFor(actionHref: (actionId: string) => string) {
       header: "State",
       filterFn: stateFilter,
       sortingFn: rankOf(statusOrder, (action) => action.state),
-      cell: (info) => <StatusBadge status={info.getValue()} />,
+      cell: (info) => <StateBadge state={info.getValue()} />,
     }),
     column.accessor((action) => action.assignee?.name ?? "", {
       id: "owner",

@@ -6,7 +6,7 @@ import { cn } from "@/lib/cn";
 
 import { useMyChecks } from "../api/get-my-checks";
 import { dueText } from "../lib/action-labels";
-import { OverdueMark, SeverityBadge, StatusBadge } from "./action-badges";
+import { OverdueMark, SeverityBadge, StateBadge } from "./action-badges";
 
 export interface ActionsToCheckProps {
   actionHref: (actionId: string) => string;
@@ -64,7 +64,7 @@ export function ActionsToCheck({ actionHref }: ActionsToCheckProps) {
                 <span className="flex flex-wrap gap-2">
                   <SeverityBadge severity={action.severity} />
                   {action.overdue ? <OverdueMark /> : null}
-                  <StatusBadge status={action.state} />
+                  <StateBadge state={action.state} />
                 </span>
               </Link>
             </li>

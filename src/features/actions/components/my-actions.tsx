@@ -6,7 +6,7 @@ import { cn } from "@/lib/cn";
 
 import { useMyActions } from "../api/get-my-actions";
 import { dueText } from "../lib/action-labels";
-import { OverdueMark, SeveritySymbol, StatusBadge } from "./action-badges";
+import { OverdueMark, SeveritySymbol, StateBadge } from "./action-badges";
 
 export interface MyActionsProps {
   actionHref: (actionId: string) => string;
@@ -79,7 +79,7 @@ export function MyActions({ actionHref, showAll = false, headingLevel = 2 }: MyA
                 </span>
                 <span className="flex flex-wrap gap-2">
                   {action.overdue ? <OverdueMark /> : null}
-                  <StatusBadge status={action.state} />
+                  <StateBadge state={action.state} />
                 </span>
               </Link>
             </li>
