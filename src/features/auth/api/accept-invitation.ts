@@ -9,8 +9,8 @@ import {
 
 import { apiRequest } from "@/lib/api-client";
 
-import { invitationQueryKey } from "./get-invitation";
 import { rememberSignedInPerson } from "./get-me";
+import { queryKeys } from "@/lib/query-keys";
 
 export function acceptInvitation(token: string, body: SetPasswordBody): Promise<MeResponse> {
   return apiRequest(`/api/invitations/${encodeURIComponent(token)}/accept`, {
@@ -25,7 +25,7 @@ export function acceptInvitationMutationOptions(queryClient: QueryClient, token:
   return mutationOptions({
     mutationKey: ["invitations", token, "accept"],
     mutationFn: (body: SetPasswordBody) => acceptInvitation(token, body),
-    onSuccess: (me) => rememberSignedInPerson(queryClient, me, invitationQueryKey(token)),
+    onSuccess: (me) => rememberSignedInPerson(queryClient, me, queryKeys.invitations.detail(token)),
   });
 }
 

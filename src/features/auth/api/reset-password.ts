@@ -10,7 +10,7 @@ import {
 import { apiRequest } from "@/lib/api-client";
 
 import { rememberSignedInPerson } from "./get-me";
-import { passwordResetQueryKey } from "./get-password-reset";
+import { queryKeys } from "@/lib/query-keys";
 
 export function resetPassword(token: string, body: SetPasswordBody): Promise<MeResponse> {
   return apiRequest(`/api/auth/password-reset/${encodeURIComponent(token)}`, {
@@ -25,7 +25,8 @@ export function resetPasswordMutationOptions(queryClient: QueryClient, token: st
   return mutationOptions({
     mutationKey: ["password-resets", token, "complete"],
     mutationFn: (body: SetPasswordBody) => resetPassword(token, body),
-    onSuccess: (me) => rememberSignedInPerson(queryClient, me, passwordResetQueryKey(token)),
+    onSuccess: (me) =>
+      rememberSignedInPerson(queryClient, me, queryKeys.passwordResets.detail(token)),
   });
 }
 
