@@ -1,5 +1,6 @@
 import type { ActionDetail } from "@shared/schemas/actions";
 import type { QueryClient } from "@tanstack/react-query";
+
 import { queryKeys } from "@/lib/query-keys";
 
 /**

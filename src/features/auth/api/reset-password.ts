@@ -8,9 +8,9 @@ import {
 } from "@tanstack/react-query";
 
 import { apiRequest } from "@/lib/api-client";
+import { queryKeys } from "@/lib/query-keys";
 
 import { rememberSignedInPerson } from "./get-me";
-import { queryKeys } from "@/lib/query-keys";
 
 export function resetPassword(token: string, body: SetPasswordBody): Promise<MeResponse> {
   return apiRequest(`/api/auth/password-reset/${encodeURIComponent(token)}`, {

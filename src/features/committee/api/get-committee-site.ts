@@ -2,9 +2,9 @@ import { type SiteDrillDown, siteDrillDownSchema } from "@shared/schemas/committ
 import { queryOptions, useQuery } from "@tanstack/react-query";
 
 import { apiRequest } from "@/lib/api-client";
+import { queryKeys } from "@/lib/query-keys";
 
 import { apiSearch, type CommitteePeriod } from "../lib/committee-view";
-import { queryKeys } from "@/lib/query-keys";
 
 /** One site's spaces in the period: readiness, latest verdict, open and overdue actions. */
 export async function getCommitteeSite(

@@ -2,9 +2,9 @@ import { type ComparisonResponse, comparisonResponseSchema } from "@shared/schem
 import { keepPreviousData, queryOptions, useQuery } from "@tanstack/react-query";
 
 import { apiRequest } from "@/lib/api-client";
+import { queryKeys } from "@/lib/query-keys";
 
 import { apiSearch, type CommitteeView } from "../lib/committee-view";
-import { queryKeys } from "@/lib/query-keys";
 
 /** Readiness and compliance by item group per site, with the chosen pair's difference. */
 export async function getComparison(

@@ -2,9 +2,9 @@ import { type TrendsResponse, trendsResponseSchema } from "@shared/schemas/commi
 import { keepPreviousData, queryOptions, useQuery } from "@tanstack/react-query";
 
 import { apiRequest } from "@/lib/api-client";
+import { queryKeys } from "@/lib/query-keys";
 
 import { apiSearch, type CommitteePeriod } from "../lib/committee-view";
-import { queryKeys } from "@/lib/query-keys";
 
 /** Monthly p-charts per site, unclosed and overdue actions by age, median days to close. */
 export async function getTrends(
