@@ -2,6 +2,7 @@ import { type AmendmentBody, type AuditDetail, auditDetailSchema } from "@shared
 import { useMutation, useQueryClient } from "@tanstack/react-query";
 
 import { apiRequest } from "@/lib/api-client";
+import { invalidateAfterAuditChange } from "@/lib/audit-change";
 import { queryKeys } from "@/lib/query-keys";
 
 /** An administrator's logged correction of a submitted audit; the reply has the new verdict. */
@@ -19,7 +20,7 @@ export function useAmendAudit(auditId: string) {
     mutationFn: (body: AmendmentBody) => amendAudit(auditId, body),
     onSuccess: async (detail) => {
       queryClient.setQueryData(queryKeys.audits.detail(auditId), detail);
-      await queryClient.invalidateQueries({ queryKey: queryKeys.schedules.all });
+      await invalidateAfterAuditChange(queryClient, detail.audit);
     },
   });
 }
