@@ -9,6 +9,7 @@ import type { CommitteeQuery } from "@shared/schemas/committee";
  */
 export const queryKeys = {
   sessions: {
+    /** The key every sign-in, sign-out and session check reads or writes. */
     me: ["sessions", "me"] as const,
   },
   invitations: {

@@ -4,7 +4,6 @@ import { type QueryClient, queryOptions, useQuery } from "@tanstack/react-query"
 import { apiRequest, isApiError } from "@/lib/api-client";
 import { queryKeys } from "@/lib/query-keys";
 
-/** The key every sign-in, sign-out and session check reads or writes. */
 /** The signed-in person and their roles, or null when nobody is signed in. */
 export async function getMe({ signal }: { signal?: AbortSignal } = {}): Promise<MeResponse | null> {
   try {
