@@ -2,6 +2,7 @@ import "fake-indexeddb/auto";
 
 import { readinessOf, rulesVersion, scoreOf } from "@shared/calc/verdict";
 import { cautionText } from "@shared/cautions";
+import type { ActionSummary } from "@shared/schemas/actions";
 import type { AnswerBody, AuditDetail, ScheduleEntry } from "@shared/schemas/audits";
 import type { ChecklistItem } from "@shared/schemas/checklists";
 import { cleanup, screen, within } from "@testing-library/react";
@@ -10,6 +11,7 @@ import { afterEach, describe, expect, it, type MockInstance, vi } from "vitest";
 
 import { closeAuditDevice } from "@/features/walkthroughs/lib/audit-device";
 
+import { buildAction } from "./support/action-data";
 import {
   auditor,
   jsonResponse,
@@ -394,6 +396,80 @@ describe("an audit on the phone", () => {
     expect(server.audits.get([...server.audits.keys()][0]!)!.answers).toHaveLength(4);
     expect(screen.getByText(/Score/).textContent).toContain("58%");
   });
+});
+
+describe("what a synced submission refreshes", () => {
+  it("when a submission queued offline syncs, then the site's due list and its action counts are fetched again", async () => {
+    const items = doffingItems();
+    const { server, fallback } = auditEndpoints(items);
+    // What the server holds before the audit arrives, and after it.
+    let entries = [scheduleEntry({ spaceName: "Doffing area 1", state: "overdue" })];
+    let actions: ActionSummary[] = [];
+    const { calls } = stubApi(
+      {
+        ...signedInAuditor(),
+        [`GET /api/sites/${tamsinGeneral.id}/schedule`]: () => jsonResponse({ entries }),
+        [`GET /api/sites/${tamsinGeneral.id}/actions`]: () => jsonResponse({ actions }),
+      },
+      (request) => {
+        const reply = fallback(request);
+        if (reply && request.path.endsWith("/submit")) {
+          entries = [
+            scheduleEntry({
+              state: "ok",
+              lastAuditAt: "2026-03-02T09:40:00.000Z",
+              dueAt: "2026-04-01T09:40:00.000Z",
+              verdict: "hold",
+            }),
+          ];
+          actions = [buildAction({ spaceId: doffingSpaceId, title: items[0]!.text })];
+        }
+        return reply;
+      },
+    );
+    const online = vi.spyOn(navigator, "onLine", "get").mockReturnValue(true);
+    onLine = online;
+    const { user, router } = renderApp(`/sites/${tamsinGeneral.id}`);
+    expect((await screen.findByTestId("open-actions-count")).textContent).toBe("0");
+    await startFromDueList(user, "Doffing area 1");
+    await vi.waitFor(() => expect(server.audits.size).toBe(1));
+
+    server.down = true;
+    online.mockReturnValue(false);
+    window.dispatchEvent(new Event("offline"));
+    await user.click(screen.getByRole("button", { name: "Fail" }));
+    await user.upload(
+      screen.getByLabelText("Add photo"),
+      new File([new Uint8Array([0xff, 0xd8, 0xff, 0xe0])], "chair.jpg", { type: "image/jpeg" }),
+    );
+    await screen.findByRole("list", { name: "Photos of this item" });
+    await user.click(screen.getByRole("button", { name: "Next" }));
+    await user.type(screen.getByLabelText("Count"), "2");
+    await user.click(screen.getByRole("button", { name: "Next" }));
+    await user.click(screen.getByRole("button", { name: "Mirror" }));
+    await user.click(screen.getByRole("button", { name: "Next" }));
+    await user.click(screen.getByRole("button", { name: "Pass" }));
+    await user.click(screen.getByRole("button", { name: "Next" }));
+    await screen.findByRole("heading", { name: "Review and submit" });
+    await user.click(screen.getByRole("button", { name: "Submit audit" }));
+    expect(await screen.findByText("On this phone only")).toBeTruthy();
+
+    server.down = false;
+    online.mockReturnValue(true);
+    window.dispatchEvent(new Event("online"));
+    expect(await screen.findByText("All changes saved", {}, { timeout: 5000 })).toBeTruthy();
+    expect(server.submits).toBe(1);
+
+    const fetchedBefore = calls.length;
+    await router.navigate(`/sites/${tamsinGeneral.id}`);
+    await vi.waitFor(() => expect(screen.getByTestId("open-actions-count").textContent).toBe("1"));
+    await vi.waitFor(() =>
+      expect(screen.queryByRole("listitem", { name: "Doffing area 1" })).toBeNull(),
+    );
+    const fetchedAfter = calls.slice(fetchedBefore).map((call) => `${call.method} ${call.path}`);
+    expect(fetchedAfter).toContain(`GET /api/sites/${tamsinGeneral.id}/schedule`);
+    expect(fetchedAfter).toContain(`GET /api/sites/${tamsinGeneral.id}/actions`);
+  }, 60_000);
 });
 
 describe("readings at an isolation room", () => {

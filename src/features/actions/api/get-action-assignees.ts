@@ -2,6 +2,7 @@ import { assigneeListResponseSchema } from "@shared/schemas/actions";
 import { queryOptions, useQuery } from "@tanstack/react-query";
 
 import { apiRequest } from "@/lib/api-client";
+import { queryKeys } from "@/lib/query-keys";
 
 export interface AssigneeOption {
   id: string;
@@ -22,7 +23,7 @@ export async function getActionAssignees(
 
 export function actionAssigneesQueryOptions(siteId: string) {
   return queryOptions({
-    queryKey: ["actions", "assignees", siteId] as const,
+    queryKey: queryKeys.actions.assignees(siteId),
     queryFn: ({ signal }) => getActionAssignees(siteId, { signal }),
   });
 }

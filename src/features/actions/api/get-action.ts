@@ -2,10 +2,7 @@ import { type ActionDetail, actionDetailSchema } from "@shared/schemas/actions";
 import { queryOptions, useQuery } from "@tanstack/react-query";
 
 import { apiRequest } from "@/lib/api-client";
-
-export function actionQueryKey(actionId: string) {
-  return ["actions", "detail", actionId] as const;
-}
+import { queryKeys } from "@/lib/query-keys";
 
 /** One corrective action with its findings, proof, place on the plan and every move. */
 export function getAction(
@@ -20,7 +17,7 @@ export function getAction(
 
 export function actionQueryOptions(actionId: string) {
   return queryOptions({
-    queryKey: actionQueryKey(actionId),
+    queryKey: queryKeys.actions.detail(actionId),
     queryFn: ({ signal }) => getAction(actionId, { signal }),
   });
 }

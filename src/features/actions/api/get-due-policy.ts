@@ -2,10 +2,7 @@ import { type DuePolicyResponse, duePolicyResponseSchema } from "@shared/schemas
 import { queryOptions, useQuery } from "@tanstack/react-query";
 
 import { apiRequest } from "@/lib/api-client";
-
-export function duePolicyQueryKey(siteId: string) {
-  return ["actions", "due-policy", siteId] as const;
-}
+import { queryKeys } from "@/lib/query-keys";
 
 /** How long each severity has before its actions are due at this site. */
 export function getDuePolicy(
@@ -20,7 +17,7 @@ export function getDuePolicy(
 
 export function duePolicyQueryOptions(siteId: string) {
   return queryOptions({
-    queryKey: duePolicyQueryKey(siteId),
+    queryKey: queryKeys.actions.duePolicy(siteId),
     queryFn: ({ signal }) => getDuePolicy(siteId, { signal }),
   });
 }

@@ -2,8 +2,7 @@ import { actionListResponseSchema, type ActionSummary } from "@shared/schemas/ac
 import { queryOptions, useQuery } from "@tanstack/react-query";
 
 import { apiRequest } from "@/lib/api-client";
-
-export const myActionsQueryKey = ["actions", "mine"] as const;
+import { queryKeys } from "@/lib/query-keys";
 
 /** The unfinished actions the signed-in person owns, overdue first. */
 export async function getMyActions({ signal }: { signal?: AbortSignal } = {}): Promise<
@@ -18,7 +17,7 @@ export async function getMyActions({ signal }: { signal?: AbortSignal } = {}): P
 
 export function myActionsQueryOptions() {
   return queryOptions({
-    queryKey: myActionsQueryKey,
+    queryKey: queryKeys.actions.mine,
     queryFn: ({ signal }) => getMyActions({ signal }),
   });
 }

@@ -2,8 +2,7 @@ import { actionListResponseSchema, type ActionSummary } from "@shared/schemas/ac
 import { queryOptions, useQuery } from "@tanstack/react-query";
 
 import { apiRequest } from "@/lib/api-client";
-
-export const myChecksQueryKey = ["actions", "to-check"] as const;
+import { queryKeys } from "@/lib/query-keys";
 
 /** Fixes to check at the sites where the signed-in person audits. */
 export async function getMyChecks({ signal }: { signal?: AbortSignal } = {}): Promise<
@@ -18,7 +17,7 @@ export async function getMyChecks({ signal }: { signal?: AbortSignal } = {}): Pr
 
 export function myChecksQueryOptions() {
   return queryOptions({
-    queryKey: myChecksQueryKey,
+    queryKey: queryKeys.actions.toCheck,
     queryFn: ({ signal }) => getMyChecks({ signal }),
   });
 }

@@ -6,12 +6,9 @@ import {
 import { queryOptions, useQuery } from "@tanstack/react-query";
 
 import { apiRequest } from "@/lib/api-client";
+import { queryKeys } from "@/lib/query-keys";
 
 export type SiteActionFilters = Partial<ActionListQuery>;
-
-export function siteActionsQueryKey(siteId: string, filters: SiteActionFilters = {}) {
-  return ["actions", "site", siteId, filters] as const;
-}
 
 /** The filters as the list and its CSV export both read them; empty ones are left out. */
 export function actionFilterSearch(filters: SiteActionFilters): string {
@@ -39,7 +36,7 @@ export async function getSiteActions(
 
 export function siteActionsQueryOptions(siteId: string, filters: SiteActionFilters = {}) {
   return queryOptions({
-    queryKey: siteActionsQueryKey(siteId, filters),
+    queryKey: queryKeys.actions.site(siteId, filters),
     queryFn: ({ signal }) => getSiteActions(siteId, filters, { signal }),
   });
 }

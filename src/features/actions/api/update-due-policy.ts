@@ -3,8 +3,7 @@ import { type DuePolicyResponse, duePolicyResponseSchema } from "@shared/schemas
 import { useMutation, useQueryClient } from "@tanstack/react-query";
 
 import { apiRequest } from "@/lib/api-client";
-
-import { duePolicyQueryKey } from "./get-due-policy";
+import { queryKeys } from "@/lib/query-keys";
 
 /** New due times by severity; actions already open keep theirs. */
 export function updateDuePolicy(siteId: string, policy: DuePolicy): Promise<DuePolicyResponse> {
@@ -19,6 +18,6 @@ export function useUpdateDuePolicy(siteId: string) {
   const queryClient = useQueryClient();
   return useMutation({
     mutationFn: (policy: DuePolicy) => updateDuePolicy(siteId, policy),
-    onSuccess: (reply) => queryClient.setQueryData(duePolicyQueryKey(siteId), reply),
+    onSuccess: (reply) => queryClient.setQueryData(queryKeys.actions.duePolicy(siteId), reply),
   });
 }

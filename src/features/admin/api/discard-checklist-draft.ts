@@ -7,8 +7,7 @@ import {
 } from "@tanstack/react-query";
 
 import { apiRequest } from "@/lib/api-client";
-
-import { checklistsQueryKey } from "./get-checklists";
+import { queryKeys } from "@/lib/query-keys";
 
 export async function discardChecklistDraft(zoneType: ZoneType): Promise<void> {
   await apiRequest(`/api/checklists/${encodeURIComponent(zoneType)}/draft`, { method: "DELETE" });
@@ -18,7 +17,7 @@ export function discardChecklistDraftMutationOptions(queryClient: QueryClient, z
   return mutationOptions({
     mutationKey: ["checklists", "discard", zoneType],
     mutationFn: () => discardChecklistDraft(zoneType),
-    onSuccess: () => queryClient.invalidateQueries({ queryKey: checklistsQueryKey }),
+    onSuccess: () => queryClient.invalidateQueries({ queryKey: queryKeys.checklists.list }),
   });
 }
 

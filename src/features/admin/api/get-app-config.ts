@@ -2,8 +2,7 @@ import { type AppConfig, appConfigSchema } from "@shared/schemas/people";
 import { queryOptions, useQuery } from "@tanstack/react-query";
 
 import { apiRequest } from "@/lib/api-client";
-
-export const appConfigQueryKey = ["app-configs", "current"] as const;
+import { queryKeys } from "@/lib/query-keys";
 
 /** How this installation runs (whether the demo mail catcher is on); fixed while it runs. */
 export function getAppConfig({ signal }: { signal?: AbortSignal } = {}): Promise<AppConfig> {
@@ -12,7 +11,7 @@ export function getAppConfig({ signal }: { signal?: AbortSignal } = {}): Promise
 
 export function appConfigQueryOptions() {
   return queryOptions({
-    queryKey: appConfigQueryKey,
+    queryKey: queryKeys.appConfigs.current,
     queryFn: ({ signal }) => getAppConfig({ signal }),
     staleTime: Infinity,
   });

@@ -2,8 +2,7 @@ import { type ChecklistsResponse, checklistsResponseSchema } from "@shared/schem
 import { queryOptions, useQuery } from "@tanstack/react-query";
 
 import { apiRequest } from "@/lib/api-client";
-
-export const checklistsQueryKey = ["checklists", "list"] as const;
+import { queryKeys } from "@/lib/query-keys";
 
 /** Each zone type's published checklist and its draft, if one is being prepared. */
 export function getChecklists({
@@ -14,7 +13,7 @@ export function getChecklists({
 
 export function checklistsQueryOptions() {
   return queryOptions({
-    queryKey: checklistsQueryKey,
+    queryKey: queryKeys.checklists.list,
     queryFn: ({ signal }) => getChecklists({ signal }),
   });
 }

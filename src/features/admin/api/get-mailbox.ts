@@ -2,8 +2,7 @@ import { type MailboxMessage, mailboxResponseSchema } from "@shared/schemas/peop
 import { queryOptions, useQuery } from "@tanstack/react-query";
 
 import { apiRequest } from "@/lib/api-client";
-
-export const mailboxQueryKey = ["mailbox-messages", "list"] as const;
+import { queryKeys } from "@/lib/query-keys";
 
 /** What the local mail catcher has received, newest first. */
 export async function getMailbox({ signal }: { signal?: AbortSignal } = {}): Promise<
@@ -18,7 +17,7 @@ export async function getMailbox({ signal }: { signal?: AbortSignal } = {}): Pro
 
 export function mailboxQueryOptions() {
   return queryOptions({
-    queryKey: mailboxQueryKey,
+    queryKey: queryKeys.mailboxMessages.list,
     queryFn: ({ signal }) => getMailbox({ signal }),
     // A message may arrive any moment after an invitation is sent: always read afresh.
     staleTime: 0,

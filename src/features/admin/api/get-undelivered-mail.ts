@@ -2,8 +2,7 @@ import { type UndeliveredMail, undeliveredMailListSchema } from "@shared/schemas
 import { queryOptions, useQuery } from "@tanstack/react-query";
 
 import { apiRequest } from "@/lib/api-client";
-
-export const undeliveredMailQueryKey = ["undelivered-mails", "list"] as const;
+import { queryKeys } from "@/lib/query-keys";
 
 /** E-mail to the network's people that may not have arrived, newest first. */
 export async function getUndeliveredMail({ signal }: { signal?: AbortSignal } = {}): Promise<
@@ -18,7 +17,7 @@ export async function getUndeliveredMail({ signal }: { signal?: AbortSignal } = 
 
 export function undeliveredMailQueryOptions() {
   return queryOptions({
-    queryKey: undeliveredMailQueryKey,
+    queryKey: queryKeys.undeliveredMails.list,
     queryFn: ({ signal }) => getUndeliveredMail({ signal }),
   });
 }

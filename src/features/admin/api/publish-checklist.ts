@@ -9,8 +9,7 @@ import {
 import { z } from "zod";
 
 import { apiRequest } from "@/lib/api-client";
-
-import { checklistsQueryKey } from "./get-checklists";
+import { queryKeys } from "@/lib/query-keys";
 
 const publishedReplySchema = z.object({ published: checklistVersionSchema });
 
@@ -27,7 +26,7 @@ export function publishChecklistMutationOptions(queryClient: QueryClient, zoneTy
   return mutationOptions({
     mutationKey: ["checklists", "publish", zoneType],
     mutationFn: () => publishChecklist(zoneType),
-    onSuccess: () => queryClient.invalidateQueries({ queryKey: checklistsQueryKey }),
+    onSuccess: () => queryClient.invalidateQueries({ queryKey: queryKeys.checklists.list }),
   });
 }
 

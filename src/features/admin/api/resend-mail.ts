@@ -7,8 +7,7 @@ import {
 } from "@tanstack/react-query";
 
 import { apiRequest } from "@/lib/api-client";
-
-import { undeliveredMailQueryKey } from "./get-undelivered-mail";
+import { queryKeys } from "@/lib/query-keys";
 
 /** Puts an uncertain or failed e-mail back in the outbox; asking twice sends it once. */
 export function resendMail(mailId: string): Promise<ResendResult> {
@@ -23,7 +22,7 @@ export function resendMailMutationOptions(queryClient: QueryClient) {
   return mutationOptions({
     mutationKey: ["undelivered-mails", "resend"],
     mutationFn: (mailId: string) => resendMail(mailId),
-    onSettled: () => queryClient.invalidateQueries({ queryKey: undeliveredMailQueryKey }),
+    onSettled: () => queryClient.invalidateQueries({ queryKey: queryKeys.undeliveredMails.list }),
   });
 }
 

@@ -13,8 +13,7 @@ import {
 import { z } from "zod";
 
 import { apiRequest } from "@/lib/api-client";
-
-import { checklistsQueryKey } from "./get-checklists";
+import { queryKeys } from "@/lib/query-keys";
 
 const draftReplySchema = z.object({ draft: checklistVersionSchema });
 
@@ -35,7 +34,7 @@ export function saveChecklistDraftMutationOptions(queryClient: QueryClient, zone
   return mutationOptions({
     mutationKey: ["checklists", "draft", zoneType],
     mutationFn: (body: ChecklistDraftBody) => saveChecklistDraft(zoneType, body),
-    onSuccess: () => queryClient.invalidateQueries({ queryKey: checklistsQueryKey }),
+    onSuccess: () => queryClient.invalidateQueries({ queryKey: queryKeys.checklists.list }),
   });
 }
 

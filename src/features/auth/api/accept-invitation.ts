@@ -8,8 +8,8 @@ import {
 } from "@tanstack/react-query";
 
 import { apiRequest } from "@/lib/api-client";
+import { queryKeys } from "@/lib/query-keys";
 
-import { invitationQueryKey } from "./get-invitation";
 import { rememberSignedInPerson } from "./get-me";
 
 export function acceptInvitation(token: string, body: SetPasswordBody): Promise<MeResponse> {
@@ -25,7 +25,7 @@ export function acceptInvitationMutationOptions(queryClient: QueryClient, token:
   return mutationOptions({
     mutationKey: ["invitations", token, "accept"],
     mutationFn: (body: SetPasswordBody) => acceptInvitation(token, body),
-    onSuccess: (me) => rememberSignedInPerson(queryClient, me, invitationQueryKey(token)),
+    onSuccess: (me) => rememberSignedInPerson(queryClient, me, queryKeys.invitations.detail(token)),
   });
 }
 

@@ -2,10 +2,7 @@ import { type InvitationInfo, invitationInfoSchema } from "@shared/schemas/peopl
 import { queryOptions, useQuery } from "@tanstack/react-query";
 
 import { apiRequest } from "@/lib/api-client";
-
-export function invitationQueryKey(token: string) {
-  return ["invitations", token] as const;
-}
+import { queryKeys } from "@/lib/query-keys";
 
 /** Who an invitation link is for; fails with `link_invalid` once used, replaced or expired. */
 export function getInvitation(
@@ -20,7 +17,7 @@ export function getInvitation(
 
 export function invitationQueryOptions(token: string) {
   return queryOptions({
-    queryKey: invitationQueryKey(token),
+    queryKey: queryKeys.invitations.detail(token),
     // A link's state changes only when it is used (then this page is left) or replaced.
     staleTime: Infinity,
     refetchOnWindowFocus: false,

@@ -2,9 +2,7 @@ import { type MeResponse, meResponseSchema } from "@shared/schemas/auth";
 import { type QueryClient, queryOptions, useQuery } from "@tanstack/react-query";
 
 import { apiRequest, isApiError } from "@/lib/api-client";
-
-/** The key every sign-in, sign-out and session check reads or writes. */
-export const meQueryKey = ["sessions", "me"] as const;
+import { queryKeys } from "@/lib/query-keys";
 
 /** The signed-in person and their roles, or null when nobody is signed in. */
 export async function getMe({ signal }: { signal?: AbortSignal } = {}): Promise<MeResponse | null> {
@@ -18,7 +16,7 @@ export async function getMe({ signal }: { signal?: AbortSignal } = {}): Promise<
 
 export function meQueryOptions() {
   return queryOptions({
-    queryKey: meQueryKey,
+    queryKey: queryKeys.sessions.me,
     queryFn: ({ signal }) => getMe({ signal }),
     // Who is signed in changes only by signing in or out (both write this cache) or by the
     // session ending, which any other request notices; so it is never refetched on its own.
@@ -42,8 +40,8 @@ export function rememberSignedInPerson(
 ): void {
   queryClient.removeQueries({
     predicate: (query) =>
-      query.queryKey[0] !== meQueryKey[0] &&
+      query.queryKey[0] !== queryKeys.sessions.me[0] &&
       !(keep && keep.every((part, index) => query.queryKey[index] === part)),
   });
-  queryClient.setQueryData(meQueryKey, me);
+  queryClient.setQueryData(queryKeys.sessions.me, me);
 }

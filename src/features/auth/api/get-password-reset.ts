@@ -3,12 +3,9 @@ import { queryOptions, useQuery } from "@tanstack/react-query";
 import type { z } from "zod";
 
 import { apiRequest } from "@/lib/api-client";
+import { queryKeys } from "@/lib/query-keys";
 
 export type PasswordResetInfo = z.infer<typeof passwordResetInfoSchema>;
-
-export function passwordResetQueryKey(token: string) {
-  return ["password-resets", token] as const;
-}
 
 /** Which account a reset link is for; fails with `link_invalid` once used, replaced or expired. */
 export function getPasswordReset(
@@ -23,7 +20,7 @@ export function getPasswordReset(
 
 export function passwordResetQueryOptions(token: string) {
   return queryOptions({
-    queryKey: passwordResetQueryKey(token),
+    queryKey: queryKeys.passwordResets.detail(token),
     // A link's state changes only when it is used (then this page is left) or replaced.
     staleTime: Infinity,
     refetchOnWindowFocus: false,

@@ -8,9 +8,9 @@ import {
 } from "@tanstack/react-query";
 
 import { apiRequest } from "@/lib/api-client";
+import { queryKeys } from "@/lib/query-keys";
 
 import { rememberSignedInPerson } from "./get-me";
-import { passwordResetQueryKey } from "./get-password-reset";
 
 export function resetPassword(token: string, body: SetPasswordBody): Promise<MeResponse> {
   return apiRequest(`/api/auth/password-reset/${encodeURIComponent(token)}`, {
@@ -25,7 +25,8 @@ export function resetPasswordMutationOptions(queryClient: QueryClient, token: st
   return mutationOptions({
     mutationKey: ["password-resets", token, "complete"],
     mutationFn: (body: SetPasswordBody) => resetPassword(token, body),
-    onSuccess: (me) => rememberSignedInPerson(queryClient, me, passwordResetQueryKey(token)),
+    onSuccess: (me) =>
+      rememberSignedInPerson(queryClient, me, queryKeys.passwordResets.detail(token)),
   });
 }
 

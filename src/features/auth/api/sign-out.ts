@@ -6,8 +6,7 @@ import {
 } from "@tanstack/react-query";
 
 import { apiRequest } from "@/lib/api-client";
-
-import { meQueryKey } from "./get-me";
+import { queryKeys } from "@/lib/query-keys";
 
 export function signOut(): Promise<undefined> {
   return apiRequest("/api/auth/sign-out", { method: "POST" });
@@ -18,8 +17,10 @@ export function signOutMutationOptions(queryClient: QueryClient) {
     mutationKey: ["sessions", "sign-out"],
     mutationFn: signOut,
     onSuccess: () => {
-      queryClient.setQueryData(meQueryKey, null);
-      queryClient.removeQueries({ predicate: (query) => query.queryKey[0] !== meQueryKey[0] });
+      queryClient.setQueryData(queryKeys.sessions.me, null);
+      queryClient.removeQueries({
+        predicate: (query) => query.queryKey[0] !== queryKeys.sessions.me[0],
+      });
     },
   });
 }

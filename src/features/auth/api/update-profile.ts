@@ -8,8 +8,7 @@ import {
 } from "@tanstack/react-query";
 
 import { apiRequest } from "@/lib/api-client";
-
-import { meQueryKey } from "./get-me";
+import { queryKeys } from "@/lib/query-keys";
 
 export function updateProfile(body: UpdateProfileBody): Promise<MeResponse> {
   return apiRequest("/api/auth/me", { method: "PATCH", body, schema: meResponseSchema });
@@ -19,7 +18,7 @@ export function updateProfileMutationOptions(queryClient: QueryClient) {
   return mutationOptions({
     mutationKey: ["sessions", "me", "update"],
     mutationFn: updateProfile,
-    onSuccess: (me) => queryClient.setQueryData(meQueryKey, me),
+    onSuccess: (me) => queryClient.setQueryData(queryKeys.sessions.me, me),
   });
 }
 

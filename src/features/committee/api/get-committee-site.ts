@@ -2,12 +2,9 @@ import { type SiteDrillDown, siteDrillDownSchema } from "@shared/schemas/committ
 import { queryOptions, useQuery } from "@tanstack/react-query";
 
 import { apiRequest } from "@/lib/api-client";
+import { queryKeys } from "@/lib/query-keys";
 
 import { apiSearch, type CommitteePeriod } from "../lib/committee-view";
-
-export function committeeSiteQueryKey(siteId: string, period: CommitteePeriod) {
-  return ["committee", "site", siteId, period] as const;
-}
 
 /** One site's spaces in the period: readiness, latest verdict, open and overdue actions. */
 export async function getCommitteeSite(
@@ -23,7 +20,7 @@ export async function getCommitteeSite(
 
 export function committeeSiteQueryOptions(siteId: string, period: CommitteePeriod) {
   return queryOptions({
-    queryKey: committeeSiteQueryKey(siteId, period),
+    queryKey: queryKeys.committee.site(siteId, period),
     queryFn: ({ signal }) => getCommitteeSite(siteId, period, { signal }),
   });
 }

@@ -2,12 +2,9 @@ import { type ComparisonResponse, comparisonResponseSchema } from "@shared/schem
 import { keepPreviousData, queryOptions, useQuery } from "@tanstack/react-query";
 
 import { apiRequest } from "@/lib/api-client";
+import { queryKeys } from "@/lib/query-keys";
 
 import { apiSearch, type CommitteeView } from "../lib/committee-view";
-
-export function comparisonQueryKey(view: CommitteeView) {
-  return ["committee", "comparison", view] as const;
-}
 
 /** Readiness and compliance by item group per site, with the chosen pair's difference. */
 export async function getComparison(
@@ -22,7 +19,7 @@ export async function getComparison(
 
 export function comparisonQueryOptions(view: CommitteeView) {
   return queryOptions({
-    queryKey: comparisonQueryKey(view),
+    queryKey: queryKeys.committee.comparison(view),
     queryFn: ({ signal }) => getComparison(view, { signal }),
   });
 }

@@ -2,12 +2,9 @@ import { type TrendsResponse, trendsResponseSchema } from "@shared/schemas/commi
 import { keepPreviousData, queryOptions, useQuery } from "@tanstack/react-query";
 
 import { apiRequest } from "@/lib/api-client";
+import { queryKeys } from "@/lib/query-keys";
 
 import { apiSearch, type CommitteePeriod } from "../lib/committee-view";
-
-export function trendsQueryKey(period: CommitteePeriod) {
-  return ["committee", "trends", period] as const;
-}
 
 /** Monthly p-charts per site, unclosed and overdue actions by age, median days to close. */
 export async function getTrends(
@@ -22,7 +19,7 @@ export async function getTrends(
 
 export function trendsQueryOptions(period: CommitteePeriod) {
   return queryOptions({
-    queryKey: trendsQueryKey(period),
+    queryKey: queryKeys.committee.trends(period),
     queryFn: ({ signal }) => getTrends(period, { signal }),
   });
 }

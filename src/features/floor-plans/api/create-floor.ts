@@ -8,8 +8,7 @@ import {
 import { z } from "zod";
 
 import { apiRequest } from "@/lib/api-client";
-
-import { floorsQueryKey } from "./get-floors";
+import { queryKeys } from "@/lib/query-keys";
 
 export type CreateFloorBody = z.output<typeof floorBodySchema>;
 
@@ -28,7 +27,7 @@ export function createFloorMutationOptions(queryClient: QueryClient, siteId: str
   return mutationOptions({
     mutationKey: ["floors", "create", siteId],
     mutationFn: (body: CreateFloorBody) => createFloor(siteId, body),
-    onSuccess: () => queryClient.invalidateQueries({ queryKey: floorsQueryKey(siteId) }),
+    onSuccess: () => queryClient.invalidateQueries({ queryKey: queryKeys.floors.list(siteId) }),
   });
 }
 

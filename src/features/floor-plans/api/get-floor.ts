@@ -2,12 +2,7 @@ import { type Floor, type FloorDetail, floorDetailResponseSchema } from "@shared
 import { type QueryClient, queryOptions, useQuery } from "@tanstack/react-query";
 
 import { apiRequest } from "@/lib/api-client";
-
-import { floorsQueryKey } from "./get-floors";
-
-export function floorQueryKey(floorId: string) {
-  return ["floors", "detail", floorId] as const;
-}
+import { queryKeys } from "@/lib/query-keys";
 
 /** One floor with its suites, spaces and fixtures. */
 export function getFloor(
@@ -22,7 +17,7 @@ export function getFloor(
 
 export function floorQueryOptions(floorId: string) {
   return queryOptions({
-    queryKey: floorQueryKey(floorId),
+    queryKey: queryKeys.floors.detail(floorId),
     queryFn: ({ signal }) => getFloor(floorId, { signal }),
   });
 }
@@ -43,21 +38,21 @@ export function floorDetailChanged(
   queryClient.setQueryData(floorQueryOptions(floorId).queryKey, (detail) =>
     detail ? change(detail) : detail,
   );
-  return queryClient.invalidateQueries({ queryKey: floorQueryKey(floorId) });
+  return queryClient.invalidateQueries({ queryKey: queryKeys.floors.detail(floorId) });
 }
 
 /** After the floor itself changed (plan, scale): the detail and the site's floor list. */
 export function floorChanged(queryClient: QueryClient, floor: Floor): Promise<unknown> {
   return Promise.all([
     floorDetailChanged(queryClient, floor.id, (detail) => ({ ...detail, floor })),
-    queryClient.invalidateQueries({ queryKey: floorsQueryKey(floor.siteId) }),
+    queryClient.invalidateQueries({ queryKey: queryKeys.floors.list(floor.siteId) }),
   ]);
 }
 
 /** A space's name from any floor already loaded, or null. */
 export function cachedSpaceName(queryClient: QueryClient, spaceId: string): string | null {
   for (const [, detail] of queryClient.getQueriesData<FloorDetail>({
-    queryKey: ["floors", "detail"],
+    queryKey: queryKeys.floors.details,
   })) {
     const space = detail?.spaces.find((candidate) => candidate.id === spaceId);
     if (space) return space.name;

@@ -2,10 +2,7 @@ import { type Floor, floorsResponseSchema } from "@shared/schemas/floors";
 import { queryOptions, useQuery } from "@tanstack/react-query";
 
 import { apiRequest } from "@/lib/api-client";
-
-export function floorsQueryKey(siteId: string) {
-  return ["floors", "list", siteId] as const;
-}
+import { queryKeys } from "@/lib/query-keys";
 
 /** The site's floors, sorted by building and level. */
 export async function getFloors(
@@ -21,7 +18,7 @@ export async function getFloors(
 
 export function floorsQueryOptions(siteId: string) {
   return queryOptions({
-    queryKey: floorsQueryKey(siteId),
+    queryKey: queryKeys.floors.list(siteId),
     queryFn: ({ signal }) => getFloors(siteId, { signal }),
   });
 }

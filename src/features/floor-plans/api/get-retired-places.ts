@@ -2,10 +2,7 @@ import { type RetiredPlaces, retiredPlacesResponseSchema } from "@shared/schemas
 import { queryOptions, useQuery } from "@tanstack/react-query";
 
 import { apiRequest } from "@/lib/api-client";
-
-export function retiredPlacesQueryKey(siteId: string) {
-  return ["floors", "retired", siteId] as const;
-}
+import { queryKeys } from "@/lib/query-keys";
 
 /** The site's retired floors and spaces (administrators). */
 export async function getRetiredPlaces(
@@ -20,7 +17,7 @@ export async function getRetiredPlaces(
 
 export function retiredPlacesQueryOptions(siteId: string) {
   return queryOptions({
-    queryKey: retiredPlacesQueryKey(siteId),
+    queryKey: queryKeys.floors.retired(siteId),
     queryFn: ({ signal }) => getRetiredPlaces(siteId, { signal }),
   });
 }

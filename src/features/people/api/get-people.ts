@@ -2,8 +2,7 @@ import { type PeopleListResponse, peopleListResponseSchema } from "@shared/schem
 import { queryOptions, useQuery } from "@tanstack/react-query";
 
 import { apiRequest } from "@/lib/api-client";
-
-export const peopleQueryKey = ["people", "list"] as const;
+import { queryKeys } from "@/lib/query-keys";
 
 /** The people the caller may manage, and where the caller may give roles. */
 export function getPeople({ signal }: { signal?: AbortSignal } = {}): Promise<PeopleListResponse> {
@@ -12,7 +11,7 @@ export function getPeople({ signal }: { signal?: AbortSignal } = {}): Promise<Pe
 
 export function peopleQueryOptions() {
   return queryOptions({
-    queryKey: peopleQueryKey,
+    queryKey: queryKeys.people.list,
     queryFn: ({ signal }) => getPeople({ signal }),
   });
 }

@@ -2,12 +2,7 @@ import { type Person, personResponseSchema } from "@shared/schemas/people";
 import { type QueryClient, queryOptions, useQuery } from "@tanstack/react-query";
 
 import { apiRequest } from "@/lib/api-client";
-
-import { peopleQueryKey } from "./get-people";
-
-export function personQueryKey(userId: string) {
-  return ["people", "detail", userId] as const;
-}
+import { queryKeys } from "@/lib/query-keys";
 
 export async function getPerson(
   userId: string,
@@ -22,7 +17,7 @@ export async function getPerson(
 
 export function personQueryOptions(userId: string) {
   return queryOptions({
-    queryKey: personQueryKey(userId),
+    queryKey: queryKeys.people.detail(userId),
     queryFn: ({ signal }) => getPerson(userId, { signal }),
   });
 }
@@ -36,9 +31,9 @@ export function usePerson(userId: string) {
  * person's page read again so nothing stale lingers.
  */
 export async function personChanged(queryClient: QueryClient, person: Person): Promise<void> {
-  queryClient.setQueryData(personQueryKey(person.id), person);
+  queryClient.setQueryData(queryKeys.people.detail(person.id), person);
   await Promise.all([
-    queryClient.invalidateQueries({ queryKey: peopleQueryKey }),
-    queryClient.invalidateQueries({ queryKey: personQueryKey(person.id) }),
+    queryClient.invalidateQueries({ queryKey: queryKeys.people.list }),
+    queryClient.invalidateQueries({ queryKey: queryKeys.people.detail(person.id) }),
   ]);
 }

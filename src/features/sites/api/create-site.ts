@@ -7,9 +7,7 @@ import {
 } from "@tanstack/react-query";
 
 import { apiRequest } from "@/lib/api-client";
-
-import { siteQueryKey } from "./get-site";
-import { sitesQueryKey } from "./get-sites";
+import { queryKeys } from "@/lib/query-keys";
 
 export async function createSite(body: CreateSiteBody): Promise<Site> {
   const { site } = await apiRequest("/api/sites", {
@@ -25,8 +23,8 @@ export function createSiteMutationOptions(queryClient: QueryClient) {
     mutationKey: ["sites", "create"],
     mutationFn: createSite,
     onSuccess: (site) => {
-      queryClient.setQueryData(siteQueryKey(site.id), site);
-      return queryClient.invalidateQueries({ queryKey: sitesQueryKey });
+      queryClient.setQueryData(queryKeys.sites.detail(site.id), site);
+      return queryClient.invalidateQueries({ queryKey: queryKeys.sites.list });
     },
   });
 }

@@ -2,8 +2,7 @@ import { type RetiredSite, retiredSitesResponseSchema } from "@shared/schemas/re
 import { queryOptions, useQuery } from "@tanstack/react-query";
 
 import { apiRequest } from "@/lib/api-client";
-
-export const retiredSitesQueryKey = ["sites", "retired"] as const;
+import { queryKeys } from "@/lib/query-keys";
 
 /** The network's retired sites (network-wide administrators). */
 export async function getRetiredSites({ signal }: { signal?: AbortSignal } = {}): Promise<
@@ -18,7 +17,7 @@ export async function getRetiredSites({ signal }: { signal?: AbortSignal } = {})
 
 export function retiredSitesQueryOptions() {
   return queryOptions({
-    queryKey: retiredSitesQueryKey,
+    queryKey: queryKeys.sites.retired,
     queryFn: ({ signal }) => getRetiredSites({ signal }),
   });
 }

@@ -2,10 +2,7 @@ import { type Site, siteResponseSchema } from "@shared/schemas/site";
 import { queryOptions, useQuery } from "@tanstack/react-query";
 
 import { apiRequest } from "@/lib/api-client";
-
-export function siteQueryKey(siteId: string) {
-  return ["sites", "detail", siteId] as const;
-}
+import { queryKeys } from "@/lib/query-keys";
 
 export async function getSite(
   siteId: string,
@@ -20,7 +17,7 @@ export async function getSite(
 
 export function siteQueryOptions(siteId: string) {
   return queryOptions({
-    queryKey: siteQueryKey(siteId),
+    queryKey: queryKeys.sites.detail(siteId),
     queryFn: ({ signal }) => getSite(siteId, { signal }),
   });
 }

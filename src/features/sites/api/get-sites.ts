@@ -2,8 +2,7 @@ import { type Site, siteListResponseSchema } from "@shared/schemas/site";
 import { queryOptions, useQuery } from "@tanstack/react-query";
 
 import { apiRequest } from "@/lib/api-client";
-
-export const sitesQueryKey = ["sites", "list"] as const;
+import { queryKeys } from "@/lib/query-keys";
 
 /** The sites where the signed-in person holds a role (every site for network-wide roles). */
 export async function getSites({ signal }: { signal?: AbortSignal } = {}): Promise<Site[]> {
@@ -13,7 +12,7 @@ export async function getSites({ signal }: { signal?: AbortSignal } = {}): Promi
 
 export function sitesQueryOptions() {
   return queryOptions({
-    queryKey: sitesQueryKey,
+    queryKey: queryKeys.sites.list,
     queryFn: ({ signal }) => getSites({ signal }),
   });
 }

@@ -7,9 +7,7 @@ import {
 } from "@tanstack/react-query";
 
 import { apiRequest } from "@/lib/api-client";
-
-import { siteQueryKey } from "./get-site";
-import { sitesQueryKey } from "./get-sites";
+import { queryKeys } from "@/lib/query-keys";
 
 export async function updateSite(siteId: string, body: UpdateSiteBody): Promise<Site> {
   const { site } = await apiRequest(`/api/sites/${encodeURIComponent(siteId)}`, {
@@ -25,8 +23,8 @@ export function updateSiteMutationOptions(queryClient: QueryClient, siteId: stri
     mutationKey: ["sites", "update", siteId],
     mutationFn: (body: UpdateSiteBody) => updateSite(siteId, body),
     onSuccess: (site) => {
-      queryClient.setQueryData(siteQueryKey(site.id), site);
-      return queryClient.invalidateQueries({ queryKey: sitesQueryKey });
+      queryClient.setQueryData(queryKeys.sites.detail(site.id), site);
+      return queryClient.invalidateQueries({ queryKey: queryKeys.sites.list });
     },
   });
 }

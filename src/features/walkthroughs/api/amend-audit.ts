@@ -2,8 +2,8 @@ import { type AmendmentBody, type AuditDetail, auditDetailSchema } from "@shared
 import { useMutation, useQueryClient } from "@tanstack/react-query";
 
 import { apiRequest } from "@/lib/api-client";
-
-import { auditQueryKey } from "./get-audit";
+import { invalidateAfterAuditChange } from "@/lib/audit-change";
+import { queryKeys } from "@/lib/query-keys";
 
 /** An administrator's logged correction of a submitted audit; the reply has the new verdict. */
 export function amendAudit(auditId: string, body: AmendmentBody): Promise<AuditDetail> {
@@ -19,8 +19,8 @@ export function useAmendAudit(auditId: string) {
   return useMutation({
     mutationFn: (body: AmendmentBody) => amendAudit(auditId, body),
     onSuccess: async (detail) => {
-      queryClient.setQueryData(auditQueryKey(auditId), detail);
-      await queryClient.invalidateQueries({ queryKey: ["schedules"] });
+      queryClient.setQueryData(queryKeys.audits.detail(auditId), detail);
+      await invalidateAfterAuditChange(queryClient, detail.audit);
     },
   });
 }

@@ -2,10 +2,7 @@ import { type AuditDetail, auditDetailSchema } from "@shared/schemas/audits";
 import { queryOptions, useQuery } from "@tanstack/react-query";
 
 import { apiRequest } from "@/lib/api-client";
-
-export function auditQueryKey(auditId: string) {
-  return ["audits", "detail", auditId] as const;
-}
+import { queryKeys } from "@/lib/query-keys";
 
 /** One audit with its pinned items, answers and photos: for audits not kept on this phone. */
 export function getAudit(
@@ -20,7 +17,7 @@ export function getAudit(
 
 export function auditQueryOptions(auditId: string) {
   return queryOptions({
-    queryKey: auditQueryKey(auditId),
+    queryKey: queryKeys.audits.detail(auditId),
     queryFn: ({ signal }) => getAudit(auditId, { signal }),
   });
 }

@@ -2,6 +2,7 @@ import { type MyDueEntry, myDueResponseSchema } from "@shared/schemas/audits";
 import { queryOptions, useQuery } from "@tanstack/react-query";
 
 import { apiRequest } from "@/lib/api-client";
+import { queryKeys } from "@/lib/query-keys";
 
 /** Overdue and soon-due spaces at every site where the signed-in person audits. */
 export async function getMyDue({ signal }: { signal?: AbortSignal } = {}): Promise<MyDueEntry[]> {
@@ -11,7 +12,7 @@ export async function getMyDue({ signal }: { signal?: AbortSignal } = {}): Promi
 
 export function myDueQueryOptions() {
   return queryOptions({
-    queryKey: ["schedules", "mine"] as const,
+    queryKey: queryKeys.schedules.mine,
     queryFn: ({ signal }) => getMyDue({ signal }),
   });
 }

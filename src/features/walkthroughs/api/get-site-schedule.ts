@@ -2,10 +2,7 @@ import { type ScheduleEntry, scheduleResponseSchema } from "@shared/schemas/audi
 import { type QueryClient, queryOptions, useQuery } from "@tanstack/react-query";
 
 import { apiRequest } from "@/lib/api-client";
-
-export function siteScheduleQueryKey(siteId: string) {
-  return ["schedules", "site", siteId] as const;
-}
+import { queryKeys } from "@/lib/query-keys";
 
 /** Every space of the site with its audit interval, last audit and due date. */
 export async function getSiteSchedule(
@@ -21,7 +18,7 @@ export async function getSiteSchedule(
 
 export function siteScheduleQueryOptions(siteId: string) {
   return queryOptions({
-    queryKey: siteScheduleQueryKey(siteId),
+    queryKey: queryKeys.schedules.site(siteId),
     queryFn: ({ signal }) => getSiteSchedule(siteId, { signal }),
   });
 }
@@ -33,7 +30,7 @@ export function useSiteSchedule(siteId: string) {
 /** The name of a space from any schedule already loaded, to show before the server answers. */
 export function scheduledSpaceName(queryClient: QueryClient, spaceId: string): string | null {
   for (const [, entries] of queryClient.getQueriesData<ScheduleEntry[]>({
-    queryKey: ["schedules"],
+    queryKey: queryKeys.schedules.all,
   })) {
     const found = entries?.find((entry) => entry.spaceId === spaceId);
     if (found) return found.spaceName;

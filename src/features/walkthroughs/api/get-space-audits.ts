@@ -2,10 +2,7 @@ import { type Audit, auditListResponseSchema } from "@shared/schemas/audits";
 import { queryOptions, useQuery } from "@tanstack/react-query";
 
 import { apiRequest } from "@/lib/api-client";
-
-export function spaceAuditsQueryKey(spaceId: string) {
-  return ["audits", "list", "space", spaceId] as const;
-}
+import { queryKeys } from "@/lib/query-keys";
 
 /** The space's audits, newest first. */
 export async function getSpaceAudits(
@@ -21,7 +18,7 @@ export async function getSpaceAudits(
 
 export function spaceAuditsQueryOptions(spaceId: string) {
   return queryOptions({
-    queryKey: spaceAuditsQueryKey(spaceId),
+    queryKey: queryKeys.audits.space(spaceId),
     queryFn: ({ signal }) => getSpaceAudits(spaceId, { signal }),
   });
 }

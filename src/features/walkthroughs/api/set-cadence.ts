@@ -6,8 +6,7 @@ import {
 } from "@tanstack/react-query";
 
 import { apiRequest } from "@/lib/api-client";
-
-import { siteScheduleQueryKey } from "./get-site-schedule";
+import { queryKeys } from "@/lib/query-keys";
 
 /** How often a space is audited, in days (site administrators). */
 export async function setCadence(spaceId: string, cadenceDays: number): Promise<void> {
@@ -22,7 +21,7 @@ export function setCadenceMutationOptions(queryClient: QueryClient, siteId: stri
     mutationKey: ["schedules", "cadence", siteId],
     mutationFn: ({ spaceId, cadenceDays }: { spaceId: string; cadenceDays: number }) =>
       setCadence(spaceId, cadenceDays),
-    onSuccess: () => queryClient.invalidateQueries({ queryKey: siteScheduleQueryKey(siteId) }),
+    onSuccess: () => queryClient.invalidateQueries({ queryKey: queryKeys.schedules.site(siteId) }),
   });
 }
 

@@ -3,7 +3,12 @@ import { startAudit } from "../api/start-audit";
 import { submitAudit } from "../api/submit-audit";
 import { uploadAuditPhoto } from "../api/upload-audit-photo";
 import { type AuditStore, openAuditStore } from "./offline-store";
-import { createSyncScheduler, type SyncScheduler, type SyncTransport } from "./sync-queue";
+import {
+  createSyncScheduler,
+  type SubmittedListener,
+  type SyncScheduler,
+  type SyncTransport,
+} from "./sync-queue";
 
 /** The phone's audit store and the queue that empties it into Lintel: one per page. */
 export interface AuditDevice {
@@ -20,6 +25,20 @@ const apiTransport: SyncTransport = {
 
 let opening: Promise<AuditDevice> | null = null;
 let detachListeners: (() => void) | null = null;
+const submittedListeners = new Set<SubmittedListener>();
+
+function tellSubmitted(detail: Parameters<SubmittedListener>[0]) {
+  for (const listener of [...submittedListeners]) listener(detail);
+}
+
+/**
+ * Hears every submission the server accepts from this phone, whichever page sent it; returns the
+ * way to stop hearing.
+ */
+export function onAuditSubmitted(listener: SubmittedListener): () => void {
+  submittedListeners.add(listener);
+  return () => void submittedListeners.delete(listener);
+}
 
 export function hasOfflineStorage(): boolean {
   return typeof indexedDB !== "undefined";
@@ -57,7 +76,11 @@ function listen(sync: SyncScheduler): () => void {
 export function auditDevice(): Promise<AuditDevice> {
   opening ??= openAuditStore().then(
     (store) => {
-      const sync = createSyncScheduler({ store, transport: apiTransport });
+      const sync = createSyncScheduler({
+        store,
+        transport: apiTransport,
+        onSubmitted: tellSubmitted,
+      });
       detachListeners = listen(sync);
       void sync.kick();
       return { store, sync };

@@ -106,7 +106,14 @@ function answerBody(answer: LocalAnswer): AnswerBody {
   };
 }
 
-async function send(store: AuditStore, transport: SyncTransport, change: QueuedChange) {
+/** The server's reply to a submission, once the phone has recorded it. */
+export type SubmittedListener = (detail: AuditDetail) => void;
+
+async function send(
+  store: AuditStore,
+  transport: SyncTransport,
+  change: QueuedChange,
+): Promise<AuditDetail | void> {
   switch (change.kind) {
     case "start": {
       const audit = await store.getAudit(change.auditId);
@@ -140,7 +147,7 @@ async function send(store: AuditStore, transport: SyncTransport, change: QueuedC
     case "submit": {
       const detail = await transport.submitAudit(change.auditId);
       await store.recordSubmitted(change.auditId, detail, new Date());
-      return;
+      return detail;
     }
   }
 }
@@ -149,9 +156,14 @@ async function send(store: AuditStore, transport: SyncTransport, change: QueuedC
  * Sends what is waiting, in order. Stops at the first connection or server failure (the rest
  * waits for the next try); a refusal (4xx) holds that change with the server's message and
  * carries on, except that an audit whose start was refused sends nothing more, and a submit
- * waits while any other change of its audit is held.
+ * waits while any other change of its audit is held. Each submission the server accepts is told to
+ * `onSubmitted`, so what it changed elsewhere (actions, due dates, figures) can be fetched again.
  */
-export async function syncOnce(store: AuditStore, transport: SyncTransport): Promise<SyncRun> {
+export async function syncOnce(
+  store: AuditStore,
+  transport: SyncTransport,
+  { onSubmitted }: { onSubmitted?: SubmittedListener } = {},
+): Promise<SyncRun> {
   const changes = orderForSending(await store.queuedChanges());
   const stuck = new Set<string>();
   const unsettled = new Set<string>();
@@ -166,8 +178,9 @@ export async function syncOnce(store: AuditStore, transport: SyncTransport): Pro
     }
     if (change.kind === "submit" && unsettled.has(change.auditId)) continue;
 
+    let submitted: AuditDetail | void;
     try {
-      await send(store, transport, change);
+      submitted = await send(store, transport, change);
     } catch (error) {
       const failure = classify(error);
       if (failure === "retry") return retryOf(error, sent);
@@ -184,6 +197,7 @@ export async function syncOnce(store: AuditStore, transport: SyncTransport): Pro
     }
     await store.completeChange(change);
     sent += 1;
+    if (submitted) onSubmitted?.(submitted);
   }
   return { kind: "done", sent };
 }
@@ -218,6 +232,7 @@ export interface SyncSchedulerOptions {
    * leave the browser believing it is online). */
   pollMs?: number;
   signedOutRetryMs?: number;
+  onSubmitted?: SubmittedListener;
 }
 
 export function createSyncScheduler({
@@ -227,6 +242,7 @@ export function createSyncScheduler({
   retryDelaysMs = [1_000, 2_000, 4_000, 5_000],
   pollMs = 5_000,
   signedOutRetryMs = 30_000,
+  onSubmitted,
 }: SyncSchedulerOptions): SyncScheduler {
   const listeners = new Set<(status: SyncStatus) => void>();
   let current: SyncStatus = {
@@ -266,7 +282,7 @@ export function createSyncScheduler({
       again = false;
       if (!isOnline()) break;
       publish({ syncing: true, online: true });
-      last = await syncOnce(store, transport);
+      last = await syncOnce(store, transport, { onSubmitted });
       if (last.kind !== "done") break;
     } while (again && !stopped);
 
