@@ -246,6 +246,24 @@ export function tellChainStory(
     return [{ kind: "start", at: started }, ...fixFrom(started, action.total, 0.06)];
   };
 
+  /**
+   * The rest of an action's life, from its state at `from` to done, spread evenly before now: for
+   * a chain that must end done when its last failure is recent or joins an unfinished action.
+   */
+  const finishWithin = (action: Working, from: number): Step[] => {
+    const rest: Record<ActionState, StoryMove[]> = {
+      to_fix: ["start", "add_photo", "ask_check", "confirm"],
+      fixing: ["add_photo", "ask_check", "confirm"],
+      to_check: ["confirm"],
+      done: [],
+    };
+    const moves = rest[action.state];
+    return moves.map((kind, index) => ({
+      kind,
+      at: Math.floor(from + ((now - from) * (index + 1)) / (moves.length + 1)),
+    }));
+  };
+
   /** The last action's life fitted between its opening and now. */
   const forcedLife = (action: Working, forced: Fate): Step[] => {
     const window = now - action.openedAt;
@@ -277,6 +295,7 @@ export function tellChainStory(
         ];
       }
       case "done": {
+        if (window < day) return finishWithin(action, action.openedAt);
         daytime = false;
         action.total = Math.min(action.total, (window / day) * 0.5);
         const started = at(action.openedAt + action.total * day * 0.1);
@@ -365,6 +384,9 @@ export function tellChainStory(
         current.proofRound += 1;
         pending = fixFrom(failure.at, current.total * 0.6, 0);
       }
+      // A chain that must end done cannot leave its last failure on an unfinished action.
+      if (index === chain.failures.length - 1 && fate === "done")
+        pending = finishWithin(current, failure.at);
       current.log.push({
         kind: "finding_added",
         at: failure.at,
