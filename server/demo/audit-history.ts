@@ -21,18 +21,7 @@ import {
   latestPublishedVersion,
 } from "../modules/checklists/checklists.service";
 import type { DemoSiteKey } from "./people";
-
-/** A small seeded generator, so every fresh demo database tells the same story. */
-export function mulberry32(seed: number) {
-  let state = seed >>> 0;
-  return () => {
-    state = (state + 0x6d2b79f5) >>> 0;
-    let t = state;
-    t = Math.imul(t ^ (t >>> 15), t | 1);
-    t ^= t + Math.imul(t ^ (t >>> 7), t | 61);
-    return ((t ^ (t >>> 14)) >>> 0) / 4294967296;
-  };
-}
+import { mulberry32 } from "./random";
 
 /** How each demo site behaves: how often items fail, whether it improves, how often audits slip. */
 const profiles: Record<
