@@ -1,45 +1,14 @@
 import type { Request, RequestHandler, Response, Router } from "express";
-import type { Logger } from "pino";
 import type { z } from "zod";
 
 import { can, canSomewhere, hasAnyRoleAt, scopeOf, type Permission } from "@shared/permissions";
-import type { RoleGrant } from "@shared/roles";
 
-import type { ResetLimiter, SignInLimiter } from "../auth/sign-in-limiter";
-import type { SessionStore, SessionUser } from "../auth/sessions";
 import type { Database } from "../db/client";
-import type { Env } from "../env";
-import type { Actor } from "./change-log";
-import type { Storage } from "./storage";
 import { parseInput } from "../middleware/validate";
 import { forbidden, notFound, unauthenticated } from "./app-error";
+import type { AppDeps, RequestActor, SignedIn } from "./context";
 
-export interface AppDeps {
-  db: Database;
-  env: Env;
-  logger: Logger;
-  sessions: SessionStore;
-  signInLimiter: SignInLimiter;
-  resetLimiter: ResetLimiter;
-  storage: Storage;
-  /** Whether the site exists and belongs to the network (every site-scoped route asks this). */
-  siteInNetwork: (siteId: string, networkId: string) => Promise<boolean>;
-  /** Loads a person's role grants; one query per request. */
-  loadGrants: (userId: string) => Promise<RoleGrant[]>;
-  /** Tells the e-mail worker that new mail is waiting (after the transaction commits). */
-  notifyOutbox: () => void;
-  /**
-   * The folder of the local mail catcher when the process that started it runs this app
-   * (`npm start`, the browser tests); null otherwise, and always null from `server/index.ts`.
-   */
-  mailCatcherDir: string | null;
-}
-
-export interface SignedIn {
-  user: SessionUser;
-  sessionId: string;
-  grants: RoleGrant[];
-}
+export type { AppDeps, RequestActor, SignedIn } from "./context";
 
 /**
  * Finds the site a resource belongs to (null when it does not exist) from the parsed path
@@ -80,12 +49,6 @@ export interface SiteAccess {
  * then runs the handler.
  */
 export type Access = PublicAccess | SignedInAccess | NetworkAccess | AnySiteAccess | SiteAccess;
-
-/** Who changes something, for the change log: the signed-in person and this request. */
-export interface RequestActor extends Actor {
-  userId: string;
-  requestId: string;
-}
 
 interface BaseContext<P, Q, B> {
   req: Request;

@@ -17,7 +17,7 @@ import { actionMoves, type ActionMoveName } from "@shared/workflow/action-workfl
 import { zoneTypeLabels } from "@shared/zones";
 
 import { asCell, cautionRow, csvPreamble } from "../../lib/csv";
-import { readUpload } from "../../lib/images";
+import { readUpload } from "../../middleware/upload";
 import { atSite, defineRoute, siteThrough } from "../../lib/routes";
 import { parseInput } from "../../middleware/validate";
 import * as actions from "./actions.service";

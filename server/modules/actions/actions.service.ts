@@ -27,7 +27,7 @@ import type { Env } from "../../env";
 import { AppError, notFound } from "../../lib/app-error";
 import { recordChange, type Actor } from "../../lib/change-log";
 import { sha256Of, storeImage } from "../../lib/images";
-import type { AppDeps, SignedIn } from "../../lib/routes";
+import type { AppDeps, SignedIn } from "../../lib/context";
 import { enqueueMail } from "../../outbox/outbox.repository";
 import * as mails from "./actions.emails";
 import * as repo from "./actions.repository";

@@ -10,7 +10,7 @@ import {
 import { spaceParamsSchema } from "@shared/schemas/floors";
 import { siteParamsSchema } from "@shared/schemas/site";
 
-import { readUpload } from "../../lib/images";
+import { readUpload } from "../../middleware/upload";
 import { parseInput } from "../../middleware/validate";
 import { atSite, defineRoute, siteThrough } from "../../lib/routes";
 import * as audits from "./audits.service";

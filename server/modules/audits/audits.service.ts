@@ -24,7 +24,7 @@ import { AppError, forbidden, notFound } from "../../lib/app-error";
 import { recordChange, type Actor } from "../../lib/change-log";
 import { databaseCodeOf } from "../../lib/database-errors";
 import { sha256Of, storeImage } from "../../lib/images";
-import type { AppDeps, SignedIn } from "../../lib/routes";
+import type { AppDeps, SignedIn } from "../../lib/context";
 import {
   checklistItemsOf,
   ensureDefaultChecklists,

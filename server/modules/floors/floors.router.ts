@@ -15,7 +15,7 @@ import {
 
 import { retirementBodySchema } from "@shared/schemas/retirement";
 
-import { readUpload } from "../../lib/images";
+import { readUpload } from "../../middleware/upload";
 import { atSite, defineRoute, siteThrough } from "../../lib/routes";
 import * as retirement from "./floors.retirement";
 import * as floors from "./floors.service";

@@ -4,7 +4,8 @@ import { imageParamsSchema, imageQuerySchema } from "@shared/schemas/floors";
 import { siteParamsSchema } from "@shared/schemas/site";
 
 import { notFound } from "../../lib/app-error";
-import { readUpload, storeImage } from "../../lib/images";
+import { storeImage } from "../../lib/images";
+import { readUpload } from "../../middleware/upload";
 import { findImageForServing } from "../../lib/images.repository";
 import { atSite, defineRoute, siteThrough } from "../../lib/routes";
 import { imageHiddenFrom } from "../audits/audits.service";
