@@ -130,6 +130,27 @@ export default tseslint.config(
     },
   },
   {
+    // Services, repositories and jobs take plain values (AppDeps, SignedIn, an actor; see
+    // server/lib/context.ts), never HTTP types: routers and middleware are the only HTTP side.
+    files: ["server/modules/**/*.ts", "server/lib/**/*.ts", "server/outbox/**/*.ts"],
+    ignores: ["server/modules/**/*.router.ts", "server/lib/routes.ts"],
+    rules: {
+      "no-restricted-imports": [
+        "error",
+        {
+          paths: [{ name: "express", message: "Only routers and middleware handle requests." }],
+          patterns: [
+            {
+              group: ["**/lib/routes", "**/middleware/*"],
+              message:
+                "Services take plain values: import AppDeps and SignedIn from server/lib/context.ts.",
+            },
+          ],
+        },
+      ],
+    },
+  },
+  {
     files: ["scripts/**", "tests/**", "server/env.ts", "*.config.ts", "*.config.mjs"],
     rules: { "no-restricted-properties": "off" },
   },

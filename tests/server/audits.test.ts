@@ -109,6 +109,33 @@ describe("audits", () => {
     expect(rows!.n).toBe(1);
   });
 
+  it("when an audit is started and submitted, then the change log names the auditor and each request", async () => {
+    const { db } = testApp().deps;
+    const { auditId, response: started, detail } = await start(await newSpace("anteroom"));
+    await answerAll(detail);
+    const submitted = await as(auditor).post(`/api/audits/${auditId}/submit`);
+    expect(submitted.status).toBe(200);
+
+    const entries = await db
+      .select({
+        action: changeLog.action,
+        actorId: changeLog.actorId,
+        requestId: changeLog.requestId,
+      })
+      .from(changeLog)
+      .where(eq(changeLog.entityId, auditId));
+    expect(entries).toContainEqual({
+      action: "audit.started",
+      actorId: auditor.user.id,
+      requestId: started.headers["x-request-id"],
+    });
+    expect(entries).toContainEqual({
+      action: "audit.submitted",
+      actorId: auditor.user.id,
+      requestId: submitted.headers["x-request-id"],
+    });
+  });
+
   it("when an answer is sent twice, even with a new device id, then one answer per item is kept", async () => {
     const { auditId, detail } = await start(await newSpace("doffing_area"));
     const target = detail.items[0]!;

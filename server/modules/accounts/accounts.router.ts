@@ -81,10 +81,8 @@ export const accountRoutes = [
     summary: "Change one's own display name",
     access: { kind: "signed-in" },
     body: updateProfileBodySchema,
-    async handle({ res, deps, auth, body, requestId }) {
-      res.json(
-        await accounts.updateProfile(deps, auth!, body, { userId: auth!.user.id, requestId }),
-      );
+    async handle({ res, deps, auth, body, actor }) {
+      res.json(await accounts.updateProfile(deps, auth, body, actor));
     },
   }),
   defineRoute({
@@ -93,11 +91,8 @@ export const accountRoutes = [
     summary: "Change one's own password; other sessions end",
     access: { kind: "signed-in" },
     body: changePasswordBodySchema,
-    async handle({ req, res, deps, auth, body, requestId }) {
-      const setCookie = await accounts.changePassword(deps, auth!, body, req.ip ?? "unknown", {
-        userId: auth!.user.id,
-        requestId,
-      });
+    async handle({ req, res, deps, auth, body, actor }) {
+      const setCookie = await accounts.changePassword(deps, auth, body, req.ip ?? "unknown", actor);
       res.append("Set-Cookie", setCookie).status(204).end();
     },
   }),

@@ -8,7 +8,7 @@ import { assertAcceptablePassword } from "../../auth/password-policy";
 import type { DbOrTx } from "../../db/client";
 import { AppError } from "../../lib/app-error";
 import { recordChange, type Actor } from "../../lib/change-log";
-import type { AppDeps, SignedIn } from "../../lib/routes";
+import type { AppDeps, SignedIn } from "../../lib/context";
 import { enqueueMail } from "../../outbox/outbox.repository";
 import { loadGrants } from "../auth/auth.service";
 import { passwordResetMail } from "./accounts.emails";

@@ -2,7 +2,6 @@ import { stringify } from "csv-stringify/sync";
 
 import { formatInZone } from "@shared/calc/due";
 import { severityLabels } from "@shared/calc/verdict";
-import type { Permission } from "@shared/permissions";
 import {
   actionListQuerySchema,
   actionNoteBodySchema,
@@ -18,28 +17,18 @@ import { actionMoves, type ActionMoveName } from "@shared/workflow/action-workfl
 import { zoneTypeLabels } from "@shared/zones";
 
 import { asCell, cautionRow, csvPreamble } from "../../lib/csv";
-import { readUpload } from "../../lib/images";
-import { defineRoute, type Access } from "../../lib/routes";
+import { readUpload } from "../../middleware/upload";
+import { atSite, defineRoute, siteThrough } from "../../lib/routes";
 import { parseInput } from "../../middleware/validate";
 import * as actions from "./actions.service";
 
-const viaAction = (permission: Permission): Access => ({
-  kind: "site",
-  permission,
-  siteOf: (params, deps) => actions.siteOfAction(deps.db, params.actionId!),
-});
+const viaAction = siteThrough("actionId", actions.siteOfAction);
 
 /** Where a person's move is made, and who may make it, from the workflow table. */
 const moveRoute = (name: ActionMoveName) => ({
   path: `/actions/:actionId/${actionMoves[name].path}`,
   access: viaAction(actionMoves[name].permission),
   params: actionParamsSchema,
-});
-
-const atSite = (permission: Permission): Access => ({
-  kind: "site",
-  permission,
-  siteOf: async (params) => params.siteId!,
 });
 
 const actionExportColumns = [
@@ -125,7 +114,7 @@ export const actionRoutes = [
     summary: "The unfinished actions the person owns, overdue first",
     access: { kind: "signed-in" },
     async handle({ res, deps, auth }) {
-      res.json({ actions: await actions.myActions(deps.db, auth!) });
+      res.json({ actions: await actions.myActions(deps.db, auth) });
     },
   }),
   defineRoute({
@@ -134,7 +123,7 @@ export const actionRoutes = [
     summary: "Fixes to check at the sites where the person confirms fixes",
     access: { kind: "signed-in" },
     async handle({ res, deps, auth }) {
-      res.json({ actions: await actions.myChecks(deps.db, auth!) });
+      res.json({ actions: await actions.myChecks(deps.db, auth) });
     },
   }),
   defineRoute({
@@ -151,21 +140,19 @@ export const actionRoutes = [
     method: "post",
     ...moveRoute("start"),
     summary: "Start fixing: To fix → Being fixed (facilities lead)",
-    async handle({ res, deps, auth, params, requestId }) {
-      res.json(
-        await actions.startAction({ deps, auth: auth!, actionId: params.actionId, requestId }),
-      );
+    async handle({ res, deps, auth, params, actor }) {
+      res.json(await actions.startAction({ deps, auth, actor, actionId: params.actionId }));
     },
   }),
   defineRoute({
     method: "post",
     ...moveRoute("add_photo"),
     summary: "Add a photo of the fix with an id made by the device (multipart: photo, id)",
-    async handle({ req, res, deps, auth, params, requestId }) {
+    async handle({ req, res, deps, auth, params, actor }) {
       const buffer = await readUpload(req, res, "photo");
       const fields = parseInput(proofFieldsSchema, { ...req.body }, "body");
       const { created, detail } = await actions.addProof(
-        { deps, auth: auth!, actionId: params.actionId, requestId },
+        { deps, auth, actor, actionId: params.actionId },
         { id: fields.id, buffer },
       );
       res.status(created ? 201 : 200).json(detail);
@@ -177,12 +164,9 @@ export const actionRoutes = [
     summary:
       "Ask for a check: Being fixed → Fix to check, with a note (needs a photo of this attempt)",
     body: actionNoteBodySchema,
-    async handle({ res, deps, auth, params, body, requestId }) {
+    async handle({ res, deps, auth, params, body, actor }) {
       res.json(
-        await actions.askForCheck(
-          { deps, auth: auth!, actionId: params.actionId, requestId },
-          body.note,
-        ),
+        await actions.askForCheck({ deps, auth, actor, actionId: params.actionId }, body.note),
       );
     },
   }),
@@ -191,12 +175,9 @@ export const actionRoutes = [
     ...moveRoute("confirm"),
     summary: "Confirm the fix: Fix to check → Done, with a note (auditor)",
     body: actionNoteBodySchema,
-    async handle({ res, deps, auth, params, body, requestId }) {
+    async handle({ res, deps, auth, params, body, actor }) {
       res.json(
-        await actions.confirmFix(
-          { deps, auth: auth!, actionId: params.actionId, requestId },
-          body.note,
-        ),
+        await actions.confirmFix({ deps, auth, actor, actionId: params.actionId }, body.note),
       );
     },
   }),
@@ -206,12 +187,9 @@ export const actionRoutes = [
     summary:
       "Send back: Fix to check → Being fixed, with a reason; a new photo is needed (auditor)",
     body: actionReasonBodySchema,
-    async handle({ res, deps, auth, params, body, requestId }) {
+    async handle({ res, deps, auth, params, body, actor }) {
       res.json(
-        await actions.sendBack(
-          { deps, auth: auth!, actionId: params.actionId, requestId },
-          body.reason,
-        ),
+        await actions.sendBack({ deps, auth, actor, actionId: params.actionId }, body.reason),
       );
     },
   }),
@@ -221,12 +199,9 @@ export const actionRoutes = [
     summary:
       "Reopen: Done → Being fixed, with a reason; it keeps its history and due time (auditor)",
     body: actionReasonBodySchema,
-    async handle({ res, deps, auth, params, body, requestId }) {
+    async handle({ res, deps, auth, params, body, actor }) {
       res.json(
-        await actions.reopenAction(
-          { deps, auth: auth!, actionId: params.actionId, requestId },
-          body.reason,
-        ),
+        await actions.reopenAction({ deps, auth, actor, actionId: params.actionId }, body.reason),
       );
     },
   }),
@@ -235,10 +210,10 @@ export const actionRoutes = [
     ...moveRoute("assign"),
     summary: "Change owner: hand the action to another facilities lead of the site",
     body: assigneeBodySchema,
-    async handle({ res, deps, auth, params, body, requestId }) {
+    async handle({ res, deps, auth, params, body, actor }) {
       res.json(
         await actions.assignAction(
-          { deps, auth: auth!, actionId: params.actionId, requestId },
+          { deps, auth, actor, actionId: params.actionId },
           body.assigneeId,
         ),
       );
@@ -271,13 +246,8 @@ export const actionRoutes = [
     access: atSite("update:site:site"),
     params: siteParamsSchema,
     body: duePolicySchema,
-    async handle({ res, deps, auth, params, body, requestId }) {
-      res.json(
-        await actions.setSitePolicy(deps.db, params.siteId, body, {
-          userId: auth!.user.id,
-          requestId,
-        }),
-      );
+    async handle({ res, deps, params, body, actor }) {
+      res.json(await actions.setSitePolicy(deps.db, params.siteId, body, actor));
     },
   }),
 ];

@@ -27,7 +27,7 @@ import type { Env } from "../../env";
 import { AppError, notFound } from "../../lib/app-error";
 import { recordChange, type Actor } from "../../lib/change-log";
 import { sha256Of, storeImage } from "../../lib/images";
-import type { AppDeps, SignedIn } from "../../lib/routes";
+import type { AppDeps, SignedIn } from "../../lib/context";
 import { enqueueMail } from "../../outbox/outbox.repository";
 import * as mails from "./actions.emails";
 import * as repo from "./actions.repository";
@@ -446,8 +446,9 @@ async function lockFor(tx: Tx, actionId: string, move: ActionMoveName) {
 interface Move {
   deps: AppDeps;
   auth: SignedIn;
+  /** Who makes the move, for the timeline: the same person as `auth`, and the request. */
+  actor: Actor;
   actionId: string;
-  requestId: string;
 }
 
 /** One move of an action into the change log, which is also the action's timeline. */
@@ -466,8 +467,6 @@ function logMove(
     ...change,
   });
 }
-
-const actorOf = (move: Move): Actor => ({ userId: move.auth.user.id, requestId: move.requestId });
 
 async function finish(move: Move, queued: number): Promise<ActionDetail> {
   if (queued > 0) move.deps.notifyOutbox();
@@ -493,7 +492,7 @@ async function changeState(
     ...(rule.newAttempt ? { proofRound: action.proofRound + 1 } : {}),
     ...extra.changes,
   });
-  await logMove(tx, actorOf(move), action, moveTimelineKinds[name], {
+  await logMove(tx, move.actor, action, moveTimelineKinds[name], {
     before: { state: action.state, ...extra.before },
     after: { state: rule.to, ...extra.after },
     reason: extra.reason ?? null,
@@ -564,7 +563,7 @@ export async function addProof(
     });
     // Another action's proof took the id a moment ago.
     if (!proof) throw proofIdInUse();
-    await logMove(tx, actorOf(move), action, moveTimelineKinds.add_photo, {
+    await logMove(tx, move.actor, action, moveTimelineKinds.add_photo, {
       after: { state: action.state, proofId: proof.id, imageId: image.id },
     });
     return true;
@@ -678,7 +677,7 @@ export async function assignAction(move: Move, assigneeId: string): Promise<Acti
     }
     if (action.assigneeId === assigneeId) return 0;
     await repo.updateAction(tx, action.id, { assigneeId });
-    await logMove(tx, actorOf(move), action, moveTimelineKinds.assign, {
+    await logMove(tx, move.actor, action, moveTimelineKinds.assign, {
       before: { state: action.state, assigneeId: action.assigneeId },
       after: { state: action.state, assigneeId, assigneeName: assignee.name },
     });

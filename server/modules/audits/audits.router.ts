@@ -1,4 +1,3 @@
-import type { Permission } from "@shared/permissions";
 import {
   amendmentBodySchema,
   answerBodySchema,
@@ -11,45 +10,32 @@ import {
 import { spaceParamsSchema } from "@shared/schemas/floors";
 import { siteParamsSchema } from "@shared/schemas/site";
 
-import { readUpload } from "../../lib/images";
+import { readUpload } from "../../middleware/upload";
 import { parseInput } from "../../middleware/validate";
-import { defineRoute, type Access } from "../../lib/routes";
+import { atSite, defineRoute, siteThrough } from "../../lib/routes";
 import * as audits from "./audits.service";
 
-const viaAudit = (permission: Permission): Access => ({
-  kind: "site",
-  permission,
-  siteOf: (params, deps) => audits.siteOfAudit(deps.db, params.auditId!),
-});
-
-const viaSpace = (permission: Permission): Access => ({
-  kind: "site",
-  permission,
-  siteOf: (params, deps) => audits.siteOfSpace(deps.db, params.spaceId!),
-});
+const viaAudit = siteThrough("auditId", audits.siteOfAudit);
+const viaSpace = siteThrough("spaceId", audits.siteOfSpace);
 
 export const auditRoutes = [
   defineRoute({
     method: "put",
     path: "/audits/:auditId",
     summary: "Start (or resume) an audit of a space with an id made by the device",
-    access: {
-      kind: "site",
-      permission: "conduct:audit:site",
-      async siteOf(params, deps, _user, req) {
-        // An audit that exists belongs where it is; a new one belongs where its space is, so
-        // its body is read here, and a malformed one is refused naming the field (the schema
-        // says nothing about what exists).
-        const existing = await audits.siteOfAudit(deps.db, params.auditId!);
-        if (existing) return existing;
-        const body = parseInput(startAuditBodySchema, req.body, "body");
-        return audits.siteOfSpace(deps.db, body.spaceId);
-      },
-    },
+    // An audit that exists belongs where it is; a new one belongs where its space is, so its
+    // body is read here, and a malformed one is refused naming the field (the schema says
+    // nothing about what exists).
+    access: siteThrough("auditId", async (db, auditId, rawBody) => {
+      const existing = await audits.siteOfAudit(db, auditId);
+      if (existing) return existing;
+      const body = parseInput(startAuditBodySchema, rawBody, "body");
+      return audits.siteOfSpace(db, body.spaceId);
+    })("conduct:audit:site"),
     params: auditParamsSchema,
     body: startAuditBodySchema,
-    async handle({ res, deps, auth, params, body }) {
-      const { created, detail } = await audits.startAudit(deps, auth!, params.auditId, body);
+    async handle({ res, deps, auth, actor, params, body }) {
+      const { created, detail } = await audits.startAudit(deps, auth, params.auditId, body, actor);
       res.status(created ? 201 : 200).json(detail);
     },
   }),
@@ -60,7 +46,7 @@ export const auditRoutes = [
     access: viaAudit("read:site:site"),
     params: auditParamsSchema,
     async handle({ res, deps, auth, params }) {
-      res.json(await audits.auditDetailFor(deps.db, auth!, params.auditId));
+      res.json(await audits.auditDetailFor(deps.db, auth, params.auditId));
     },
   }),
   defineRoute({
@@ -72,7 +58,7 @@ export const auditRoutes = [
     body: answerBodySchema,
     async handle({ res, deps, auth, params, body }) {
       res.json({
-        answer: await audits.saveAnswer(deps, auth!, params.auditId, params.itemId, body),
+        answer: await audits.saveAnswer(deps, auth, params.auditId, params.itemId, body),
       });
     },
   }),
@@ -85,7 +71,7 @@ export const auditRoutes = [
     async handle({ req, res, deps, auth, params }) {
       const buffer = await readUpload(req, res, "photo");
       const fields = parseInput(auditPhotoFieldsSchema, { ...req.body }, "body");
-      const { created, photo } = await audits.addPhoto(deps, auth!, params.auditId, {
+      const { created, photo } = await audits.addPhoto(deps, auth, params.auditId, {
         id: fields.id,
         itemId: fields.itemId ?? null,
         buffer,
@@ -99,8 +85,8 @@ export const auditRoutes = [
     summary: "Submit a complete audit; the verdict and score are decided here",
     access: viaAudit("conduct:audit:site"),
     params: auditParamsSchema,
-    async handle({ res, deps, auth, params, requestId }) {
-      res.json(await audits.submitAudit(deps, auth!, params.auditId, requestId));
+    async handle({ res, deps, auth, actor, params }) {
+      res.json(await audits.submitAudit(deps, auth, params.auditId, actor));
     },
   }),
   defineRoute({
@@ -110,10 +96,8 @@ export const auditRoutes = [
     access: viaAudit("update:site:site"),
     params: auditParamsSchema,
     body: amendmentBodySchema,
-    async handle({ res, deps, auth, params, body, requestId }) {
-      res.json(
-        await audits.amendAudit(deps, params.auditId, body, { userId: auth!.user.id, requestId }),
-      );
+    async handle({ res, deps, actor, params, body }) {
+      res.json(await audits.amendAudit(deps, params.auditId, body, actor));
     },
   }),
   defineRoute({
@@ -123,7 +107,7 @@ export const auditRoutes = [
     access: viaSpace("read:site:site"),
     params: spaceParamsSchema,
     async handle({ res, deps, auth, params }) {
-      res.json({ audits: await audits.auditsOfSpace(deps.db, params.spaceId, auth!.user.id) });
+      res.json({ audits: await audits.auditsOfSpace(deps.db, params.spaceId, auth.user.id) });
     },
   }),
   defineRoute({
@@ -133,16 +117,8 @@ export const auditRoutes = [
     access: viaSpace("update:site:site"),
     params: spaceParamsSchema,
     body: cadenceBodySchema,
-    async handle({ res, deps, auth, params, body, siteId, requestId }) {
-      res.json(
-        await audits.setCadence(
-          deps.db,
-          params.spaceId,
-          body.cadenceDays,
-          { userId: auth!.user.id, requestId },
-          siteId!,
-        ),
-      );
+    async handle({ res, deps, actor, params, body, siteId }) {
+      res.json(await audits.setCadence(deps.db, params.spaceId, body.cadenceDays, actor, siteId));
     },
   }),
   defineRoute({
@@ -151,18 +127,14 @@ export const auditRoutes = [
     summary: "What the person has due or overdue across the sites where they audit",
     access: { kind: "signed-in" },
     async handle({ res, deps, auth }) {
-      res.json({ entries: await audits.myDue(deps, auth!) });
+      res.json({ entries: await audits.myDue(deps, auth) });
     },
   }),
   defineRoute({
     method: "get",
     path: "/sites/:siteId/schedule",
     summary: "What is due and overdue at a site",
-    access: {
-      kind: "site",
-      permission: "read:site:site",
-      siteOf: async (params) => params.siteId!,
-    },
+    access: atSite("read:site:site"),
     params: siteParamsSchema,
     async handle({ res, deps, params }) {
       res.json({ entries: await audits.siteSchedule(deps.db, params.siteId) });

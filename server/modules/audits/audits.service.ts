@@ -24,7 +24,7 @@ import { AppError, forbidden, notFound } from "../../lib/app-error";
 import { recordChange, type Actor } from "../../lib/change-log";
 import { databaseCodeOf } from "../../lib/database-errors";
 import { sha256Of, storeImage } from "../../lib/images";
-import type { AppDeps, SignedIn } from "../../lib/routes";
+import type { AppDeps, SignedIn } from "../../lib/context";
 import {
   checklistItemsOf,
   ensureDefaultChecklists,
@@ -133,6 +133,7 @@ export async function startAudit(
   auth: SignedIn,
   auditId: string,
   body: { spaceId: string; startedAt: string },
+  actor: Actor,
 ): Promise<{ created: boolean; detail: AuditDetail }> {
   const existing = await repo.findAudit(deps.db, auditId);
   if (existing) {
@@ -164,17 +165,13 @@ export async function startAudit(
       startedAt: new Date(body.startedAt),
     });
     if (inserted) {
-      await recordChange(
-        tx,
-        { userId: auth.user.id, requestId: null },
-        {
-          action: "audit.started",
-          entity: "audit",
-          entityId: auditId,
-          siteId: space.siteId,
-          after: { spaceId: space.id, checklistVersion: version.version },
-        },
-      );
+      await recordChange(tx, actor, {
+        action: "audit.started",
+        entity: "audit",
+        entityId: auditId,
+        siteId: space.siteId,
+        after: { spaceId: space.id, checklistVersion: version.version },
+      });
     }
     return inserted;
   });
@@ -351,7 +348,7 @@ export async function submitAudit(
   deps: AppDeps,
   auth: SignedIn,
   auditId: string,
-  requestId: string,
+  actor: Actor,
 ): Promise<AuditDetail> {
   const queued = await withLockedAudit(deps.db, auth, auditId, async (tx, current) => {
     requireAuditor(current, auth);
@@ -407,7 +404,6 @@ export async function submitAudit(
           ]
         : [];
     });
-    const actor = { userId: auth.user.id, requestId };
     const submittedAt = new Date();
     await repo.markSubmitted(tx, auditId, {
       verdict,

@@ -21,7 +21,7 @@ export const authRoutes = [
     summary: "End the current session",
     access: { kind: "signed-in" },
     async handle({ res, deps, auth }) {
-      const blank = await deps.sessions.end(auth!.sessionId);
+      const blank = await deps.sessions.end(auth.sessionId);
       res.append("Set-Cookie", blank).status(204).end();
     },
   }),
@@ -31,7 +31,7 @@ export const authRoutes = [
     summary: "Who is signed in, with their roles",
     access: { kind: "signed-in" },
     handle({ res, auth }) {
-      const { user, grants } = auth!;
+      const { user, grants } = auth;
       res.json({ user: { id: user.id, email: user.email, name: user.name }, roles: grants });
     },
   }),

@@ -2,7 +2,7 @@ import type { MeResponse, SignInBody } from "@shared/schemas/auth";
 
 import { verifyPassword } from "../../auth/password";
 import { AppError } from "../../lib/app-error";
-import type { AppDeps } from "../../lib/routes";
+import type { AppDeps } from "../../lib/context";
 import { findUserForSignIn, listGrants } from "./auth.repository";
 
 const invalidCredentials = () =>

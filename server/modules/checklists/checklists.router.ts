@@ -10,7 +10,7 @@ export const checklistRoutes = [
     summary: "The published checklist (and any draft) for each zone type",
     access: { kind: "signed-in" },
     async handle({ res, deps, auth }) {
-      res.json(await checklists.listChecklists(deps.db, auth!.user.networkId));
+      res.json(await checklists.listChecklists(deps.db, auth.user.networkId));
     },
   }),
   defineRoute({
@@ -20,13 +20,13 @@ export const checklistRoutes = [
     access: { kind: "network", permission: "manage:checklists:network" },
     params: zoneTypeParamsSchema,
     body: checklistDraftBodySchema,
-    async handle({ res, deps, auth, params, body, requestId }) {
+    async handle({ res, deps, auth, params, body, actor }) {
       const draft = await checklists.saveDraft(
         deps.db,
-        auth!.user.networkId,
+        auth.user.networkId,
         params.zoneType,
         body,
-        { userId: auth!.user.id, requestId },
+        actor,
       );
       res.json({ draft });
     },
@@ -37,12 +37,12 @@ export const checklistRoutes = [
     summary: "Publish the draft as the next version",
     access: { kind: "network", permission: "manage:checklists:network" },
     params: zoneTypeParamsSchema,
-    async handle({ res, deps, auth, params, requestId }) {
+    async handle({ res, deps, auth, params, actor }) {
       const published = await checklists.publishDraft(
         deps.db,
-        auth!.user.networkId,
+        auth.user.networkId,
         params.zoneType,
-        { userId: auth!.user.id, requestId },
+        actor,
       );
       res.json({ published });
     },
@@ -53,11 +53,8 @@ export const checklistRoutes = [
     summary: "Discard the draft",
     access: { kind: "network", permission: "manage:checklists:network" },
     params: zoneTypeParamsSchema,
-    async handle({ res, deps, auth, params, requestId }) {
-      await checklists.discardDraft(deps.db, auth!.user.networkId, params.zoneType, {
-        userId: auth!.user.id,
-        requestId,
-      });
+    async handle({ res, deps, auth, params, actor }) {
+      await checklists.discardDraft(deps.db, auth.user.networkId, params.zoneType, actor);
       res.status(204).end();
     },
   }),

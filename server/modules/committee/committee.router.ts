@@ -8,13 +8,13 @@ import { zoneTypeLabels } from "@shared/zones";
 
 import { notFound } from "../../lib/app-error";
 import { asCell, cautionRow, csvPreamble } from "../../lib/csv";
-import { defineRoute, type Access } from "../../lib/routes";
+import { atSite, defineRoute, type AnySiteAccess } from "../../lib/routes";
 import { requireSite } from "../sites/sites.service";
 import { buildMonthlyReport } from "./committee.report";
 import * as committee from "./committee.service";
 import { exportAuditRows } from "./committee.repository";
 
-const anyReadableSite: Access = { kind: "any-site", permission: "read:site:site" };
+const anyReadableSite: AnySiteAccess = { kind: "any-site", permission: "read:site:site" };
 
 const fixed = (value: number | null | undefined) =>
   value === null || value === undefined ? "" : value.toFixed(4);
@@ -30,7 +30,7 @@ export const committeeRoutes = [
     access: anyReadableSite,
     query: committeeQuerySchema,
     async handle({ res, deps, auth, query }) {
-      res.json(await committee.comparison(deps.db, auth!.user.networkId, auth!.grants, query));
+      res.json(await committee.comparison(deps.db, auth.user.networkId, auth.grants, query));
     },
   }),
   defineRoute({
@@ -41,22 +41,18 @@ export const committeeRoutes = [
     access: anyReadableSite,
     query: committeeQuerySchema,
     async handle({ res, deps, auth, query }) {
-      res.json(await committee.trends(deps.db, auth!.user.networkId, auth!.grants, query));
+      res.json(await committee.trends(deps.db, auth.user.networkId, auth.grants, query));
     },
   }),
   defineRoute({
     method: "get",
     path: "/committee/sites/:siteId",
     summary: "One site's spaces: readiness in the period, latest verdict, open and overdue actions",
-    access: {
-      kind: "site",
-      permission: "read:site:site",
-      siteOf: async (params) => params.siteId!,
-    },
+    access: atSite("read:site:site"),
     params: committeeSiteParamsSchema,
     query: committeeQuerySchema,
     async handle({ res, deps, auth, params, query }) {
-      const site = await requireSite(deps.db, auth!.user.networkId, params.siteId);
+      const site = await requireSite(deps.db, auth.user.networkId, params.siteId);
       res.json(await committee.siteDrillDown(deps.db, site.id, site.name, query));
     },
   }),
@@ -67,7 +63,7 @@ export const committeeRoutes = [
     access: anyReadableSite,
     query: committeeQuerySchema,
     async handle({ res, deps, auth, query }) {
-      const result = await committee.comparison(deps.db, auth!.user.networkId, auth!.grants, query);
+      const result = await committee.comparison(deps.db, auth.user.networkId, auth.grants, query);
       const rows: unknown[][] = [];
       for (const site of result.sites) {
         const measures = [
@@ -122,7 +118,7 @@ export const committeeRoutes = [
     access: anyReadableSite,
     query: committeeQuerySchema,
     async handle({ res, deps, auth, query }) {
-      const sites = await committee.readableSites(deps.db, auth!.user.networkId, auth!.grants);
+      const sites = await committee.readableSites(deps.db, auth.user.networkId, auth.grants);
       const ids = sites.map((site) => site.id);
       res.type("text/csv; charset=utf-8").attachment(`audits-${fileStamp(query)}.csv`);
       const columns = [
@@ -167,12 +163,12 @@ export const committeeRoutes = [
     access: anyReadableSite,
     query: committeeQuerySchema,
     async handle({ res, deps, auth, query }) {
-      const networkId = auth!.user.networkId;
+      const networkId = auth.user.networkId;
       const [comparison, trends] = await Promise.all([
-        committee.comparison(deps.db, networkId, auth!.grants, query),
-        committee.trends(deps.db, networkId, auth!.grants, query),
+        committee.comparison(deps.db, networkId, auth.grants, query),
+        committee.trends(deps.db, networkId, auth.grants, query),
       ]);
-      const sites = await committee.readableSites(deps.db, networkId, auth!.grants);
+      const sites = await committee.readableSites(deps.db, networkId, auth.grants);
       if (sites.length === 0) throw notFound("A site to report on");
       const overdue = await committee.overdueForReport(
         deps.db,

@@ -82,7 +82,7 @@ export const devMailboxRoutes = [
     access: { kind: "network", permission: "read:dev-mailbox:network" },
     mountedWhen: mailCatcherRuns,
     async handle({ res, deps, auth }) {
-      res.json({ messages: await readMailbox(deps, auth!.user.networkId, 200) });
+      res.json({ messages: await readMailbox(deps, auth.user.networkId, 200) });
     },
   }),
 ];

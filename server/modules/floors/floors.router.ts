@@ -13,41 +13,23 @@ import {
   updateSpaceBodySchema,
 } from "@shared/schemas/floors";
 
-import type { Permission } from "@shared/permissions";
 import { retirementBodySchema } from "@shared/schemas/retirement";
 
-import { readUpload } from "../../lib/images";
-import { defineRoute, type Access, type AppDeps } from "../../lib/routes";
+import { readUpload } from "../../middleware/upload";
+import { atSite, defineRoute, siteThrough } from "../../lib/routes";
 import * as retirement from "./floors.retirement";
 import * as floors from "./floors.service";
 
-type Resolve = (db: AppDeps["db"], id: string) => Promise<string | null>;
-
-/** Site-scoped access where the site is found through the resource named by `param`. */
-function through(param: string, resolve: Resolve, permission: Permission): Access {
-  return {
-    kind: "site",
-    permission,
-    siteOf: (params, deps) => resolve(deps.db, params[param]!),
-  };
-}
-
-const site = (permission: Permission) => through("siteId", async (_db, id) => id, permission);
-const floor = (permission: Permission) => through("floorId", floors.siteOfFloor, permission);
-const space = (permission: Permission) => through("spaceId", floors.siteOfSpace, permission);
-const fixture = (permission: Permission) => through("fixtureId", floors.siteOfFixture, permission);
-
-const actorOf = (ctx: { auth: { user: { id: string } } | null; requestId: string }) => ({
-  userId: ctx.auth!.user.id,
-  requestId: ctx.requestId,
-});
+const floor = siteThrough("floorId", floors.siteOfFloor);
+const space = siteThrough("spaceId", floors.siteOfSpace);
+const fixture = siteThrough("fixtureId", floors.siteOfFixture);
 
 export const floorRoutes = [
   defineRoute({
     method: "get",
     path: "/sites/:siteId/floors",
     summary: "The floors of a site",
-    access: site("read:site:site"),
+    access: atSite("read:site:site"),
     params: siteFloorsParamsSchema,
     async handle({ res, deps, params }) {
       res.json({ floors: await floors.listFloors(deps.db, params.siteId) });
@@ -57,16 +39,11 @@ export const floorRoutes = [
     method: "post",
     path: "/sites/:siteId/floors",
     summary: "Add a floor to a site",
-    access: site("update:site:site"),
+    access: atSite("update:site:site"),
     params: siteFloorsParamsSchema,
     body: floorBodySchema,
     async handle(ctx) {
-      const created = await floors.createFloor(
-        ctx.deps.db,
-        ctx.params.siteId,
-        ctx.body,
-        actorOf(ctx),
-      );
+      const created = await floors.createFloor(ctx.deps.db, ctx.params.siteId, ctx.body, ctx.actor);
       ctx.res.status(201).json({ floor: created });
     },
   }),
@@ -89,7 +66,7 @@ export const floorRoutes = [
     body: updateFloorBodySchema,
     async handle(ctx) {
       ctx.res.json({
-        floor: await floors.updateFloor(ctx.deps.db, ctx.params.floorId, ctx.body, actorOf(ctx)),
+        floor: await floors.updateFloor(ctx.deps.db, ctx.params.floorId, ctx.body, ctx.actor),
       });
     },
   }),
@@ -100,7 +77,7 @@ export const floorRoutes = [
     access: floor("update:site:site"),
     params: floorParamsSchema,
     async handle(ctx) {
-      await retirement.deleteFloor(ctx.deps.db, ctx.params.floorId, actorOf(ctx));
+      await retirement.deleteFloor(ctx.deps.db, ctx.params.floorId, ctx.actor);
       ctx.res.status(204).end();
     },
   }),
@@ -117,7 +94,7 @@ export const floorRoutes = [
           ctx.deps.db,
           ctx.params.floorId,
           ctx.body,
-          actorOf(ctx),
+          ctx.actor,
         ),
       });
     },
@@ -135,7 +112,7 @@ export const floorRoutes = [
           ctx.deps.db,
           ctx.params.floorId,
           ctx.body,
-          actorOf(ctx),
+          ctx.actor,
         ),
       });
     },
@@ -144,7 +121,7 @@ export const floorRoutes = [
     method: "get",
     path: "/sites/:siteId/retired",
     summary: "The site's retired floors and spaces, for administrators to restore",
-    access: site("update:site:site"),
+    access: atSite("update:site:site"),
     params: siteFloorsParamsSchema,
     async handle({ res, deps, params }) {
       res.json(await retirement.retiredPlaces(deps.db, params.siteId));
@@ -155,17 +132,17 @@ export const floorRoutes = [
     method: "post",
     path: "/sites/:siteId/retire",
     summary: "Retire a site with its floors and spaces",
-    access: site("create:site:network"),
+    access: atSite("create:site:network"),
     params: siteFloorsParamsSchema,
     body: retirementBodySchema,
     async handle(ctx) {
       ctx.res.json({
         retirement: await retirement.retireSite(
           ctx.deps.db,
-          ctx.auth!.user.networkId,
+          ctx.auth.user.networkId,
           ctx.params.siteId,
           ctx.body,
-          actorOf(ctx),
+          ctx.actor,
         ),
       });
     },
@@ -174,17 +151,17 @@ export const floorRoutes = [
     method: "post",
     path: "/sites/:siteId/restore",
     summary: "Restore a site with the floors and spaces retired with it",
-    access: site("create:site:network"),
+    access: atSite("create:site:network"),
     params: siteFloorsParamsSchema,
     body: retirementBodySchema,
     async handle(ctx) {
       ctx.res.json({
         retirement: await retirement.restoreSite(
           ctx.deps.db,
-          ctx.auth!.user.networkId,
+          ctx.auth.user.networkId,
           ctx.params.siteId,
           ctx.body,
-          actorOf(ctx),
+          ctx.actor,
         ),
       });
     },
@@ -198,7 +175,7 @@ export const floorRoutes = [
     async handle(ctx) {
       const buffer = await readUpload(ctx.req, ctx.res, "plan");
       ctx.res.json({
-        floor: await floors.uploadPlan(ctx.deps, ctx.params.floorId, buffer, actorOf(ctx)),
+        floor: await floors.uploadPlan(ctx.deps, ctx.params.floorId, buffer, ctx.actor),
       });
     },
   }),
@@ -211,7 +188,7 @@ export const floorRoutes = [
     body: scaleBodySchema,
     async handle(ctx) {
       ctx.res.json({
-        floor: await floors.setScale(ctx.deps.db, ctx.params.floorId, ctx.body, actorOf(ctx)),
+        floor: await floors.setScale(ctx.deps.db, ctx.params.floorId, ctx.body, ctx.actor),
       });
     },
   }),
@@ -224,12 +201,7 @@ export const floorRoutes = [
     body: suiteBodySchema,
     async handle(ctx) {
       ctx.res.status(201).json({
-        suite: await floors.createSuite(
-          ctx.deps.db,
-          ctx.params.floorId,
-          ctx.body.name,
-          actorOf(ctx),
-        ),
+        suite: await floors.createSuite(ctx.deps.db, ctx.params.floorId, ctx.body.name, ctx.actor),
       });
     },
   }),
@@ -242,7 +214,7 @@ export const floorRoutes = [
     body: spaceBodySchema,
     async handle(ctx) {
       ctx.res.status(201).json({
-        space: await floors.createSpace(ctx.deps.db, ctx.params.floorId, ctx.body, actorOf(ctx)),
+        space: await floors.createSpace(ctx.deps.db, ctx.params.floorId, ctx.body, ctx.actor),
       });
     },
   }),
@@ -255,7 +227,7 @@ export const floorRoutes = [
     body: updateSpaceBodySchema,
     async handle(ctx) {
       ctx.res.json({
-        space: await floors.updateSpace(ctx.deps.db, ctx.params.spaceId, ctx.body, actorOf(ctx)),
+        space: await floors.updateSpace(ctx.deps.db, ctx.params.spaceId, ctx.body, ctx.actor),
       });
     },
   }),
@@ -266,7 +238,7 @@ export const floorRoutes = [
     access: space("update:site:site"),
     params: spaceParamsSchema,
     async handle(ctx) {
-      await retirement.deleteSpace(ctx.deps.db, ctx.params.spaceId, actorOf(ctx));
+      await retirement.deleteSpace(ctx.deps.db, ctx.params.spaceId, ctx.actor);
       ctx.res.status(204).end();
     },
   }),
@@ -283,7 +255,7 @@ export const floorRoutes = [
           ctx.deps.db,
           ctx.params.spaceId,
           ctx.body,
-          actorOf(ctx),
+          ctx.actor,
         ),
       });
     },
@@ -301,7 +273,7 @@ export const floorRoutes = [
           ctx.deps.db,
           ctx.params.spaceId,
           ctx.body,
-          actorOf(ctx),
+          ctx.actor,
         ),
       });
     },
@@ -315,12 +287,7 @@ export const floorRoutes = [
     body: fixtureBodySchema,
     async handle(ctx) {
       ctx.res.status(201).json({
-        fixture: await floors.createFixture(
-          ctx.deps.db,
-          ctx.params.spaceId,
-          ctx.body,
-          actorOf(ctx),
-        ),
+        fixture: await floors.createFixture(ctx.deps.db, ctx.params.spaceId, ctx.body, ctx.actor),
       });
     },
   }),
@@ -333,12 +300,7 @@ export const floorRoutes = [
     body: updateFixtureBodySchema,
     async handle(ctx) {
       ctx.res.json({
-        fixture: await floors.updateFixture(
-          ctx.deps.db,
-          ctx.params.fixtureId,
-          ctx.body,
-          actorOf(ctx),
-        ),
+        fixture: await floors.updateFixture(ctx.deps.db, ctx.params.fixtureId, ctx.body, ctx.actor),
       });
     },
   }),
@@ -349,7 +311,7 @@ export const floorRoutes = [
     access: fixture("update:site:site"),
     params: fixtureParamsSchema,
     async handle(ctx) {
-      await floors.deleteFixture(ctx.deps.db, ctx.params.fixtureId, actorOf(ctx));
+      await floors.deleteFixture(ctx.deps.db, ctx.params.fixtureId, ctx.actor);
       ctx.res.status(204).end();
     },
   }),

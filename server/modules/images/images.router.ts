@@ -4,9 +4,10 @@ import { imageParamsSchema, imageQuerySchema } from "@shared/schemas/floors";
 import { siteParamsSchema } from "@shared/schemas/site";
 
 import { notFound } from "../../lib/app-error";
-import { readUpload, storeImage } from "../../lib/images";
+import { storeImage } from "../../lib/images";
+import { readUpload } from "../../middleware/upload";
 import { findImageForServing } from "../../lib/images.repository";
-import { defineRoute } from "../../lib/routes";
+import { atSite, defineRoute, siteThrough } from "../../lib/routes";
 import { imageHiddenFrom } from "../audits/audits.service";
 
 export const imageRoutes = [
@@ -14,17 +15,13 @@ export const imageRoutes = [
     method: "post",
     path: "/sites/:siteId/images",
     summary: "Upload a photo for a site (JPEG, PNG or WebP; metadata removed)",
-    access: {
-      kind: "site",
-      permission: "upload:image:site",
-      siteOf: async (params) => params.siteId!,
-    },
+    access: atSite("upload:image:site"),
     params: siteParamsSchema,
     async handle({ req, res, deps, auth, params }) {
       const buffer = await readUpload(req, res, "photo");
       const image = await storeImage(deps, {
         siteId: params.siteId,
-        uploadedBy: auth!.user.id,
+        uploadedBy: auth.user.id,
         buffer,
         field: "photo",
       });
@@ -35,20 +32,16 @@ export const imageRoutes = [
     method: "get",
     path: "/images/:imageId",
     summary: "An image's bytes, after checking the person may see its site",
-    access: {
-      kind: "site",
-      permission: "read:site:site",
-      async siteOf(params, deps) {
-        const image = await findImageForServing(deps.db, params.imageId!);
-        return image?.siteId ?? null;
-      },
-    },
+    access: siteThrough(
+      "imageId",
+      async (db, imageId) => (await findImageForServing(db, imageId))?.siteId ?? null,
+    )("read:site:site"),
     params: imageParamsSchema,
     query: imageQuerySchema,
     async handle({ res, deps, auth, params, query }) {
       const image = await findImageForServing(deps.db, params.imageId);
       // A photo of someone else's draft is as hidden as the draft.
-      if (!image || (await imageHiddenFrom(deps.db, auth!, { id: params.imageId, ...image })))
+      if (!image || (await imageHiddenFrom(deps.db, auth, { id: params.imageId, ...image })))
         throw notFound("That image");
       const stored = await deps.storage.get(
         query.variant === "thumb" ? image.thumbKey : image.displayKey,

@@ -1,10 +1,10 @@
 import { mailParamsSchema } from "@shared/schemas/mail";
 import { emptyBodySchema } from "@shared/schemas/people";
 
-import { defineRoute, type Access } from "../../lib/routes";
+import { defineRoute, type NetworkAccess } from "../../lib/routes";
 import * as mail from "./mail.service";
 
-const networkAdministrators: Access = { kind: "network", permission: "resend:mail:network" };
+const networkAdministrators: NetworkAccess = { kind: "network", permission: "resend:mail:network" };
 
 export const mailRoutes = [
   defineRoute({
@@ -13,7 +13,7 @@ export const mailRoutes = [
     summary: "E-mail to the network's people that may not have arrived (uncertain or failed)",
     access: networkAdministrators,
     async handle({ res, deps, auth }) {
-      res.json({ mail: await mail.listUndelivered(deps, auth!) });
+      res.json({ mail: await mail.listUndelivered(deps, auth) });
     },
   }),
   defineRoute({
@@ -23,8 +23,8 @@ export const mailRoutes = [
     access: networkAdministrators,
     params: mailParamsSchema,
     body: emptyBodySchema,
-    async handle({ res, deps, auth, params, requestId }) {
-      res.json(await mail.resend(deps, auth!, params.mailId, { userId: auth!.user.id, requestId }));
+    async handle({ res, deps, auth, params, actor }) {
+      res.json(await mail.resend(deps, auth, params.mailId, actor));
     },
   }),
 ];

@@ -2,7 +2,7 @@ import type { ResendResult, UndeliveredMail } from "@shared/schemas/mail";
 
 import { notFound } from "../../lib/app-error";
 import { recordChange, type Actor } from "../../lib/change-log";
-import type { AppDeps, SignedIn } from "../../lib/routes";
+import type { AppDeps, SignedIn } from "../../lib/context";
 import * as repo from "./mail.repository";
 
 export function listUndelivered(deps: AppDeps, auth: SignedIn): Promise<UndeliveredMail[]> {

@@ -7,10 +7,10 @@ import {
   personParamsSchema,
 } from "@shared/schemas/people";
 
-import { defineRoute, type Access } from "../../lib/routes";
+import { defineRoute, type AnySiteAccess } from "../../lib/routes";
 import * as people from "./people.service";
 
-const administrators: Access = { kind: "any-site", permission: "manage:people:site" };
+const administrators: AnySiteAccess = { kind: "any-site", permission: "manage:people:site" };
 
 export const peopleRoutes = [
   defineRoute({
@@ -19,7 +19,7 @@ export const peopleRoutes = [
     summary: "People the administrator manages, with roles and status",
     access: administrators,
     async handle({ res, deps, auth }) {
-      res.json(await people.listPeople(deps, auth!));
+      res.json(await people.listPeople(deps, auth));
     },
   }),
   defineRoute({
@@ -28,8 +28,8 @@ export const peopleRoutes = [
     summary: "Invite someone by e-mail with roles",
     access: administrators,
     body: inviteBodySchema,
-    async handle({ res, deps, auth, body, requestId }) {
-      const person = await people.invite(deps, auth!, body, { userId: auth!.user.id, requestId });
+    async handle({ res, deps, auth, body, actor }) {
+      const person = await people.invite(deps, auth, body, actor);
       res.status(201).json({ person });
     },
   }),
@@ -40,7 +40,7 @@ export const peopleRoutes = [
     access: administrators,
     params: personParamsSchema,
     async handle({ res, deps, auth, params }) {
-      res.json({ person: await people.requirePerson(deps, auth!, params.userId) });
+      res.json({ person: await people.requirePerson(deps, auth, params.userId) });
     },
   }),
   defineRoute({
@@ -50,11 +50,8 @@ export const peopleRoutes = [
     access: administrators,
     params: personParamsSchema,
     body: grantInputSchema,
-    async handle({ res, deps, auth, params, body, requestId }) {
-      const person = await people.giveRole(deps, auth!, params.userId, body, {
-        userId: auth!.user.id,
-        requestId,
-      });
+    async handle({ res, deps, auth, params, body, actor }) {
+      const person = await people.giveRole(deps, auth, params.userId, body, actor);
       res.status(201).json({ person });
     },
   }),
@@ -64,11 +61,8 @@ export const peopleRoutes = [
     summary: "Take a role away",
     access: administrators,
     params: personGrantParamsSchema,
-    async handle({ res, deps, auth, params, requestId }) {
-      const person = await people.takeRole(deps, auth!, params.userId, params.grantId, {
-        userId: auth!.user.id,
-        requestId,
-      });
+    async handle({ res, deps, auth, params, actor }) {
+      const person = await people.takeRole(deps, auth, params.userId, params.grantId, actor);
       res.json({ person });
     },
   }),
@@ -79,11 +73,8 @@ export const peopleRoutes = [
     access: administrators,
     params: personParamsSchema,
     body: deactivateBodySchema,
-    async handle({ res, deps, auth, params, body, requestId }) {
-      const person = await people.deactivate(deps, auth!, params.userId, body.reason, {
-        userId: auth!.user.id,
-        requestId,
-      });
+    async handle({ res, deps, auth, params, body, actor }) {
+      const person = await people.deactivate(deps, auth, params.userId, body.reason, actor);
       res.json({ person });
     },
   }),
@@ -94,11 +85,8 @@ export const peopleRoutes = [
     access: administrators,
     params: personParamsSchema,
     body: emptyBodySchema,
-    async handle({ res, deps, auth, params, requestId }) {
-      const person = await people.reactivate(deps, auth!, params.userId, {
-        userId: auth!.user.id,
-        requestId,
-      });
+    async handle({ res, deps, auth, params, actor }) {
+      const person = await people.reactivate(deps, auth, params.userId, actor);
       res.json({ person });
     },
   }),
@@ -109,11 +97,8 @@ export const peopleRoutes = [
     access: administrators,
     params: personParamsSchema,
     body: emptyBodySchema,
-    async handle({ res, deps, auth, params, requestId }) {
-      const person = await people.resendInvitation(deps, auth!, params.userId, {
-        userId: auth!.user.id,
-        requestId,
-      });
+    async handle({ res, deps, auth, params, actor }) {
+      const person = await people.resendInvitation(deps, auth, params.userId, actor);
       res.json({ person });
     },
   }),

@@ -5,7 +5,7 @@ import type { GrantInput, InviteBody, PeopleListResponse, Person } from "@shared
 import type { DbOrTx } from "../../db/client";
 import { AppError, forbidden, notFound } from "../../lib/app-error";
 import { recordChange, type Actor } from "../../lib/change-log";
-import type { AppDeps, SignedIn } from "../../lib/routes";
+import type { AppDeps, SignedIn } from "../../lib/context";
 import { enqueueMail } from "../../outbox/outbox.repository";
 import { invitationElsewhereMail, invitationMail } from "../accounts/accounts.emails";
 import { issueLink, revokeOpenLinks } from "../accounts/accounts.service";

@@ -1,6 +1,6 @@
 import { createSiteBodySchema, siteParamsSchema, updateSiteBodySchema } from "@shared/schemas/site";
 
-import { defineRoute, type Access } from "../../lib/routes";
+import { atSite, defineRoute } from "../../lib/routes";
 import {
   createSite,
   listRetiredSites,
@@ -9,12 +9,6 @@ import {
   updateSite,
 } from "./sites.service";
 
-const siteOfParam = (permission: "read:site:site" | "update:site:site"): Access => ({
-  kind: "site",
-  permission,
-  siteOf: async (params) => params.siteId!,
-});
-
 export const siteRoutes = [
   defineRoute({
     method: "get",
@@ -22,7 +16,7 @@ export const siteRoutes = [
     summary: "The sites where the person holds a role",
     access: { kind: "signed-in" },
     async handle({ res, deps, auth }) {
-      res.json({ sites: await listSitesFor(deps.db, auth!.user.networkId, auth!.grants) });
+      res.json({ sites: await listSitesFor(deps.db, auth.user.networkId, auth.grants) });
     },
   }),
   defineRoute({
@@ -31,11 +25,8 @@ export const siteRoutes = [
     summary: "Add a site to the network",
     access: { kind: "network", permission: "create:site:network" },
     body: createSiteBodySchema,
-    async handle({ res, deps, auth, body, requestId }) {
-      const site = await createSite(deps.db, auth!.user.networkId, body, {
-        userId: auth!.user.id,
-        requestId,
-      });
+    async handle({ res, deps, auth, body, actor }) {
+      const site = await createSite(deps.db, auth.user.networkId, body, actor);
       res.status(201).json({ site });
     },
   }),
@@ -45,31 +36,28 @@ export const siteRoutes = [
     summary: "The network's retired sites, for a network-wide administrator to restore",
     access: { kind: "network", permission: "create:site:network" },
     async handle({ res, deps, auth }) {
-      res.json({ sites: await listRetiredSites(deps.db, auth!.user.networkId) });
+      res.json({ sites: await listRetiredSites(deps.db, auth.user.networkId) });
     },
   }),
   defineRoute({
     method: "get",
     path: "/sites/:siteId",
     summary: "One site",
-    access: siteOfParam("read:site:site"),
+    access: atSite("read:site:site"),
     params: siteParamsSchema,
     async handle({ res, deps, auth, params }) {
-      res.json({ site: await requireSite(deps.db, auth!.user.networkId, params.siteId) });
+      res.json({ site: await requireSite(deps.db, auth.user.networkId, params.siteId) });
     },
   }),
   defineRoute({
     method: "patch",
     path: "/sites/:siteId",
     summary: "Change a site's name, address, time zone or position",
-    access: siteOfParam("update:site:site"),
+    access: atSite("update:site:site"),
     params: siteParamsSchema,
     body: updateSiteBodySchema,
-    async handle({ res, deps, auth, params, body, requestId }) {
-      const site = await updateSite(deps.db, auth!.user.networkId, params.siteId, body, {
-        userId: auth!.user.id,
-        requestId,
-      });
+    async handle({ res, deps, auth, params, body, actor }) {
+      const site = await updateSite(deps.db, auth.user.networkId, params.siteId, body, actor);
       res.json({ site });
     },
   }),
