@@ -31,6 +31,8 @@ export default defineConfig({
           environment: "jsdom",
           include: ["tests/client/**/*.test.{ts,tsx}"],
           setupFiles: ["tests/setup/fail-on-console-error.ts", "tests/setup/client.ts"],
+          // Screen tests render whole routes; on two busy cores a first render can pass 5 s.
+          testTimeout: 15_000,
         },
       },
       {
