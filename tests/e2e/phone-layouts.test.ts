@@ -203,7 +203,22 @@ describe("phone layouts", () => {
           }, href);
         }
         await whenQuiet();
-        await page.locator("main h1:not([data-left])").first().waitFor();
+        await page
+          .locator("main h1:not([data-left])")
+          .first()
+          .waitFor()
+          .catch((error: Error) => {
+            throw new Error(`${role.email} at ${phone.width} px on ${href}: ${error.message}`);
+          });
+        // Measured once the page has drawn what it loads (its "Loading …" notes gone), and after
+        // whatever that settles, such as an address filled in with defaults.
+        await page.waitForFunction(
+          () =>
+            ![...document.querySelectorAll('main [role="status"]')].some((status) =>
+              /Loading/.test(status.textContent ?? ""),
+            ),
+        );
+        await whenQuiet();
         for (const misfit of await misfits(page, phone.width))
           report.push(`${role.email} at ${phone.width} px on ${href}: ${misfit}`);
         const shift = await page.evaluate<number>("window.__layoutShift");
@@ -247,7 +262,7 @@ describe("phone layouts", () => {
     expect(report).toEqual([]);
     expect(Object.entries(shifts).filter(([, shift]) => shift > 0.1)).toEqual([]);
     expect(problems).toEqual([]);
-  });
+  }, 150_000);
 
   it("when words kept for screen readers sit at the far end of a wide table in a frame that scrolls sideways, then the page stays as wide as the phone", async () => {
     const context = await phoneContext(browser, phones[0]);
