@@ -284,4 +284,27 @@ describe("phone layouts", () => {
       await context.close();
     }
   });
+
+  it("when the administrator works on a wide screen, then the side rail lists the admin pages one by one and no Admin entry", async () => {
+    const context = await browser.newContext({ viewport: { width: 1280, height: 800 } });
+    try {
+      const page = await context.newPage();
+      await signIn(page, "admin@example.org", password);
+      await page.getByRole("heading", { level: 1, name: "My sites" }).waitFor();
+      const rail = page.getByRole("navigation", { name: "Main" });
+      await rail.getByRole("link", { name: "Demo e-mails" }).waitFor();
+      expect(await rail.getByRole("link").allInnerTexts()).toEqual([
+        "Sites",
+        "Committee",
+        "People",
+        "Checklists",
+        "Demo e-mails",
+        "Account",
+      ]);
+      const shots = process.env.LINTEL_SHOTS_DIR;
+      if (shots) await page.screenshot({ path: path.join(shots, "admin-wide-rail.png") });
+    } finally {
+      await context.close();
+    }
+  });
 });
