@@ -1,11 +1,12 @@
-import { can } from "@shared/permissions";
+import { can, type Permission } from "@shared/permissions";
 import type { RoleGrant } from "@shared/roles";
-import { useMemo } from "react";
+import { type ReactNode, useMemo } from "react";
 
 import type { NavigationItem } from "@/components/layouts/navigation";
 import {
   AccountIcon,
   ActionsIcon,
+  AdminIcon,
   ChecklistIcon,
   CommitteeIcon,
   MailIcon,
@@ -15,6 +16,59 @@ import {
 import { paths } from "@/config/paths";
 import { useAppConfig } from "@/features/admin/api/get-app-config";
 import { canAnywhere } from "@/lib/authorization";
+
+/** A page of the administrator's, listed on the Admin page and (some) in the side rail. */
+export interface AdminEntry {
+  label: string;
+  /** One line on the Admin page saying what the page is for. */
+  description: string;
+  to: string;
+  icon: ReactNode;
+  permission: Permission;
+  /** Also listed in the side rail on wide screens. */
+  onRail: boolean;
+  alsoActiveOn?: readonly string[];
+}
+
+/** The administrator's rarer pages: one "Admin" entry in the phone's bar, listed in the rail. */
+export const adminEntries: readonly AdminEntry[] = [
+  {
+    label: "People",
+    description: "Invite colleagues, give and take away roles, deactivate accounts.",
+    to: paths.people.getHref(),
+    icon: <PeopleIcon />,
+    permission: "manage:people:site",
+    onRail: true,
+    alsoActiveOn: [paths.undeliveredMail.path],
+  },
+  {
+    label: "Checklists",
+    description: "The questions each kind of space is audited against, and their revisions.",
+    to: paths.checklists.getHref(),
+    icon: <ChecklistIcon />,
+    permission: "manage:checklists:network",
+    onRail: true,
+  },
+  {
+    label: "Undelivered mail",
+    description: "E-mail that may not have arrived, to send again.",
+    to: paths.undeliveredMail.getHref(),
+    icon: <MailIcon />,
+    permission: "resend:mail:network",
+    onRail: false,
+  },
+  // Last: it shows once the installation has said whether it keeps demo mail.
+  {
+    label: "Demo e-mails",
+    description: "The e-mails this demo installation has sent, as people receive them.",
+    to: paths.mailbox.getHref(),
+    icon: <MailIcon />,
+    permission: "read:dev-mailbox:network",
+    onRail: true,
+  },
+];
+
+const adminPaths = [paths.admin.path, ...adminEntries.map((entry) => entry.to)];
 
 /** The main entries; give one a `permission` to hide it from roles that cannot use it. */
 export const navigationItems: readonly NavigationItem[] = [
@@ -40,26 +94,34 @@ export const navigationItems: readonly NavigationItem[] = [
     alsoActiveOn: [paths.action.path],
   },
   {
-    label: "People",
-    to: paths.people.getHref(),
-    icon: <PeopleIcon />,
+    label: "Admin",
+    to: paths.admin.getHref(),
+    icon: <AdminIcon />,
+    // Every administrator may manage people; the other admin pages need more of the same role.
     permission: "manage:people:site",
-    alsoActiveOn: [paths.undeliveredMail.path],
+    only: "phone",
+    end: true,
+    alsoActiveOn: adminPaths,
   },
-  {
-    label: "Checklists",
-    to: paths.checklists.getHref(),
-    icon: <ChecklistIcon />,
-    permission: "manage:checklists:network",
-  },
-  {
-    label: "Demo e-mails",
-    to: paths.mailbox.getHref(),
-    icon: <MailIcon />,
-    permission: "read:dev-mailbox:network",
-  },
+  ...adminEntries
+    .filter((entry) => entry.onRail)
+    .map((entry): NavigationItem => ({
+      label: entry.label,
+      to: entry.to,
+      icon: entry.icon,
+      permission: entry.permission,
+      only: "rail",
+      alsoActiveOn: entry.alsoActiveOn,
+    })),
   { label: "Account", to: paths.account.getHref(), icon: <AccountIcon /> },
 ];
+
+/** Whether the local mail catcher runs here, asked only when the person could read it at all. */
+function useDemoMailbox(grants: readonly RoleGrant[]): boolean {
+  const mayReadMailbox = canAnywhere(grants, "read:dev-mailbox:network");
+  const appConfig = useAppConfig({ enabled: mayReadMailbox });
+  return mayReadMailbox && appConfig.data?.demoMailbox === true;
+}
 
 /**
  * The entries for this person. The demo e-mails exist only where the local mail catcher runs, so
@@ -68,9 +130,7 @@ export const navigationItems: readonly NavigationItem[] = [
  * (committee members, administrators); anyone else may still open it for their own sites.
  */
 export function useNavigationItems(grants: readonly RoleGrant[]): readonly NavigationItem[] {
-  const mayReadMailbox = canAnywhere(grants, "read:dev-mailbox:network");
-  const appConfig = useAppConfig({ enabled: mayReadMailbox });
-  const demoMailbox = mayReadMailbox && appConfig.data?.demoMailbox === true;
+  const demoMailbox = useDemoMailbox(grants);
   const readsNetwork = readsEverySite(grants);
   return useMemo(
     () =>
@@ -80,6 +140,20 @@ export function useNavigationItems(grants: readonly RoleGrant[]): readonly Navig
           (readsNetwork || item.to !== paths.committee.getHref()),
       ),
     [demoMailbox, readsNetwork],
+  );
+}
+
+/** The admin pages this person's roles reach, for the Admin page. */
+export function useAdminEntries(grants: readonly RoleGrant[]): readonly AdminEntry[] {
+  const demoMailbox = useDemoMailbox(grants);
+  return useMemo(
+    () =>
+      adminEntries.filter(
+        (entry) =>
+          canAnywhere(grants, entry.permission) &&
+          (demoMailbox || entry.to !== paths.mailbox.getHref()),
+      ),
+    [grants, demoMailbox],
   );
 }
 

@@ -153,6 +153,14 @@ export function createRoutes(queryClient: QueryClient): RouteObject[] {
               },
             },
             {
+              path: paths.admin.path,
+              errorElement: <RouteError />,
+              lazy: async () => {
+                const { AdminRoute, adminLoader } = await import("./routes/admin");
+                return { Component: AdminRoute, loader: adminLoader(queryClient) };
+              },
+            },
+            {
               path: paths.checklists.path,
               errorElement: <RouteError />,
               lazy: async () => {

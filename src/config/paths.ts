@@ -77,6 +77,10 @@ export const paths = {
     getHref: (siteId: string, search?: URLSearchParams | string) =>
       withSearch(`/committee/sites/${encodeURIComponent(siteId)}`, search),
   },
+  admin: {
+    path: "/admin",
+    getHref: () => "/admin",
+  },
   checklists: {
     path: "/admin/checklists",
     getHref: () => "/admin/checklists",

@@ -53,15 +53,17 @@ describe("who sees people and the mailbox", () => {
     expect(calls.some((call) => call.path === "/api/app-config")).toBe(false);
   });
 
-  it("when a network administrator is signed in where the local mail catcher runs, then People and Demo e-mails are shown", async () => {
+  it("when a network administrator is signed in where the local mail catcher runs, then Admin (on phones) and People and Demo e-mails (in the side rail) are shown, and the Admin page lists them", async () => {
     stubApi(signedInAsAdministrator());
-    renderApp("/");
+    const { user } = renderApp("/");
 
     await screen.findByRole("heading", { level: 1, name: "My sites" });
+    // Admin shows only in the phone's bar, the pages behind it only in the side rail (by CSS).
     await vi.waitFor(() =>
       expect(navigationLinks()).toEqual([
         "Sites",
         "Committee",
+        "Admin",
         "People",
         "Checklists",
         "Demo e-mails",
@@ -69,6 +71,18 @@ describe("who sees people and the mailbox", () => {
       ]),
     );
     expect(screen.getByRole("link", { name: "People" }).getAttribute("href")).toBe("/admin/people");
+
+    await user.click(screen.getByRole("link", { name: "Admin" }));
+    await screen.findByRole("heading", { level: 1, name: "Admin" });
+    const main = within(screen.getByRole("main"));
+    await vi.waitFor(() =>
+      expect(main.getAllByRole("link").map((link) => link.textContent)).toEqual([
+        expect.stringMatching(/^People/),
+        expect.stringMatching(/^Checklists/),
+        expect.stringMatching(/^Undelivered mail/),
+        expect.stringMatching(/^Demo e-mails/),
+      ]),
+    );
   });
 
   it("when the local mail catcher does not run, then the administrator sees People but no Demo e-mails", async () => {
@@ -77,7 +91,14 @@ describe("who sees people and the mailbox", () => {
 
     await screen.findByRole("heading", { level: 1, name: "My sites" });
     await vi.waitFor(() =>
-      expect(navigationLinks()).toEqual(["Sites", "Committee", "People", "Checklists", "Account"]),
+      expect(navigationLinks()).toEqual([
+        "Sites",
+        "Committee",
+        "Admin",
+        "People",
+        "Checklists",
+        "Account",
+      ]),
     );
   });
 

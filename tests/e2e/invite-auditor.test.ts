@@ -22,7 +22,10 @@ describe("inviting an auditor on a phone (390×844)", () => {
     const admin = await phonePage(browser);
     await signInHome(admin.page, "admin@example.org", "lintel-demo-2026");
 
-    await admin.page.getByRole("link", { name: "People" }).last().click();
+    // On a phone the administrator's pages gather under one entry of the bottom bar.
+    await admin.page.getByRole("link", { name: "Admin" }).click();
+    await admin.page.getByRole("heading", { level: 1, name: "Admin" }).waitFor();
+    await admin.page.getByRole("link", { name: "People" }).click();
     await admin.page.getByRole("heading", { level: 1, name: "People" }).waitFor();
     await admin.page.getByRole("link", { name: "Invite someone" }).click();
     await admin.page.getByRole("heading", { level: 1, name: "Invite someone" }).waitFor();

@@ -1,7 +1,7 @@
 import { readdirSync, readFileSync } from "node:fs";
 import path from "node:path";
 
-import { chromium, type Browser, type Page } from "playwright-core";
+import { chromium, type Browser, type BrowserContext, type Page } from "playwright-core";
 
 import type { MailboxMessage } from "@shared/schemas/people";
 
@@ -18,21 +18,36 @@ export async function launchBrowser(): Promise<Browser> {
   return chromium.launch({ executablePath: process.env.LINTEL_E2E_CHROMIUM, args: chromiumArgs });
 }
 
-/** A phone-sized page (390×844) that fails the test on any console error or failed request. */
-export async function phonePage(browser: Browser): Promise<{ page: Page; problems: string[] }> {
+/**
+ * A phone's browser (390×844 unless told) that notes every console error and page error in
+ * `problems`; `signedInAs` hands over the cookies of another context, so one sign-in serves both.
+ */
+export async function phoneContext(
+  browser: Browser,
+  viewport: { width: number; height: number } = { width: 390, height: 844 },
+  problems: string[] = [],
+  signedInAs: BrowserContext | null = null,
+): Promise<BrowserContext> {
   const context = await browser.newContext({
-    viewport: { width: 390, height: 844 },
+    viewport,
     deviceScaleFactor: 2,
     isMobile: true,
     hasTouch: true,
+    storageState: signedInAs ? await signedInAs.storageState() : undefined,
   });
-  const page = await context.newPage();
-  const problems: string[] = [];
-  page.on("console", (message) => {
+  context.on("console", (message) => {
     if (message.type() === "error" && !/status of 401/.test(message.text()))
       problems.push(message.text());
   });
-  page.on("pageerror", (error) => problems.push(error.message));
+  context.on("weberror", (error) => problems.push(error.error().message));
+  return context;
+}
+
+/** A phone-sized page (390×844) that fails the test on any console error or failed request. */
+export async function phonePage(browser: Browser): Promise<{ page: Page; problems: string[] }> {
+  const problems: string[] = [];
+  const context = await phoneContext(browser, undefined, problems);
+  const page = await context.newPage();
   return { page, problems };
 }
 

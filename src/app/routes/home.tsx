@@ -4,16 +4,22 @@ import { Link, useLocation } from "react-router-dom";
 import { Alert } from "@/components/ui/alert";
 
 import { buttonStyles } from "@/components/ui/button";
+import { PageSkeleton } from "@/components/ui/skeleton";
 import { paths } from "@/config/paths";
-
+import { myActionsQueryOptions } from "@/features/actions/api/get-my-actions";
+import { myChecksQueryOptions } from "@/features/actions/api/get-my-checks";
 import { ActionsToCheck } from "@/features/actions/components/actions-to-check";
 import { MyActions } from "@/features/actions/components/my-actions";
+import { undeliveredMailQueryOptions } from "@/features/admin/api/get-undelivered-mail";
 import { UndeliveredMailNotice } from "@/features/admin/components/undelivered-mail-notice";
+import { retiredSitesQueryOptions } from "@/features/sites/api/get-retired-sites";
 import { sitesQueryOptions } from "@/features/sites/api/get-sites";
 import { RetiredSites } from "@/features/sites/components/retired-sites";
 import { SitesList } from "@/features/sites/components/sites-list";
+import { myDueQueryOptions } from "@/features/walkthroughs/api/get-my-due";
 import { MyDueAudits } from "@/features/walkthroughs/components/my-due-audits";
 import { useAuthorization } from "@/lib/authorization";
+import { useSettled } from "@/lib/use-settled";
 
 import { isSignedIn } from "../session";
 import { useSignedInPerson } from "./protected-layout";
@@ -33,6 +39,20 @@ export function HomeRoute() {
   const me = useSignedInPerson();
   const { can, canAnywhere } = useAuthorization();
   const notice = (useLocation().state as { notice?: string } | null)?.notice;
+  const mayResend = can("resend:mail:network");
+  const mayWork = canAnywhere("work:action:site");
+  const mayVerify = canAnywhere("verify:action:site");
+  const mayAudit = canAnywhere("conduct:audit:site");
+  const mayCreate = can("create:site:network");
+  // The lists below arrive one by one; shown together, none pushes another down the screen.
+  const settled = useSettled([
+    mayResend && undeliveredMailQueryOptions(),
+    mayWork && myActionsQueryOptions(),
+    mayVerify && myChecksQueryOptions(),
+    mayAudit && myDueQueryOptions(),
+    sitesQueryOptions(),
+    mayCreate && retiredSitesQueryOptions(),
+  ]);
   return (
     <>
       <title>My sites · Lintel</title>
@@ -43,7 +63,7 @@ export function HomeRoute() {
             Hello {firstName(me.user.name)}. These are the sites where you hold a role.
           </p>
         </div>
-        {can("create:site:network") ? (
+        {mayCreate ? (
           <Link to={paths.newSite.getHref()} className={buttonStyles()}>
             Add a site
           </Link>
@@ -54,18 +74,20 @@ export function HomeRoute() {
           {notice}
         </Alert>
       ) : null}
-      {can("resend:mail:network") ? (
-        <UndeliveredMailNotice href={paths.undeliveredMail.getHref()} />
-      ) : null}
-      {canAnywhere("work:action:site") ? <MyActions actionHref={paths.action.getHref} /> : null}
-      {canAnywhere("verify:action:site") ? (
-        <ActionsToCheck actionHref={paths.action.getHref} />
-      ) : null}
-      {canAnywhere("conduct:audit:site") ? (
-        <MyDueAudits startHref={(spaceId) => paths.startAudit.getHref(spaceId)} />
-      ) : null}
-      <SitesList />
-      {can("create:site:network") ? <RetiredSites /> : null}
+      {settled ? (
+        <>
+          {mayResend ? <UndeliveredMailNotice href={paths.undeliveredMail.getHref()} /> : null}
+          {mayWork ? <MyActions actionHref={paths.action.getHref} /> : null}
+          {mayVerify ? <ActionsToCheck actionHref={paths.action.getHref} /> : null}
+          {mayAudit ? (
+            <MyDueAudits startHref={(spaceId) => paths.startAudit.getHref(spaceId)} />
+          ) : null}
+          <SitesList />
+          {mayCreate ? <RetiredSites /> : null}
+        </>
+      ) : (
+        <PageSkeleton label="Loading your sites…" />
+      )}
     </>
   );
 }

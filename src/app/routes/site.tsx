@@ -7,12 +7,13 @@ import { Alert } from "@/components/ui/alert";
 import { Button, buttonStyles } from "@/components/ui/button";
 import { CautionNote } from "@/components/ui/caution-note";
 import { EmptyState } from "@/components/ui/empty-state";
-import { Spinner } from "@/components/ui/spinner";
+import { PageSkeleton } from "@/components/ui/skeleton";
 import { TextLink } from "@/components/ui/text-link";
 import { paths } from "@/config/paths";
 import { siteActionsQueryOptions } from "@/features/actions/api/get-site-actions";
 import { SiteActionsSummary } from "@/features/actions/components/site-actions-summary";
 import { floorsQueryOptions } from "@/features/floor-plans/api/get-floors";
+import { retiredPlacesQueryOptions } from "@/features/floor-plans/api/get-retired-places";
 import { FloorsSection } from "@/features/floor-plans/components/floors-section";
 import { RetiredPlacesSection } from "@/features/floor-plans/components/retired-places-section";
 import { siteQueryOptions, useSite } from "@/features/sites/api/get-site";
@@ -21,6 +22,7 @@ import { siteScheduleQueryOptions } from "@/features/walkthroughs/api/get-site-s
 import { DueSection } from "@/features/walkthroughs/components/due-list";
 import { isApiError } from "@/lib/api-client";
 import { useAuthorization } from "@/lib/authorization";
+import { useSettled } from "@/lib/use-settled";
 
 import { isSignedIn } from "../session";
 import { useSignedInPerson } from "./protected-layout";
@@ -60,8 +62,17 @@ function SiteOverview({ siteId }: { siteId: string }) {
   const site = useSite(siteId);
   const canEdit = can("update:site:site", siteId);
   const notice = (useLocation().state as { notice?: string } | null)?.notice;
+  // Each section loads on its own; shown together, none pushes the next down the screen.
+  const settled = useSettled([
+    siteQueryOptions(siteId),
+    siteScheduleQueryOptions(siteId),
+    floorsQueryOptions(siteId),
+    siteActionsQueryOptions(siteId, { state: "unfinished" }),
+    canEdit && retiredPlacesQueryOptions(siteId),
+  ]);
 
-  if (site.isPending) return <Spinner label="Loading site…" className="py-8" />;
+  if (site.isPending || (site.isSuccess && !settled))
+    return <PageSkeleton label="Loading site…" blocks={[2.5, 12, 9, 14]} />;
   if (site.isError) {
     if (isApiError(site.error) && site.error.status === 404) return <SiteNotFound />;
     return (

@@ -15,6 +15,11 @@ export interface NavigationItem {
   end?: boolean;
   /** Further path patterns that count as this entry, e.g. a site page for "Sites". */
   alsoActiveOn?: readonly string[];
+  /**
+   * Only in the phone's bottom bar, or only in the side rail: the bar holds five entries at most,
+   * so rarer pages gather behind one entry there while the rail, which has room, lists them.
+   */
+  only?: "phone" | "rail";
 }
 
 function isCurrent(item: NavigationItem, pathname: string): boolean {
@@ -49,7 +54,14 @@ export function Navigation({ items, className }: NavigationProps) {
         {visible.map((item) => {
           const current = isCurrent(item, pathname);
           return (
-            <li key={item.to} className="min-w-0 flex-1 md:flex-none">
+            <li
+              key={item.to}
+              className={cn(
+                "min-w-0 flex-1 md:flex-none",
+                item.only === "phone" && "md:hidden",
+                item.only === "rail" && "hidden md:block",
+              )}
+            >
               <Link
                 to={item.to}
                 aria-current={current ? "page" : undefined}

@@ -148,3 +148,15 @@ export function CommitteeIcon({ className }: IconProps) {
     </OutlineIcon>
   );
 }
+
+/** Three sliders: the administrator's pages (people, checklists, mail) gathered in one place. */
+export function AdminIcon({ className }: IconProps) {
+  return (
+    <OutlineIcon className={className}>
+      <path d="M4 6.5h9M17 6.5h3M4 12h3M11 12h9M4 17.5h11M19 17.5h1" />
+      <circle cx="15" cy="6.5" r="2" />
+      <circle cx="9" cy="12" r="2" />
+      <circle cx="17" cy="17.5" r="2" />
+    </OutlineIcon>
+  );
+}

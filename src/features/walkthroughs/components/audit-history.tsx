@@ -8,6 +8,7 @@ import { Button } from "@/components/ui/button";
 import { Card } from "@/components/ui/card";
 import { CautionNote } from "@/components/ui/caution-note";
 import { EmptyState } from "@/components/ui/empty-state";
+import { PageSkeleton } from "@/components/ui/skeleton";
 import { Spinner } from "@/components/ui/spinner";
 import { VerdictBadge } from "@/components/ui/verdict-badge";
 import { isApiError } from "@/lib/api-client";
@@ -77,6 +78,10 @@ export function AuditHistory({ spaceId, auditHref, startAction, backLink }: Audi
       />
     );
   }
+
+  // The heading, the start button and the list all wait on the audits: drawn once, nothing moves.
+  if (audits.isPending && onPhone.length === 0)
+    return <PageSkeleton label="Loading audits…" blocks={[3.5, 16]} />;
 
   return (
     <>
