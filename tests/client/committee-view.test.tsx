@@ -1,8 +1,9 @@
-import { fireEvent, screen, waitFor, within } from "@testing-library/react";
+import { act, fireEvent, screen, waitFor, within } from "@testing-library/react";
 import { afterEach, describe, expect, it, vi } from "vitest";
 
 import { committeeMember } from "./support/action-data";
 import {
+  administrator,
   auditor,
   errorResponse,
   jsonResponse,
@@ -405,5 +406,44 @@ describe("the committee downloads", () => {
     expect(alert.textContent).toContain("Could not download the comparison (CSV)");
     expect(alert.textContent).toContain("At most 36 months at a time.");
     expect(saved).toEqual([]);
+  });
+});
+
+describe("leaving the committee view while it loads", () => {
+  it("when the person moves to another page before the comparison arrives, then the comparison's default pair does not pull them back", async () => {
+    let sendComparison: () => void = () => {};
+    const comparisonSent = new Promise<void>((resolve) => (sendComparison = resolve));
+    let sendConfig: () => void = () => {};
+    const configSent = new Promise<void>((resolve) => (sendConfig = resolve));
+    const { fetchStub } = stubApi({
+      "GET /api/auth/me": () => jsonResponse(administrator),
+      "GET /api/committee/comparison": async () => {
+        await comparisonSent;
+        return jsonResponse(buildComparison());
+      },
+      "GET /api/committee/trends": () => jsonResponse(buildTrends()),
+      "GET /api/app-config": async () => {
+        await configSent;
+        return jsonResponse({ demoMailbox: false });
+      },
+    });
+    const { router } = renderApp(`/committee?${period}`);
+    await screen.findByRole("heading", { level: 1, name: "Committee view" });
+    await waitFor(() => expect(requested(fetchStub, "/api/committee/comparison")).toHaveLength(1));
+
+    // The next page waits for its settings; meanwhile the comparison arrives.
+    void router.navigate("/admin/mail");
+    await waitFor(() => expect(router.state.navigation.state).toBe("loading"));
+    // The page has drawn the move under way (as a phone would have, long before a slow reply).
+    await act(async () => {});
+    sendComparison();
+    await screen.findByRole("table", { name: "Readiness by site" });
+    sendConfig();
+
+    await waitFor(() => expect(router.state.navigation.state).toBe("idle"));
+    expect(router.state.location.pathname).toBe("/admin/mail");
+    await waitFor(() =>
+      expect(screen.queryByRole("heading", { level: 1, name: "Committee view" })).toBeNull(),
+    );
   });
 });

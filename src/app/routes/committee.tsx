@@ -1,6 +1,6 @@
 import type { QueryClient } from "@tanstack/react-query";
-import { useCallback, useMemo } from "react";
-import { type LoaderFunctionArgs, useSearchParams } from "react-router-dom";
+import { useCallback, useEffect, useMemo, useRef } from "react";
+import { type LoaderFunctionArgs, useNavigation, useSearchParams } from "react-router-dom";
 
 import { comparisonQueryOptions } from "@/features/committee/api/get-comparison";
 import { trendsQueryOptions } from "@/features/committee/api/get-trends";
@@ -30,12 +30,21 @@ export function committeeLoader(queryClient: QueryClient) {
 export function CommitteeRoute() {
   const [search, setSearch] = useSearchParams();
   const view = useMemo(() => viewFromSearch(search), [search]);
+  // A move to another page may be under way when the comparison arrives; writing the default
+  // pair into the address then would cancel that move and pull the person back here.
+  const navigationState = useNavigation().state;
+  const moving = useRef(false);
+  useEffect(() => {
+    moving.current = navigationState !== "idle";
+  }, [navigationState]);
   // Merged into the address as it is now, not as this render saw it, so quick changes add up.
   const changeView = useCallback(
-    (change: Partial<CommitteeView>, options?: { replace?: boolean }) =>
+    (change: Partial<CommitteeView>, options?: { replace?: boolean }) => {
+      if (options?.replace && moving.current) return;
       setSearch((current) => viewToSearch({ ...viewFromSearch(current), ...change }), {
         replace: options?.replace ?? false,
-      }),
+      });
+    },
     [setSearch],
   );
   return (
