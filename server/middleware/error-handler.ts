@@ -37,8 +37,19 @@ export const apiNotFound: RequestHandler = (req, _res, next) => {
   next(new AppError("not_found", 404, `There is no API route ${req.method} ${req.originalUrl}.`));
 };
 
+/** The client closed the connection before the reply ended (a phone moving to another page). */
+function clientLeft(err: unknown, res: { headersSent: boolean; destroyed: boolean }): boolean {
+  const code = (err as { code?: unknown } | null)?.code;
+  return res.destroyed && (code === "ERR_STREAM_PREMATURE_CLOSE" || res.headersSent);
+}
+
 /** The last middleware: every error leaves as the one envelope; no stack traces to clients. */
 export const errorHandler: ErrorRequestHandler = (err, req, res, _next) => {
+  // Nobody is left to answer, and a person moving on is not a fault of the server.
+  if (clientLeft(err, res)) {
+    req.log.info("the client left before the reply ended");
+    return;
+  }
   const known =
     err instanceof AppError
       ? err
