@@ -3,11 +3,23 @@ import { fileURLToPath } from "node:url";
 import tailwindcss from "@tailwindcss/vite";
 import react from "@vitejs/plugin-react";
 import { defineConfig } from "vite";
+import { compression } from "vite-plugin-compression2";
 
 const here = (path: string) => fileURLToPath(new URL(path, import.meta.url));
 
 export default defineConfig({
-  plugins: [react(), tailwindcss()],
+  plugins: [
+    react(),
+    tailwindcss(),
+    // Brotli and gzip copies beside each built file; the server sends the best one the browser
+    // accepts (server/middleware/client-files.ts). Source maps stay uncompressed: only tools read them.
+    compression({
+      algorithms: ["brotliCompress", "gzip"],
+      include: /\.(html|css|js|mjs|json|svg|webmanifest|txt)$/,
+      exclude: [/\.map$/, /(^|\/)\.vite\//],
+      threshold: 512,
+    }),
+  ],
   resolve: {
     alias: {
       "@/": here("./src/"),

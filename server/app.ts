@@ -9,6 +9,8 @@ import { pinoHttp } from "pino-http";
 import { apiNotFound, errorHandler } from "./middleware/error-handler";
 import { requireSameOrigin } from "./middleware/same-origin";
 import { loadSession } from "./middleware/session";
+import { compressApiReplies } from "./middleware/api-compression";
+import { serveClientFiles } from "./middleware/client-files";
 import { mountRoutes, type AppDeps } from "./lib/routes";
 import { apiRoutes } from "./routes";
 
@@ -61,6 +63,7 @@ export function createApp(deps: AppDeps): express.Express {
   );
 
   const api = express.Router();
+  api.use(compressApiReplies());
   api.use(express.json({ limit: "100kb" }));
   api.use(requireSameOrigin(env.publicUrl));
   api.use((_req, res, next) => {
@@ -74,10 +77,7 @@ export function createApp(deps: AppDeps): express.Express {
 
   const clientDir = env.LINTEL_CLIENT_DIR;
   if (clientDir && existsSync(path.join(clientDir, "index.html"))) {
-    app.use(express.static(clientDir, { index: false, maxAge: "1h" }));
-    app.get("/{*splat}", (_req, res) => {
-      res.set("Cache-Control", "no-store").sendFile(path.join(clientDir, "index.html"));
-    });
+    serveClientFiles(app, clientDir);
   }
 
   app.use(errorHandler);
