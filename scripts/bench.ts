@@ -14,6 +14,7 @@ import { prepareCluster } from "./lib/postgres";
 import { freePort } from "./lib/process";
 import { benchCommittee } from "./bench-committee";
 import { clientBundleReport } from "./lib/bundle-size";
+import { fixedCostLine, measureFixedCost } from "./lib/fixed-cost";
 
 /**
  * `npm run bench`: numbers, not assertions. API latency and throughput against a throwaway
@@ -123,6 +124,9 @@ async function main() {
     await measure("GET /api/auth/me", requests, 50, get("/api/auth/me"));
     await measure("GET /api/sites", requests, 50, get("/api/sites"));
     await measure("POST /api/auth/sign-in (argon2id)", 40, 2, () => timed(signIn, "sign-in"));
+    console.log(
+      `\n${fixedCostLine(await measureFixedCost(origin, cookie, Number(process.env.BENCH_FIXED_COST_REQUESTS ?? 2000)))}\n`,
+    );
 
     // Audit submission: 25-item checklist, answers saved beforehand, only the submit is timed.
     const sites = (await (await fetch(`${origin}/api/sites`, { headers })).json()) as {

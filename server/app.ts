@@ -63,13 +63,15 @@ export function createApp(deps: AppDeps): express.Express {
   );
 
   const api = express.Router();
-  api.use(compressApiReplies());
-  api.use(express.json({ limit: "100kb" }));
-  api.use(requireSameOrigin(env.publicUrl));
+  // First, so every API reply — refusals and parse errors included — stays out of the browser's
+  // caches; the one route that may be cached (an image's bytes) sets its own header over this.
   api.use((_req, res, next) => {
     res.set("Cache-Control", "no-store");
     next();
   });
+  api.use(compressApiReplies());
+  api.use(express.json({ limit: "100kb" }));
+  api.use(requireSameOrigin(env.publicUrl));
   api.use(loadSession(deps));
   mountRoutes(api, apiRoutes, deps);
   api.use(apiNotFound);

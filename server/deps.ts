@@ -6,7 +6,6 @@ import type { DatabaseHandle } from "./db/client";
 import type { Env } from "./env";
 import type { AppDeps } from "./lib/routes";
 import type { Storage } from "./lib/storage";
-import { loadGrants } from "./modules/auth/auth.service";
 import { siteIdIfExists } from "./modules/sites/sites.service";
 
 /** Wires the app's collaborators from configuration and a database handle. */
@@ -39,7 +38,6 @@ export function buildDeps(
     storage,
     siteInNetwork: async (siteId, networkId) =>
       (await siteIdIfExists(database.db, networkId, siteId)) !== null,
-    loadGrants: (userId) => loadGrants(database, userId),
     notifyOutbox,
     mailCatcherDir: options.mailCatcherDir ?? null,
   };

@@ -1,12 +1,14 @@
 import { randomUUID } from "node:crypto";
 
 import { DrizzlePostgreSQLAdapter } from "@lucia-auth/adapter-drizzle";
-import { Lucia, TimeSpan } from "lucia";
+import { eq, sql } from "drizzle-orm";
+import { Lucia, TimeSpan, type Adapter, type DatabaseSession, type DatabaseUser } from "lucia";
 
+import type { RoleGrant } from "@shared/roles";
 import { uuidSchema } from "@shared/schemas/common";
 
 import type { Database } from "../db/client";
-import { sessions, users } from "../db/schema/index";
+import { roleGrants, sessions, users } from "../db/schema/index";
 
 // All session handling lives in this module, so the session library can be swapped in one place.
 
@@ -15,11 +17,69 @@ interface UserAttributes {
   displayName: string;
   networkId: string;
   deactivatedAt: Date | null;
+  /** Read with the session, in the same query, so a removed grant counts on the next request. */
+  grants: RoleGrant[];
+}
+
+/**
+ * The session library's store, with the one read every signed-in request makes done in a single
+ * round trip: the session, its person and the person's grants, joined in one prepared statement.
+ * Nothing is cached between requests, so a deactivation, a removed grant or an ended session
+ * counts on the very next request. Writes (new session, extension, sign-out) go through the
+ * library's own Drizzle adapter.
+ */
+function sessionAdapter(db: Database): Adapter {
+  const writes = new DrizzlePostgreSQLAdapter(db, sessions, users);
+  const grants = sql<RoleGrant[]>`coalesce((
+      select json_agg(json_build_object('role', ${roleGrants.role}, 'siteId', ${roleGrants.siteId})
+                      order by ${roleGrants.role}, ${roleGrants.siteId})
+        from ${roleGrants} where ${roleGrants.userId} = ${users.id}), '[]'::json)`;
+  const sessionWithPerson = db
+    .select({
+      sessionId: sessions.id,
+      expiresAt: sessions.expiresAt,
+      userId: users.id,
+      email: users.email,
+      displayName: users.displayName,
+      networkId: users.networkId,
+      deactivatedAt: users.deactivatedAt,
+      grants,
+    })
+    .from(sessions)
+    .innerJoin(users, eq(users.id, sessions.userId))
+    .where(eq(sessions.id, sql.placeholder("sessionId")))
+    .prepare("session_with_person_and_grants");
+
+  return {
+    async getSessionAndUser(sessionId): Promise<[DatabaseSession | null, DatabaseUser | null]> {
+      const [row] = await sessionWithPerson.execute({ sessionId });
+      if (!row) return [null, null];
+      return [
+        { id: row.sessionId, userId: row.userId, expiresAt: row.expiresAt, attributes: {} },
+        {
+          id: row.userId,
+          attributes: {
+            email: row.email,
+            displayName: row.displayName,
+            networkId: row.networkId,
+            deactivatedAt: row.deactivatedAt,
+            grants: row.grants,
+          },
+        },
+      ];
+    },
+    getUserSessions: (userId) => writes.getUserSessions(userId),
+    setSession: (session) => writes.setSession(session),
+    updateSessionExpiration: (sessionId, expiresAt) =>
+      writes.updateSessionExpiration(sessionId, expiresAt),
+    deleteSession: (sessionId) => writes.deleteSession(sessionId),
+    deleteUserSessions: (userId) => writes.deleteUserSessions(userId),
+    deleteExpiredSessions: () => writes.deleteExpiredSessions(),
+  };
 }
 
 function createLucia(db: Database, options: { days: number; secure: boolean }) {
-  const adapter = new DrizzlePostgreSQLAdapter(db, sessions, users);
-  return new Lucia(adapter, {
+  return new Lucia(sessionAdapter(db), {
     sessionExpiresIn: new TimeSpan(options.days, "d"),
     sessionCookie: {
       name: "lintel_session",
@@ -30,6 +90,7 @@ function createLucia(db: Database, options: { days: number; secure: boolean }) {
       name: row.displayName,
       networkId: row.networkId,
       deactivatedAt: row.deactivatedAt,
+      grants: row.grants,
     }),
   });
 }
@@ -51,6 +112,8 @@ export interface SessionUser {
 export interface SessionCheck {
   user: SessionUser | null;
   sessionId: string | null;
+  /** The person's grants as of this request (empty when no one is signed in). */
+  grants: RoleGrant[];
   /** A Set-Cookie value to send: a renewed cookie, or a blank one clearing a dead session. */
   setCookie: string | null;
 }
@@ -72,9 +135,13 @@ export function createSessionStore(db: Database, options: { days: number; secure
       };
     },
 
-    /** Reads the cookie; never throws for a malformed or stale cookie. */
+    /**
+     * Reads the cookie and, in one round trip, the session, the person and their grants; never
+     * throws for a malformed or stale cookie. A session past half its life is extended (one more
+     * write, then a renewed cookie); an expired one is deleted.
+     */
     async check(cookieHeader: string | undefined): Promise<SessionCheck> {
-      const none: SessionCheck = { user: null, sessionId: null, setCookie: null };
+      const none: SessionCheck = { user: null, sessionId: null, grants: [], setCookie: null };
       const sessionId = lucia.readSessionCookie(cookieHeader ?? "");
       if (!sessionId) return none;
       const blank = lucia.createBlankSessionCookie().serialize();
@@ -89,6 +156,7 @@ export function createSessionStore(db: Database, options: { days: number; secure
       return {
         user: { id: user.id, email: user.email, name: user.name, networkId: user.networkId },
         sessionId: session.id,
+        grants: user.grants,
         setCookie: session.fresh ? lucia.createSessionCookie(session.id).serialize() : null,
       };
     },

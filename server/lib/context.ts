@@ -22,8 +22,6 @@ export interface AppDeps {
   storage: Storage;
   /** Whether the site exists and belongs to the network (every site-scoped route asks this). */
   siteInNetwork: (siteId: string, networkId: string) => Promise<boolean>;
-  /** Loads a person's role grants; one query per request. */
-  loadGrants: (userId: string) => Promise<RoleGrant[]>;
   /** Tells the e-mail worker that new mail is waiting (after the transaction commits). */
   notifyOutbox: () => void;
   /**

@@ -2,7 +2,10 @@ import type { RequestHandler } from "express";
 
 import type { AppDeps, SignedIn } from "../lib/routes";
 
-/** Loads the person (or null) into res.locals.auth; never rejects a request by itself. */
+/**
+ * Loads the person and their grants (or null) into res.locals.auth, from the session check's one
+ * query; never rejects a request by itself.
+ */
 export function loadSession(deps: AppDeps): RequestHandler {
   return async (req, res, next) => {
     const check = await deps.sessions.check(req.headers.cookie);
@@ -11,7 +14,7 @@ export function loadSession(deps: AppDeps): RequestHandler {
       const auth: SignedIn = {
         user: check.user,
         sessionId: check.sessionId,
-        grants: await deps.loadGrants(check.user.id),
+        grants: check.grants,
       };
       res.locals.auth = auth;
     } else {

@@ -36,7 +36,7 @@ export async function signIn(
   };
 }
 
-/** The person's role grants, read on every signed-in request so revocations apply at once. */
+/** A person's role grants (a signed-in request reads its own with the session check). */
 export function loadGrants(deps: Pick<AppDeps, "db">, userId: string) {
   return listGrants(deps.db, userId);
 }

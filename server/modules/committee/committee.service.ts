@@ -56,8 +56,11 @@ export async function comparison(
     repo.readinessBySite(db, ids, query),
     repo.categoriesBySite(db, ids, query),
   ]);
+  // Looked up by key, not searched: 40 sites × 8 item groups over hundreds of rows adds up.
+  const readinessBySite = new Map(readiness.map((row) => [row.site_id, row]));
+  const categoryRows = new Map(categories.map((row) => [`${row.site_id} ${row.category}`, row]));
   const rows = sites.map((site) => {
-    const counts = readiness.find((row) => row.site_id === site.id);
+    const counts = readinessBySite.get(site.id);
     const audits = counts?.audits ?? 0;
     return {
       siteId: site.id,
@@ -69,7 +72,7 @@ export async function comparison(
         hold: counts?.hold ?? 0,
       },
       categories: itemCategories.flatMap((category) => {
-        const row = categories.find((c) => c.site_id === site.id && c.category === category);
+        const row = categoryRows.get(`${site.id} ${category}`);
         return row && row.applicable > 0
           ? [{ category, ...proportion(row.passed, row.applicable) }]
           : [];

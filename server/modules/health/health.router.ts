@@ -21,7 +21,7 @@ export const healthRoutes = [
           })
         );
       }
-      res.set("Cache-Control", "no-store").json({ status: "ok" });
+      res.json({ status: "ok" });
     },
   }),
 ];
