@@ -134,6 +134,15 @@ export const committeeRoutes = [
         "score",
       ];
       res.write(`${csvPreamble}${stringify([columns])}`);
+      // One lasting listener: a compressed reply moves listeners onto its own stream, where a
+      // `once` per full buffer would pile up for the length of a long export.
+      let writable: (() => void) | null = null;
+      const wake = () => {
+        writable?.();
+        writable = null;
+      };
+      res.on("drain", wake);
+      res.on("close", wake);
       await exportAuditRows(deps.db, ids, query, async (page) => {
         const chunk = stringify(
           page.map((row) =>
@@ -151,7 +160,10 @@ export const committeeRoutes = [
             ].map(asCell),
           ),
         );
-        if (!res.write(chunk)) await new Promise((resolve) => res.once("drain", resolve));
+        if (!res.write(chunk) && !res.destroyed)
+          await new Promise<void>((resolve) => {
+            writable = resolve;
+          });
       });
       res.end(cautionRow(columns.length));
     },

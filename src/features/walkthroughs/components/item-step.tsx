@@ -216,13 +216,26 @@ export function ItemStep({
     onSaveRef.current = onSave;
   }, [onSave]);
 
+  // A save flushed as the step closes settles after it is gone: only a shown step hears back.
+  const shown = useRef(true);
+  useEffect(() => {
+    shown.current = true;
+    return () => {
+      shown.current = false;
+    };
+  }, []);
+
   const save = useCallback((fields: AnswerFields) => {
     onSaveRef.current(fields).then(
-      () => setSaveProblem(null),
-      (error: unknown) =>
+      () => {
+        if (shown.current) setSaveProblem(null);
+      },
+      (error: unknown) => {
+        if (!shown.current) return;
         setSaveProblem(
           error instanceof Error ? error.message : "This answer could not be kept on the phone.",
-        ),
+        );
+      },
     );
   }, []);
 
