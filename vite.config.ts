@@ -5,12 +5,16 @@ import react from "@vitejs/plugin-react";
 import { defineConfig } from "vite";
 import { compression } from "vite-plugin-compression2";
 
+import { preloadFont } from "./scripts/lib/preload-font";
+
 const here = (path: string) => fileURLToPath(new URL(path, import.meta.url));
 
 export default defineConfig({
   plugins: [
     react(),
     tailwindcss(),
+    // The body text's weight; 600 and 700 follow when headings need them (all use font-display: swap).
+    preloadFont(/noto-sans-latin-400-normal-[\w-]+\.woff2$/),
     // Brotli and gzip copies beside each built file; the server sends the best one the browser
     // accepts (server/middleware/client-files.ts). Source maps stay uncompressed: only tools read them.
     compression({
