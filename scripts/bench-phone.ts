@@ -116,11 +116,15 @@ async function measurePage(
     let requests = 0;
     const inFlight = new Set<string>();
     let lastActivity = Date.now();
-    cdp.on("Network.requestWillBeSent", ({ requestId }) => {
+    const urls = new Map<string, string>();
+    cdp.on("Network.requestWillBeSent", ({ requestId, request }) => {
+      urls.set(requestId, request.url);
       inFlight.add(requestId);
       lastActivity = Date.now();
     });
     cdp.on("Network.loadingFinished", ({ requestId, encodedDataLength }) => {
+      if (process.env.BENCH_PHONE_TIMELINE)
+        console.log(`  ${urls.get(requestId)} ${encodedDataLength}`);
       if (inFlight.delete(requestId)) {
         bytes += encodedDataLength;
         requests += 1;

@@ -3,6 +3,8 @@ import { type ReactNode, useEffect } from "react";
 
 import { registerServiceWorker } from "@/lib/service-worker";
 
+import { UpdatePrompt } from "./update-prompt";
+
 export interface AppProviderProps {
   queryClient: QueryClient;
   children: ReactNode;
@@ -12,5 +14,10 @@ export function AppProvider({ queryClient, children }: AppProviderProps) {
   useEffect(() => {
     if (import.meta.env.PROD) registerServiceWorker();
   }, []);
-  return <QueryClientProvider client={queryClient}>{children}</QueryClientProvider>;
+  return (
+    <QueryClientProvider client={queryClient}>
+      {children}
+      <UpdatePrompt />
+    </QueryClientProvider>
+  );
 }
