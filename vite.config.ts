@@ -2,13 +2,45 @@ import { fileURLToPath } from "node:url";
 
 import tailwindcss from "@tailwindcss/vite";
 import react from "@vitejs/plugin-react";
-import { defineConfig } from "vite";
+import { defineConfig, type Plugin } from "vite";
 import { compression } from "vite-plugin-compression2";
 import { VitePWA } from "vite-plugin-pwa";
 
-import { preloadFont } from "./scripts/lib/preload-font";
-
 const here = (path: string) => fileURLToPath(new URL(path, import.meta.url));
+
+/**
+ * Adds `<link rel="preload" as="font">` for the built font file whose name matches `file`, so the
+ * phone asks for the body text's font with the page's first files instead of once the styles are
+ * applied. Only one weight: the others arrive as the text that uses them appears.
+ */
+function preloadFont(file: RegExp): Plugin {
+  return {
+    name: "lintel-preload-font",
+    apply: "build",
+    transformIndexHtml: {
+      order: "post",
+      handler(_html, context) {
+        const font = Object.values(context.bundle ?? {}).find(
+          (output) => output.type === "asset" && file.test(output.fileName),
+        );
+        if (!font) throw new Error(`No built font file matches ${file}: nothing to preload.`);
+        return [
+          {
+            tag: "link",
+            attrs: {
+              rel: "preload",
+              as: "font",
+              type: "font/woff2",
+              href: `/${font.fileName}`,
+              crossorigin: "",
+            },
+            injectTo: "head",
+          },
+        ];
+      },
+    },
+  };
+}
 
 export default defineConfig({
   plugins: [
@@ -22,6 +54,8 @@ export default defineConfig({
     // Nothing under /api/ is cached or answered by it: audit data lives in the page's own store.
     VitePWA({
       strategies: "generateSW",
+      // The same minified worker whatever NODE_ENV the build runs under (the tests build with "test").
+      mode: "production",
       registerType: "prompt",
       injectRegister: false,
       // public/manifest.webmanifest stays the one manifest, linked from index.html.

@@ -12,7 +12,9 @@ export interface AppProviderProps {
 
 export function AppProvider({ queryClient, children }: AppProviderProps) {
   useEffect(() => {
-    if (import.meta.env.PROD) registerServiceWorker();
+    // Built app only (the development server has no worker): by the build's mode, so the browser
+    // tests, which build with NODE_ENV=test, run the same worker as a phone does.
+    if (import.meta.env.MODE === "production") registerServiceWorker();
   }, []);
   return (
     <QueryClientProvider client={queryClient}>

@@ -18,12 +18,7 @@ export function UpdateBanner({ onReload, reloading = false }: UpdateBannerProps)
         className="pointer-events-auto flex w-full max-w-md items-center justify-between gap-3 rounded-xl bg-brand-900 px-4 py-3 text-white shadow-lg"
       >
         <p className="text-base font-semibold">A new version of Lintel is ready</p>
-        <Button
-          variant="secondary"
-          className="shrink-0"
-          onClick={onReload}
-          disabled={reloading}
-        >
+        <Button variant="secondary" className="shrink-0" onClick={onReload} disabled={reloading}>
           {reloading ? "Reloading…" : "Reload"}
         </Button>
       </div>
