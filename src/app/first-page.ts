@@ -9,8 +9,14 @@ const firstPages: [pattern: RegExp, load: () => Promise<unknown>][] = [
   [new RegExp(`^${paths.signIn.path}/?$`), () => import("./routes/sign-in")],
   [/^\/$/, () => import("./routes/home")],
   [
+    // A QR code's link: it starts the audit and moves on to the audit screen at once.
     /^\/spaces\/[^/]+\/audit\/?$/,
-    () => Promise.all([import("./routes/audit-layout"), import("./routes/start-audit")]),
+    () =>
+      Promise.all([
+        import("./routes/audit-layout"),
+        import("./routes/start-audit"),
+        import("./routes/audit"),
+      ]),
   ],
   [
     /^\/audits\/[^/]+\/?$/,
