@@ -48,6 +48,7 @@ describe("the service worker on a phone (390×844)", () => {
     const context = page.context();
     await signIn(page, "auditor@example.org", "lintel-demo-2026");
     await page.getByRole("heading", { level: 1, name: "My sites" }).waitFor();
+    if (shots) await page.screenshot({ path: path.join(shots, "home.png") });
     await page
       .getByRole("list", { name: "Sites" })
       .getByRole("link", { name: /Wexley Rehabilitation Centre/ })
