@@ -2,15 +2,78 @@ import { fileURLToPath } from "node:url";
 
 import tailwindcss from "@tailwindcss/vite";
 import react from "@vitejs/plugin-react";
-import { defineConfig } from "vite";
+import { defineConfig, type Plugin } from "vite";
 import { compression } from "vite-plugin-compression2";
+import { VitePWA } from "vite-plugin-pwa";
 
 const here = (path: string) => fileURLToPath(new URL(path, import.meta.url));
+
+/**
+ * Adds `<link rel="preload" as="font">` for the built font file whose name matches `file`, so the
+ * phone asks for the body text's font with the page's first files instead of once the styles are
+ * applied. Only one weight: the others arrive as the text that uses them appears.
+ */
+function preloadFont(file: RegExp): Plugin {
+  return {
+    name: "lintel-preload-font",
+    apply: "build",
+    transformIndexHtml: {
+      order: "post",
+      handler(_html, context) {
+        const font = Object.values(context.bundle ?? {}).find(
+          (output) => output.type === "asset" && file.test(output.fileName),
+        );
+        if (!font) throw new Error(`No built font file matches ${file}: nothing to preload.`);
+        return [
+          {
+            tag: "link",
+            attrs: {
+              rel: "preload",
+              as: "font",
+              type: "font/woff2",
+              href: `/${font.fileName}`,
+              crossorigin: "",
+            },
+            injectTo: "head",
+          },
+        ];
+      },
+    },
+  };
+}
 
 export default defineConfig({
   plugins: [
     react(),
     tailwindcss(),
+    // The body text's weight; 600 and 700 follow when headings need them (all use font-display: swap).
+    preloadFont(/noto-sans-latin-400-normal-[\w-]+\.woff2$/),
+    // The service worker (sw.js, with Workbox's runtime beside it): keeps the built shell on the
+    // phone so the app opens with no signal. The page registers it only once the first page is
+    // idle (src/lib/service-worker.ts), and a new version waits until the person taps "Reload".
+    // Nothing under /api/ is cached or answered by it: audit data lives in the page's own store.
+    VitePWA({
+      strategies: "generateSW",
+      // The same minified worker whatever NODE_ENV the build runs under (the tests build with "test").
+      mode: "production",
+      registerType: "prompt",
+      injectRegister: false,
+      // public/manifest.webmanifest stays the one manifest, linked from index.html.
+      manifest: false,
+      filename: "sw.js",
+      workbox: {
+        globPatterns: ["**/*.{html,js,css,woff2,svg,png,ico,webmanifest}"],
+        globIgnores: ["**/*.map", ".vite/**"],
+        navigateFallback: "/index.html",
+        navigateFallbackDenylist: [/^\/api\//],
+        runtimeCaching: [],
+        cleanupOutdatedCaches: true,
+        // The first worker takes the open page at once, so its later pages load offline too.
+        clientsClaim: true,
+        // Built files are named by content; Workbox need not add a revision to their addresses.
+        dontCacheBustURLsMatching: /^assets\//,
+      },
+    }),
     // Brotli and gzip copies beside each built file; the server sends the best one the browser
     // accepts (server/middleware/client-files.ts). Source maps stay uncompressed: only tools read them.
     compression({

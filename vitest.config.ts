@@ -1,6 +1,7 @@
 import { fileURLToPath } from "node:url";
 
 import react from "@vitejs/plugin-react";
+import { VitePWA } from "vite-plugin-pwa";
 import { defineConfig } from "vitest/config";
 
 const here = (path: string) => fileURLToPath(new URL(path, import.meta.url));
@@ -24,7 +25,9 @@ export default defineConfig({
         },
       },
       {
-        plugins: [react()],
+        // The PWA plugin provides `virtual:pwa-register`, which the app shell imports; the worker
+        // itself is tested built, in the browser project.
+        plugins: [react(), VitePWA({ injectRegister: false, manifest: false })],
         resolve: { alias },
         test: {
           name: "client",

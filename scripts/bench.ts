@@ -13,6 +13,7 @@ import { startServer } from "../server/server";
 import { prepareCluster } from "./lib/postgres";
 import { freePort } from "./lib/process";
 import { benchCommittee } from "./bench-committee";
+import { benchPhone } from "./bench-phone";
 import { clientBundleReport } from "./lib/bundle-size";
 import { fixedCostLine, measureFixedCost } from "./lib/fixed-cost";
 
@@ -248,6 +249,7 @@ async function main() {
 
     console.log("\nCommittee view at network scale:");
     await benchCommittee(cluster, s3.endpoint);
+    await benchPhone(cluster, s3.endpoint);
   } finally {
     await server.close();
     await s3.stop();

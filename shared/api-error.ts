@@ -1,5 +1,3 @@
-import { z } from "zod";
-
 /** Error codes every API error carries. Clients branch on the code, never on the message. */
 export const apiErrorCodes = [
   "bad_request",
@@ -19,13 +17,6 @@ export const apiErrorCodes = [
 ] as const;
 export type ApiErrorCode = (typeof apiErrorCodes)[number];
 
-/** The one error envelope: `{ error: { code, message, fields? } }`. */
-export const apiErrorEnvelopeSchema = z.object({
-  error: z.object({
-    code: z.string(),
-    message: z.string(),
-    /** Field name (dot-separated inside nested input, e.g. `email`, `grants.0.siteId`) → message. */
-    fields: z.record(z.string(), z.string()).optional(),
-  }),
-});
-export type ApiErrorEnvelope = z.infer<typeof apiErrorEnvelopeSchema>;
+// The one error envelope, `{ error: { code, message, fields? } }`: the app shell reads it on every
+// failed request, so it lives with the shell's small schemas.
+export { apiErrorEnvelopeSchema, type ApiErrorEnvelope } from "./schemas/shell";

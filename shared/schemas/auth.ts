@@ -1,7 +1,6 @@
 import { z } from "zod";
 
-import { roles } from "../roles";
-import { emailSchema, text, uuidSchema, responseText } from "./common";
+import { emailSchema, text } from "./common";
 
 export const signInBodySchema = z.strictObject({
   email: emailSchema,
@@ -11,13 +10,5 @@ export const signInBodySchema = z.strictObject({
 });
 export type SignInBody = z.infer<typeof signInBodySchema>;
 
-export const roleGrantSchema = z.object({
-  role: z.enum(roles),
-  siteId: uuidSchema.nullable(),
-});
-
-export const meResponseSchema = z.object({
-  user: z.object({ id: uuidSchema, email: responseText(), name: responseText() }),
-  roles: z.array(roleGrantSchema),
-});
-export type MeResponse = z.infer<typeof meResponseSchema>;
+// Read by the app shell before any page shows: kept in the small schemas the shell loads.
+export { meResponseSchema, roleGrantSchema, type MeResponse } from "./shell";

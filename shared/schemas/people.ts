@@ -110,11 +110,8 @@ export const changePasswordBodySchema = z.strictObject({
 });
 export type ChangePasswordBody = z.infer<typeof changePasswordBodySchema>;
 
-export const appConfigSchema = z.object({
-  /** The local mail catcher runs beside this app, so administrators can read its inbox. */
-  demoMailbox: z.boolean(),
-});
-export type AppConfig = z.infer<typeof appConfigSchema>;
+// Read by the app shell before any page shows: kept in the small schemas the shell loads.
+export { appConfigSchema, type AppConfig } from "./shell";
 
 export const mailboxMessageSchema = z.object({
   id: responseText(),

@@ -1,5 +1,6 @@
 import { createBrowserRouter, RouterProvider } from "react-router-dom";
 
+import { meQueryOptions } from "@/features/auth/api/get-me";
 import { createQueryClient } from "@/lib/query-client";
 
 import { AppProvider } from "./provider";
@@ -10,6 +11,9 @@ function createAppState() {
   const queryClient = createQueryClient({
     onUnauthenticated: () => sendToSignIn(router, queryClient),
   });
+  // Who is signed in decides what every page shows: ask at once, while the first page's own
+  // files are still on their way, rather than after they arrive.
+  void queryClient.prefetchQuery(meQueryOptions());
   const router: AppRouter = createBrowserRouter(createRoutes(queryClient));
   return { queryClient, router };
 }

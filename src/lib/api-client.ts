@@ -1,5 +1,7 @@
-import { type ApiErrorCode, apiErrorEnvelopeSchema } from "@shared/api-error";
-import type { z } from "zod";
+import type { ApiErrorCode } from "@shared/api-error";
+import { apiErrorEnvelopeSchema } from "@shared/schemas/shell";
+// The core's functions take the full and the small schemas alike, and weigh little in the shell.
+import { safeParse, type $ZodType, type output } from "zod/v4/core";
 
 /** Codes the client adds for failures that never reached the server or could not be read. */
 export type ClientErrorCode = "network_unavailable" | "unexpected_response";
@@ -41,7 +43,7 @@ export function isApiError(error: unknown): error is ApiError {
 
 type Method = "GET" | "POST" | "PUT" | "PATCH" | "DELETE";
 
-export interface ApiRequestOptions<TSchema extends z.ZodType | undefined> {
+export interface ApiRequestOptions<TSchema extends $ZodType | undefined> {
   method?: Method;
   /** Sent as JSON, or as multipart/form-data when it is a FormData (file uploads). */
   body?: unknown;
@@ -50,7 +52,7 @@ export interface ApiRequestOptions<TSchema extends z.ZodType | undefined> {
   signal?: AbortSignal;
 }
 
-type Reply<TSchema> = TSchema extends z.ZodType ? z.output<TSchema> : undefined;
+type Reply<TSchema> = TSchema extends $ZodType ? output<TSchema> : undefined;
 
 const fallbackMessages: Record<number, string> = {
   401: "Please sign in to continue.",
@@ -87,7 +89,7 @@ async function readJson(response: Response): Promise<unknown> {
 }
 
 function errorFromReply(response: Response, body: unknown): ApiError {
-  const envelope = apiErrorEnvelopeSchema.safeParse(body);
+  const envelope = safeParse(apiErrorEnvelopeSchema, body);
   const retryAfterSeconds = retryAfterOf(response);
   if (envelope.success) {
     return new ApiError({ status: response.status, ...envelope.data.error, retryAfterSeconds });
@@ -125,7 +127,7 @@ export async function fetchFromApi(path: string, init: RequestInit = {}): Promis
 }
 
 /** The one way the client talks to the API: same-origin, session cookie, envelope-aware. */
-export async function apiRequest<TSchema extends z.ZodType | undefined = undefined>(
+export async function apiRequest<TSchema extends $ZodType | undefined = undefined>(
   path: string,
   { method = "GET", body, schema, signal }: ApiRequestOptions<TSchema> = {},
 ): Promise<Reply<TSchema>> {
@@ -145,7 +147,7 @@ export async function apiRequest<TSchema extends z.ZodType | undefined = undefin
   if (!response.ok) throw errorFromReply(response, payload);
   if (schema === undefined) return undefined as Reply<TSchema>;
 
-  const parsed = schema.safeParse(payload);
+  const parsed = safeParse(schema, payload);
   if (!parsed.success) {
     throw new ApiError({
       status: response.status,

@@ -12,6 +12,7 @@ import { sessionCookieFor } from "../helpers/auth";
 
 const hashedScript = "assets/index-Bq3xK9_a.js";
 const longCache = "public, max-age=31536000, immutable";
+const workboxRuntime = "workbox-d8ed3718.js";
 
 /** A built client as the build leaves it: each text file with its brotli and gzip copies. */
 function writeClient(dir: string) {
@@ -33,6 +34,9 @@ function writeClient(dir: string) {
   write(hashedScript, script);
   write(`${hashedScript}.map`, JSON.stringify({ version: 3, mappings: "" }), false);
   write("sw.js", `self.addEventListener("fetch", () => {});\n${"// keeps the shell\n".repeat(60)}`);
+  // Workbox's runtime, which the generated worker loads beside itself (named by content, but
+  // outside assets/: read again with the worker).
+  write(workboxRuntime, `define(["exports"], function (e) {});\n${"// precache\n".repeat(60)}`);
   write("manifest.webmanifest", JSON.stringify({ name: "Lintel", start_url: "/" }), false);
   write(
     "icons/lintel-192.png",
@@ -96,12 +100,13 @@ describe("serving the built client", () => {
     expect(response.headers["cache-control"]).toBe(longCache);
   });
 
-  it("when the page, the service worker, the manifest or an icon is asked for, then the browser must check it each time", async () => {
+  it("when the page, the service worker, its runtime, the manifest or an icon is asked for, then the browser must check it each time", async () => {
     for (const url of [
       "/",
       "/index.html",
       "/audits/due",
       "/sw.js",
+      `/${workboxRuntime}`,
       "/manifest.webmanifest",
       "/icons/lintel-192.png",
     ]) {

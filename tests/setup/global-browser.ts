@@ -46,6 +46,8 @@ export default async function setup() {
   process.env.LINTEL_E2E_URL = server.url;
   process.env.LINTEL_E2E_CHROMIUM = chromium;
   process.env.LINTEL_E2E_MAILBOX_DIR = mailboxDir;
+  // The service worker's update test publishes a changed worker there, as a new release would.
+  process.env.LINTEL_E2E_CLIENT_DIR = clientDir;
   // Not DATABASE_URL: the API project sets that one for its own cluster in this same process.
   process.env.LINTEL_E2E_DATABASE_URL = url;
 

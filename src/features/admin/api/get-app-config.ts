@@ -1,4 +1,4 @@
-import { type AppConfig, appConfigSchema } from "@shared/schemas/people";
+import { type AppConfig, appConfigSchema } from "@shared/schemas/shell";
 import { queryOptions, useQuery } from "@tanstack/react-query";
 
 import { apiRequest } from "@/lib/api-client";

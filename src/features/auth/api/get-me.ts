@@ -1,4 +1,4 @@
-import { type MeResponse, meResponseSchema } from "@shared/schemas/auth";
+import { type MeResponse, meResponseSchema } from "@shared/schemas/shell";
 import { type QueryClient, queryOptions, useQuery } from "@tanstack/react-query";
 
 import { apiRequest, isApiError } from "@/lib/api-client";

@@ -1,0 +1,359 @@
+import { mkdtempSync, readdirSync, rmSync, statSync } from "node:fs";
+import os from "node:os";
+import path from "node:path";
+import { pathToFileURL } from "node:url";
+
+import { chromium, type Browser, type BrowserContext } from "playwright-core";
+
+import { demoPassword } from "../server/demo/people";
+import { migrateDatabase } from "../server/db/client";
+import { parseEnv } from "../server/env";
+import { startServer } from "../server/server";
+import { chromiumArgs, ensureChromium } from "./lib/chromium";
+import { buildClient } from "./lib/client-build";
+import { prepareCluster, type Cluster } from "./lib/postgres";
+import { freePort } from "./lib/process";
+import { startS3Fake } from "./lib/s3-fake";
+
+/**
+ * The phone figures: the built app in chromium at 390×844 on a slow phone with one bar of signal
+ * (150 ms round trip, 1.6 Mbit/s down, 750 kbit/s up, CPU 4× slower), each page on a cold cache.
+ * Largest contentful paint, bytes over the wire until the page is idle, layout shift; then what
+ * the service worker fetches after that, on its own line.
+ */
+const profile = {
+  latency: 150,
+  downloadThroughput: 200_000,
+  uploadThroughput: 93_750,
+  cpuSlowdown: 4,
+};
+/** The page counts as idle once nothing has been on the wire for this long after `load`. */
+const quietMs = 1500;
+
+interface PhoneFigures {
+  label: string;
+  lcpMs: number;
+  bytes: number;
+  cls: number;
+  requests: number;
+  workerBytes: number;
+  workerRequests: number;
+}
+
+/** Each page is opened this many times, each on a cold cache; the table shows the medians. */
+const runsPerPage = Number(process.env.BENCH_PHONE_RUNS ?? 3);
+
+function median(runs: PhoneFigures[]): PhoneFigures {
+  const middle = <K extends keyof PhoneFigures>(key: K) =>
+    runs.map((run) => run[key]).sort((a, b) => (a as number) - (b as number))[
+      Math.floor(runs.length / 2)
+    ]!;
+  return {
+    label: runs[0]!.label,
+    lcpMs: middle("lcpMs") as number,
+    bytes: middle("bytes") as number,
+    cls: middle("cls") as number,
+    requests: middle("requests") as number,
+    workerBytes: middle("workerBytes") as number,
+    workerRequests: middle("workerRequests") as number,
+  };
+}
+
+const kb = (bytes: number) => `${(bytes / 1024).toFixed(0)} KB`;
+
+/**
+ * Opens `url` in a fresh context (cold cache) and reports its figures once it is idle, then waits
+ * for the service worker to finish its own downloads and counts those apart.
+ */
+async function measurePage(
+  browser: Browser,
+  label: string,
+  origin: string,
+  url: string,
+  ready: string,
+  signIn: boolean,
+): Promise<PhoneFigures> {
+  const context: BrowserContext = await browser.newContext({
+    viewport: { width: 390, height: 844 },
+    deviceScaleFactor: 2,
+    isMobile: true,
+    hasTouch: true,
+  });
+  try {
+    if (signIn) {
+      // Shares the context's cookie jar, not its HTTP cache: the page's first visit stays cold.
+      const response = await context.request.post(`${origin}/api/auth/sign-in`, {
+        headers: { origin },
+        data: { email: "auditor@example.org", password: demoPassword },
+      });
+      if (!response.ok()) throw new Error(`phone bench sign-in: HTTP ${response.status()}`);
+    }
+    let workerBytes = 0;
+    let workerRequests = 0;
+    context.on("requestfinished", (request) => {
+      if (!request.serviceWorker()) return;
+      void request
+        .sizes()
+        .then((sizes) => {
+          workerBytes += sizes.responseBodySize + sizes.responseHeadersSize;
+          workerRequests += 1;
+        })
+        .catch(() => undefined);
+    });
+
+    const page = await context.newPage();
+    const cdp = await context.newCDPSession(page);
+    await cdp.send("Network.enable");
+    await cdp.send("Network.emulateNetworkConditions", {
+      offline: false,
+      latency: profile.latency,
+      downloadThroughput: profile.downloadThroughput,
+      uploadThroughput: profile.uploadThroughput,
+    });
+    await cdp.send("Emulation.setCPUThrottlingRate", { rate: profile.cpuSlowdown });
+
+    let bytes = 0;
+    let requests = 0;
+    const inFlight = new Set<string>();
+    let lastActivity = Date.now();
+    const urls = new Map<string, string>();
+    cdp.on("Network.requestWillBeSent", ({ requestId, request }) => {
+      urls.set(requestId, request.url);
+      inFlight.add(requestId);
+      lastActivity = Date.now();
+    });
+    cdp.on("Network.loadingFinished", ({ requestId, encodedDataLength }) => {
+      if (process.env.BENCH_PHONE_TIMELINE)
+        console.log(`  ${urls.get(requestId)} ${encodedDataLength}`);
+      if (inFlight.delete(requestId)) {
+        bytes += encodedDataLength;
+        requests += 1;
+      }
+      lastActivity = Date.now();
+    });
+    cdp.on("Network.loadingFailed", ({ requestId }) => {
+      inFlight.delete(requestId);
+      lastActivity = Date.now();
+    });
+
+    await page.goto(url, { waitUntil: "load", timeout: 120_000 });
+    await page.getByText(ready).first().waitFor({ timeout: 120_000 });
+    while (inFlight.size > 0 || Date.now() - lastActivity < quietMs)
+      await new Promise((resolve) => setTimeout(resolve, 100));
+    const pageBytes = bytes;
+    const pageRequests = requests;
+
+    const { lcpMs, cls } = await page.evaluate(
+      () =>
+        new Promise<{ lcpMs: number; cls: number }>((resolve) => {
+          let lcpMs = 0;
+          let cls = 0;
+          new PerformanceObserver((list) => {
+            for (const entry of list.getEntries()) {
+              lcpMs = entry.startTime;
+              const element = (entry as PerformanceEntry & { element?: Element }).element;
+              if (element)
+                (window as unknown as { lcpElements: string[] }).lcpElements = [
+                  ...((window as unknown as { lcpElements?: string[] }).lcpElements ?? []),
+                  `${entry.startTime.toFixed(0)} ${element.tagName} ${element.textContent?.slice(0, 40)}`,
+                ];
+            }
+          }).observe({ type: "largest-contentful-paint", buffered: true });
+          new PerformanceObserver((list) => {
+            for (const entry of list.getEntries() as (PerformanceEntry & {
+              value: number;
+              hadRecentInput: boolean;
+            })[])
+              if (!entry.hadRecentInput) cls += entry.value;
+          }).observe({ type: "layout-shift", buffered: true });
+          setTimeout(() => resolve({ lcpMs, cls }), 100);
+        }),
+    );
+
+    if (process.env.BENCH_PHONE_TIMELINE)
+      console.log(
+        label,
+        await page.evaluate(() =>
+          [...performance.getEntriesByType("resource"), ...performance.getEntriesByType("paint")]
+            .map((entry) => {
+              const timing = entry as PerformanceResourceTiming;
+              return `${entry.name.replace(location.origin, "")} ${entry.startTime.toFixed(0)}→${(timing.responseEnd ?? entry.startTime).toFixed(0)} ${timing.transferSize ?? ""}`;
+            })
+            .join("\n"),
+        ),
+        await page.evaluate(() => (window as unknown as { lcpElements?: string[] }).lcpElements),
+      );
+
+    // The service worker's own downloads come after the page is idle: wait until it is active
+    // and its precache has gone quiet.
+    await page
+      .evaluate(
+        () =>
+          new Promise<void>((resolve) => {
+            if (!("serviceWorker" in navigator)) return resolve();
+            const timer = setTimeout(resolve, 60_000);
+            void navigator.serviceWorker.ready.then(() => {
+              clearTimeout(timer);
+              resolve();
+            });
+          }),
+      )
+      .catch(() => undefined);
+    let settled = workerRequests;
+    for (let round = 0; round < 20; round += 1) {
+      await new Promise((resolve) => setTimeout(resolve, 500));
+      if (workerRequests === settled && round > 2) break;
+      settled = workerRequests;
+    }
+    return {
+      label,
+      lcpMs,
+      bytes: pageBytes,
+      cls,
+      requests: pageRequests,
+      workerBytes,
+      workerRequests,
+    };
+  } finally {
+    await context.close();
+  }
+}
+
+/** The main chunk: the entry's own file, with the compressed copies the build writes beside it. */
+function mainChunkSizes(clientDir: string) {
+  const assets = path.join(clientDir, "assets");
+  const main = readdirSync(assets).find((file) => /^index-[\w-]+\.js$/.test(file));
+  if (!main) return null;
+  const size = (file: string) => statSync(path.join(assets, file)).size;
+  return { file: main, raw: size(main), gzip: size(`${main}.gz`), brotli: size(`${main}.br`) };
+}
+
+/** A space the demo auditor may audit: the first one on the first floor of their first site. */
+async function demoSpace(origin: string): Promise<string> {
+  const signIn = await fetch(`${origin}/api/auth/sign-in`, {
+    method: "POST",
+    headers: { "content-type": "application/json", origin },
+    body: JSON.stringify({ email: "auditor@example.org", password: demoPassword }),
+  });
+  const headers = { cookie: signIn.headers.getSetCookie()[0]!.split(";")[0]!, origin };
+  const json = async <T>(route: string) =>
+    (await (await fetch(`${origin}${route}`, { headers })).json()) as T;
+  const { sites } = await json<{ sites: { id: string }[] }>("/api/sites");
+  const { floors } = await json<{ floors: { id: string }[] }>(`/api/sites/${sites[0]!.id}/floors`);
+  const floor = await json<{ spaces: { id: string }[] }>(`/api/floors/${floors[0]!.id}`);
+  return floor.spaces[0]!.id;
+}
+
+/**
+ * Builds the client, serves it with the demo network from a database of its own in `cluster`,
+ * and prints the phone figures beside their targets.
+ */
+export async function benchPhone(cluster: Cluster, s3Endpoint: string): Promise<void> {
+  cluster.createDatabase("lintel_bench_phone");
+  const url = cluster.urlFor("lintel_bench_phone");
+  await migrateDatabase(url);
+  const clientDir = mkdtempSync(path.join(os.tmpdir(), "lintel-bench-phone-"));
+  await buildClient(clientDir);
+  const server = await startServer(
+    parseEnv({
+      DATABASE_URL: url,
+      PORT: String(await freePort()),
+      LOG_LEVEL: "warn",
+      LINTEL_DEMO: "1",
+      LINTEL_OUTBOX_WORKER: "0",
+      LINTEL_LOGIN_LIMIT_ACCOUNT: "100000",
+      LINTEL_LOGIN_LIMIT_ADDRESS: "100000",
+      LINTEL_CLIENT_DIR: clientDir,
+      S3_ENDPOINT: s3Endpoint,
+    }),
+  );
+  const browser = await chromium.launch({
+    executablePath: await ensureChromium(),
+    args: chromiumArgs,
+  });
+  try {
+    const origin = server.url;
+    const spaceId = await demoSpace(origin);
+    const pages: PhoneFigures[] = [];
+    for (const [label, route, ready, signedIn] of [
+      ["sign-in page", "/sign-in", "Sign in", false],
+      ["home page", "/", "My sites", true],
+      ["audit screen", `/spaces/${spaceId}/audit`, "Item 1 of", true],
+    ] as const) {
+      const runs: PhoneFigures[] = [];
+      for (let run = 0; run < runsPerPage; run += 1)
+        runs.push(await measurePage(browser, label, origin, `${origin}${route}`, ready, signedIn));
+      pages.push(median(runs));
+    }
+    const targets: Record<string, { lcpMs?: number; bytes?: number }> = {
+      "sign-in page": { lcpMs: 2000, bytes: 200 * 1024 },
+      "audit screen": { lcpMs: 2500 },
+    };
+    const mark = (ok: boolean) => (ok ? "ok" : "MISSED");
+    console.log(
+      `\nPhone figures: chromium 390×844, ${profile.latency} ms latency, ${(profile.downloadThroughput * 8) / 1e6} Mbit/s down, ${(profile.uploadThroughput * 8) / 1e3} kbit/s up, CPU ${profile.cpuSlowdown}× slower, cold cache, median of ${runsPerPage} runs; load average ${os.loadavg()[0]!.toFixed(1)} on ${os.cpus().length} CPUs (CPU-bound steps stretch when it is high)`,
+    );
+    console.log(
+      [
+        "page".padEnd(14),
+        "LCP".padStart(8),
+        "target".padStart(16),
+        "bytes".padStart(8),
+        "target".padStart(16),
+        "CLS".padStart(6),
+        "target".padStart(14),
+        "requests".padStart(9),
+      ].join(" "),
+    );
+    for (const figures of pages) {
+      const target = targets[figures.label] ?? {};
+      console.log(
+        [
+          figures.label.padEnd(14),
+          `${(figures.lcpMs / 1000).toFixed(2)} s`.padStart(8),
+          (target.lcpMs
+            ? `≤ ${(target.lcpMs / 1000).toFixed(1)} s ${mark(figures.lcpMs <= target.lcpMs)}`
+            : ""
+          ).padStart(16),
+          kb(figures.bytes).padStart(8),
+          (target.bytes
+            ? `≤ ${kb(target.bytes)} ${mark(figures.bytes <= target.bytes)}`
+            : ""
+          ).padStart(16),
+          figures.cls.toFixed(3).padStart(6),
+          `≤ 0.1 ${mark(figures.cls <= 0.1)}`.padStart(14),
+          String(figures.requests).padStart(9),
+        ].join(" "),
+      );
+    }
+    const first = pages[0]!;
+    console.log(
+      `service worker, after the sign-in page is idle: ${kb(first.workerBytes)} in ${first.workerRequests} requests (not in the page's bytes)`,
+    );
+    const main = mainChunkSizes(clientDir);
+    if (main)
+      console.log(
+        `main chunk ${main.file}: ${kb(main.raw)} raw · ${kb(main.gzip)} gzip · ${kb(main.brotli)} brotli`,
+      );
+  } finally {
+    await browser.close();
+    await server.close();
+    rmSync(clientDir, { recursive: true, force: true });
+  }
+}
+
+// `npx tsx scripts/bench-phone.ts`: the phone figures alone, on a throwaway cluster.
+if (import.meta.url === pathToFileURL(process.argv[1] ?? "").href) {
+  const folder = mkdtempSync(path.join(os.tmpdir(), "lintel-bench-phone-db-"));
+  const s3Dir = mkdtempSync(path.join(os.tmpdir(), "lintel-bench-phone-s3-"));
+  const cluster = await prepareCluster({ folder, port: await freePort(), throwaway: true });
+  await cluster.start();
+  const s3 = await startS3Fake({ dir: s3Dir });
+  try {
+    await benchPhone(cluster, s3.endpoint);
+  } finally {
+    await s3.stop();
+    cluster.destroy();
+    rmSync(s3Dir, { recursive: true, force: true });
+  }
+}
