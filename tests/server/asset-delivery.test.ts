@@ -72,6 +72,24 @@ describe("serving the built client", () => {
     expect(response.headers["cache-control"]).toBe(longCache);
   });
 
+  it("when a built file is sent, then it carries no content security policy, while the page and the worker keep theirs", async () => {
+    const file = await api(served.app)
+      .get(`/${hashedScript}`)
+      .set("Accept-Encoding", "gzip, deflate, br");
+    expect(file.status).toBe(200);
+    expect(file.headers["content-security-policy"]).toBeUndefined();
+    // What still matters on a script stays.
+    expect(file.headers["x-content-type-options"]).toBe("nosniff");
+    expect(file.headers["cross-origin-resource-policy"]).toBe("same-origin");
+    for (const documentPath of ["/", "/sites/anywhere", "/sw.js"]) {
+      const response = await api(served.app).get(documentPath);
+      expect(response.status, documentPath).toBe(200);
+      expect(response.headers["content-security-policy"], documentPath).toContain(
+        "default-src 'self'",
+      );
+    }
+  });
+
   it("when the browser accepts gzip but not brotli, then the gzip copy goes out", async () => {
     const response = await api(served.app).get(`/${hashedScript}`).set("Accept-Encoding", "gzip");
     expect(response.status).toBe(200);
