@@ -1,4 +1,7 @@
+import { readdir, readFile, writeFile } from "node:fs/promises";
+import path from "node:path";
 import { fileURLToPath } from "node:url";
+import { brotliCompressSync, constants, gzipSync } from "node:zlib";
 
 import tailwindcss from "@tailwindcss/vite";
 import react from "@vitejs/plugin-react";
@@ -42,6 +45,41 @@ function preloadFont(file: RegExp): Plugin {
   };
 }
 
+/**
+ * The worker's files are written after the build's other files have had their brotli and gzip
+ * copies made: this makes theirs, so a phone fetching the worker downloads it compressed too.
+ */
+function compressWorkerFiles(): Plugin {
+  let outDir = "";
+  return {
+    name: "lintel-compress-worker-files",
+    apply: "build",
+    configResolved(config) {
+      outDir = path.resolve(config.root, config.build.outDir);
+    },
+    closeBundle: {
+      sequential: true,
+      order: "post",
+      async handler() {
+        const names = (await readdir(outDir)).filter((name) =>
+          /^(sw|workbox-[\w-]+)\.js$/.test(name),
+        );
+        for (const name of names) {
+          const file = path.join(outDir, name);
+          const bytes = await readFile(file);
+          await writeFile(
+            `${file}.br`,
+            brotliCompressSync(bytes, {
+              params: { [constants.BROTLI_PARAM_QUALITY]: constants.BROTLI_MAX_QUALITY },
+            }),
+          );
+          await writeFile(`${file}.gz`, gzipSync(bytes, { level: 9 }));
+        }
+      },
+    },
+  };
+}
+
 export default defineConfig({
   plugins: [
     react(),
@@ -74,6 +112,7 @@ export default defineConfig({
         dontCacheBustURLsMatching: /^assets\//,
       },
     }),
+    compressWorkerFiles(),
     // Brotli and gzip copies beside each built file; the server sends the best one the browser
     // accepts (server/middleware/client-files.ts). Source maps stay uncompressed: only tools read them.
     compression({

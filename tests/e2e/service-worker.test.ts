@@ -57,15 +57,19 @@ describe("the service worker on a phone (390×844)", () => {
     await page.getByRole("heading", { level: 1, name: /Wexley Rehabilitation Centre/ }).waitFor();
     await workerInCharge(page);
 
-    // The worker and its runtime are asked for again on every visit, never kept by the browser.
-    const worker = await page.request.get(`${baseUrl()}/sw.js`);
+    // The worker and its runtime are asked for again on every visit, never kept by the browser,
+    // and travel compressed like the rest of the build.
+    const compressed = { headers: { "accept-encoding": "br, gzip" } };
+    const worker = await page.request.get(`${baseUrl()}/sw.js`, compressed);
     expect(worker.headers()["cache-control"]).toBe("no-cache");
+    expect(worker.headers()["content-encoding"]).toBe("br");
     const workerSource = await worker.text();
     const runtime = /define\(\[["']\.\/(workbox-[\w-]+)["']\]/.exec(workerSource)?.[1];
     expect(runtime, workerSource.slice(0, 300)).toBeTruthy();
-    const runtimeReply = await page.request.get(`${baseUrl()}/${runtime}.js`);
+    const runtimeReply = await page.request.get(`${baseUrl()}/${runtime}.js`, compressed);
     expect(runtimeReply.status()).toBe(200);
     expect(runtimeReply.headers()["cache-control"]).toBe("no-cache");
+    expect(runtimeReply.headers()["content-encoding"]).toBe("br");
 
     // Everything the build made for the browser is kept: every page's code, styles, fonts, icons.
     const listed = precacheList(workerSource);
