@@ -1,4 +1,4 @@
-import type { Answer, AnswerBody, AuditDetail } from "@shared/schemas/audits";
+import type { Answer, AnswerBody, AuditDetail, StartAuditBody } from "@shared/schemas/audits";
 
 import { isApiError, isTemporarilyUnavailable } from "@/lib/api-client";
 
@@ -13,7 +13,7 @@ import type {
 
 /** The four calls the queue makes; all idempotent on the device-made ids. */
 export interface SyncTransport {
-  startAudit(auditId: string, body: { spaceId: string; startedAt: string }): Promise<AuditDetail>;
+  startAudit(auditId: string, body: StartAuditBody): Promise<AuditDetail>;
   saveAnswer(auditId: string, itemId: string, body: AnswerBody): Promise<Answer>;
   uploadPhoto(
     auditId: string,
