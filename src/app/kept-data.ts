@@ -72,7 +72,7 @@ async function keepNow(queryClient: QueryClient, me: MeResponse): Promise<KeptSu
   };
 
   await fetchKept(myDueQueryOptions());
-  await fetchKept<ChecklistsResponse["checklists"]>(checklistsQueryOptions());
+  await fetchKept<ChecklistsResponse>(checklistsQueryOptions());
   const sites = (await fetchKept<{ id: string }[]>(sitesQueryOptions()))
     .filter((site) => can(me.roles, "conduct:audit:site", site.id))
     .slice(0, keptLimits.sites);
