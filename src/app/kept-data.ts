@@ -62,8 +62,25 @@ async function fetchImage(imageId: string): Promise<Blob | null> {
   }
 }
 
+/**
+ * Loads the pages an auditor opens with no signal (site, due list, floor, audit, account), so the
+ * page in hand can open them offline; the service worker keeps the same files for the next visit.
+ */
+function loadAuditingPages(): Promise<unknown> {
+  return Promise.all([
+    import("./routes/site"),
+    import("./routes/site-due"),
+    import("./routes/floor"),
+    import("./routes/audit-layout"),
+    import("./routes/start-audit"),
+    import("./routes/audit"),
+    import("./routes/account"),
+  ]);
+}
+
 async function keepNow(queryClient: QueryClient, me: MeResponse): Promise<KeptSummary | null> {
   const personId = me.user.id;
+  await loadAuditingPages().catch(() => undefined);
   const fresh = { staleTime: 60_000 };
   const keys: QueryKey[] = [meQueryOptions().queryKey];
   const fetchKept = async <T>(options: { queryKey: QueryKey } & object): Promise<T> => {

@@ -37,7 +37,9 @@ export function SignOutPanel() {
   const [step, setStep] = useState<Step>({ kind: "idle" });
   const discardButton = useRef<HTMLButtonElement>(null);
 
+  // Both work with no signal: the choice is about this phone, and the sign-out finishes here.
   const signOut = useMutation({
+    networkMode: "always",
     mutationFn: ({ choice }: { choice: UnsentChoice; hadWork: boolean }) =>
       signOutOfPhone(queryClient, choice),
     onSuccess: ({ reachedLintel }, { choice, hadWork }) => {
@@ -48,6 +50,7 @@ export function SignOutPanel() {
     },
   });
   const checking = useMutation({
+    networkMode: "always",
     mutationFn: unsentWorkOnPhone,
     onSuccess: (work) => {
       if (work.audits === 0 && work.changes === 0)
