@@ -104,13 +104,7 @@ async function keepNow(queryClient: QueryClient, me: MeResponse): Promise<KeptSu
     }
   }
 
-  const wanted = new Set(keys.map((key) => JSON.stringify(key)));
-  const state = dehydrate(queryClient, {
-    shouldDehydrateQuery: (query: Query) =>
-      query.state.status === "success" && wanted.has(JSON.stringify(query.queryKey)),
-  });
   const now = new Date();
-  await saveKeptQueries(personId, state, now);
 
   // Plan images never change under their id: fetch only the ones not kept yet.
   const have = new Set(await keptImageIds(personId));
@@ -129,6 +123,14 @@ async function keepNow(queryClient: QueryClient, me: MeResponse): Promise<KeptSu
     added.push({ imageId, blob, bytes: blob.size, keptAt: now.toISOString() });
   }
   await keepImages(personId, added, keep);
+
+  // Written last: when it says when Lintel last answered, everything above is kept.
+  const wanted = new Set(keys.map((key) => JSON.stringify(key)));
+  const state = dehydrate(queryClient, {
+    shouldDehydrateQuery: (query: Query) =>
+      query.state.status === "success" && wanted.has(JSON.stringify(query.queryKey)),
+  });
+  await saveKeptQueries(personId, state, now);
   lastKept.set(personId, Date.now());
   return keptSummary(personId);
 }

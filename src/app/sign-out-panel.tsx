@@ -134,7 +134,7 @@ export function SignOutPanel() {
               <p>
                 They have not reached Lintel and cannot be recovered: answers, readings and photos
                 of {step.work.audits === 1 ? "this audit" : "these audits"} are deleted from this
-                phone, and the audits will have to be done again.
+                phone, and {step.work.audits === 1 ? "it has" : "they have"} to be done again.
               </p>
             </ConfirmStep>
           )}

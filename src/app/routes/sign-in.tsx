@@ -28,7 +28,7 @@ function SignedOutAlert({ notice }: { notice: SignedOutNotice["signedOut"] }) {
         </p>
       ) : null}
       {notice.reachedLintel ? null : (
-        <p>
+        <p className={notice.kept ? "mt-2" : undefined}>
           Lintel could not be reached, so your session there is ended as soon as this phone has
           signal.
         </p>
