@@ -10,7 +10,6 @@ import {
   type QueryClient,
   type QueryKey,
 } from "@tanstack/react-query";
-import { useEffect } from "react";
 
 import { checklistsQueryOptions } from "@/features/admin/api/get-checklists";
 import { meQueryOptions } from "@/features/auth/api/get-me";
@@ -21,7 +20,6 @@ import { sitesQueryOptions } from "@/features/sites/api/get-sites";
 import { myDueQueryOptions } from "@/features/walkthroughs/api/get-my-due";
 import { siteScheduleQueryOptions } from "@/features/walkthroughs/api/get-site-schedule";
 import {
-  askForPersistentStorage,
   hasKeptStorage,
   type KeptImage,
   keepImages,
@@ -182,45 +180,4 @@ export function restoreKept(queryClient: QueryClient): Promise<void> {
 export function forgetRestored(personId: string): void {
   restored.delete(personId);
   lastKept.delete(personId);
-}
-
-const submittedDelayMs = 2_000;
-
-/**
- * On any signed-in page: restore what is kept, ask for persistent storage, keep it fresh while
- * online (now, when the connection returns, after a submitted audit).
- */
-export function useKeptForOffline(queryClient: QueryClient, me: MeResponse | null): void {
-  useEffect(() => {
-    if (!hasKeptStorage()) return;
-    void restoreKept(queryClient);
-    if (!me) return;
-    let live = true;
-    let timer: ReturnType<typeof setTimeout> | undefined;
-    const keep = (force = false) => {
-      if (live) void keepForOffline(queryClient, me, { force });
-    };
-    // After the page has painted and settled: the first screen comes first.
-    timer = setTimeout(() => {
-      void askForPersistentStorage();
-      keep();
-    }, 1_500);
-    const unsubscribeOnline = onlineManager.subscribe((online) => {
-      if (online) keep();
-    });
-    let stopHearing = () => {};
-    void import("@/features/walkthroughs/lib/audit-device").then((module) => {
-      if (!live) return;
-      stopHearing = module.onAuditSubmitted(() => {
-        clearTimeout(timer);
-        timer = setTimeout(() => keep(true), submittedDelayMs);
-      });
-    });
-    return () => {
-      live = false;
-      clearTimeout(timer);
-      unsubscribeOnline();
-      stopHearing();
-    };
-  }, [queryClient, me]);
 }

@@ -123,6 +123,7 @@ describe("an audit begun with no signal at all (390×844)", () => {
       .click();
     await page.getByRole("heading", { level: 1, name: "Due for audit" }).waitFor();
     await page.getByText(/No signal — shown from this phone, last updated from Lintel/).waitFor();
+    await page.evaluate(() => window.scrollTo(0, 0));
     await page.screenshot({ path: `${shots}/due-list-offline-auditor.png` });
     await page
       .getByRole("listitem", { name: space.spaceName, exact: true })

@@ -9,7 +9,7 @@ import { meQueryOptions, useMe } from "@/features/auth/api/get-me";
 import { AuthorizationProvider } from "@/lib/authorization";
 
 import { useAuditSyncInBackground } from "../background-sync";
-import { useKeptForOffline } from "../kept-data";
+import { useKeptForOffline } from "../kept-in-background";
 
 const SyncStatusNote = lazy(() =>
   import("@/features/walkthroughs/components/sync-status").then((module) => ({

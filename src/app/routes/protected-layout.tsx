@@ -10,7 +10,7 @@ import { useMe } from "@/features/auth/api/get-me";
 import { AuthorizationProvider } from "@/lib/authorization";
 
 import { useAuditSyncInBackground } from "../background-sync";
-import { useKeptForOffline } from "../kept-data";
+import { useKeptForOffline } from "../kept-in-background";
 import { useNavigationItems } from "../navigation-items";
 import { isSignedIn } from "../session";
 
