@@ -31,6 +31,7 @@ import {
 } from "@/lib/kept-store";
 import { canAnywhere } from "@/lib/authorization";
 import { phonePersonId } from "@/lib/phone-person";
+import { planImageUrl as planUrl } from "@/lib/use-plan-image";
 
 /**
  * What an auditor needs with no signal, kept in their own store on the phone after an online
@@ -45,8 +46,6 @@ export const keptLimits = {
   imageBytes: 40 * 1024 * 1024,
   everyMs: 5 * 60_000,
 };
-
-const planUrl = (imageId: string) => `/api/images/${encodeURIComponent(imageId)}?variant=display`;
 
 const lastKept = new Map<string, number>();
 let running: Promise<KeptSummary | null> | null = null;
@@ -69,6 +68,7 @@ function loadAuditingPages(): Promise<unknown> {
     import("./routes/site"),
     import("./routes/site-due"),
     import("./routes/floor"),
+    import("@/features/floor-plans/components/floor-map"),
     import("./routes/audit-layout"),
     import("./routes/start-audit"),
     import("./routes/audit"),

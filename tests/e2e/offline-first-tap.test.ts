@@ -125,6 +125,27 @@ describe("an audit begun with no signal at all (390×844)", () => {
     await page.getByText(/No signal — shown from this phone, last updated from Lintel/).waitFor();
     await page.evaluate(() => window.scrollTo(0, 0));
     await page.screenshot({ path: `${shots}/due-list-offline-auditor.png` });
+    // A floor plan of the site opens too, from the copy the phone keeps.
+    await page.goBack();
+    await page
+      .getByRole("region", { name: "Floors" })
+      .getByRole("link")
+      .filter({ hasNotText: "No plan yet" })
+      .first()
+      .click();
+    const plan = page.locator("img.leaflet-image-layer");
+    await expect
+      .poll(async () =>
+        plan.evaluate((img: HTMLImageElement) => img.src.startsWith("blob:") && img.naturalWidth),
+      )
+      .toBeGreaterThan(0);
+    await page.screenshot({ path: `${shots}/floor-offline-auditor.png` });
+    await page.goBack();
+    await page
+      .getByRole("link", { name: /All spaces and due dates|every other space/ })
+      .first()
+      .click();
+    await page.getByRole("heading", { level: 1, name: "Due for audit" }).waitFor();
     await page
       .getByRole("listitem", { name: space.spaceName, exact: true })
       .getByRole("link", { name: "Start audit" })
