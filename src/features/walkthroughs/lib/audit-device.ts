@@ -1,5 +1,5 @@
 import { ApiError } from "@/lib/api-client";
-import { personDatabases, phonePersonId } from "@/lib/phone-person";
+import { onPhonePersonChange, personDatabases, phonePersonId } from "@/lib/phone-person";
 
 import { saveAnswer } from "../api/save-answer";
 import { startAudit } from "../api/start-audit";
@@ -156,6 +156,12 @@ export async function closeAuditDevice(): Promise<void> {
   device?.sync.stop();
   device?.store.close();
 }
+
+// Someone else signed in (or the person signed out): the previous person's queue stops at once,
+// and nothing on screen goes on reading their store.
+onPhonePersonChange((personId) => {
+  if (openFor !== null && openFor !== personId) void closeAuditDevice();
+});
 
 /** Deletes a person's audit store from the phone (they chose to discard what it held). */
 export async function discardAuditStore(personId: string): Promise<void> {
