@@ -184,6 +184,7 @@ describe("a phone shared by two auditors (390×844)", () => {
 
     const auditId = await startAndAnswerOffline(page, space);
     await page.getByRole("link", { name: "My sites" }).click();
+    await page.getByRole("heading", { level: 1, name: "My sites" }).waitFor();
     await openAccount(page);
     await page.getByRole("button", { name: "Sign out" }).click();
     const choice = page.getByRole("group", { name: "Not yet in Lintel" });
