@@ -18,7 +18,13 @@ export const auditItemParamsSchema = z.strictObject({ auditId: uuidSchema, itemI
 export const startAuditBodySchema = z.strictObject({
   spaceId: uuidSchema,
   startedAt: z.iso.datetime({ offset: true, message: "A date and time with its offset." }),
+  /**
+   * The checklist version the phone began with (it may have been offline while the checklist was
+   * republished). Without it, the version published when the server hears of the audit.
+   */
+  checklistVersionId: uuidSchema.optional(),
 });
+export type StartAuditBody = z.infer<typeof startAuditBodySchema>;
 
 /** The text fields of a multipart audit photo (the file itself is `photo`). */
 export const auditPhotoFieldsSchema = z.strictObject({

@@ -1,14 +1,19 @@
 import type { Permission } from "@shared/permissions";
-import type { QueryClient } from "@tanstack/react-query";
+import { onlineManager, type QueryClient } from "@tanstack/react-query";
 
 import { meQueryOptions } from "@/features/auth/api/get-me";
 import { canAnywhere } from "@/lib/authorization";
+import { phonePersonId } from "@/lib/phone-person";
 
 /**
  * Whether someone is signed in, from the cache when known. Route loaders call it before
  * prefetching so a signed-out visit sends no requests that can only fail.
  */
 export async function isSignedIn(queryClient: QueryClient): Promise<boolean> {
+  // With no signal, the person this phone keeps lists for is still the one signed in here.
+  if (!onlineManager.isOnline() && phonePersonId()) {
+    await import("./kept-data").then((module) => module.restoreKept(queryClient));
+  }
   return (await queryClient.ensureQueryData(meQueryOptions())) !== null;
 }
 

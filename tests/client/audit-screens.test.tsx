@@ -388,7 +388,9 @@ describe("an audit on the phone", () => {
     online.mockReturnValue(true);
     window.dispatchEvent(new Event("online"));
 
-    expect(await screen.findByText("All changes saved", {}, { timeout: 3000 })).toBeTruthy();
+    expect(
+      await screen.findByText("All changes arrived in Lintel", {}, { timeout: 3000 }),
+    ).toBeTruthy();
     expect(screen.getByRole("heading", { level: 2, name: "Hold until fixed" })).toBeTruthy();
     expect(screen.queryByText("On this phone only")).toBeNull();
     expect(server.submits).toBe(1);
@@ -457,7 +459,9 @@ describe("what a synced submission refreshes", () => {
     server.down = false;
     online.mockReturnValue(true);
     window.dispatchEvent(new Event("online"));
-    expect(await screen.findByText("All changes saved", {}, { timeout: 5000 })).toBeTruthy();
+    expect(
+      await screen.findByText("All changes arrived in Lintel", {}, { timeout: 5000 }),
+    ).toBeTruthy();
     expect(server.submits).toBe(1);
 
     const fetchedBefore = calls.length;

@@ -462,7 +462,7 @@ describe("the sync schedule", () => {
       .poll(() => sync.status(), { timeout: 2000 })
       .toMatchObject({ waiting: 0, away: null });
     expect(server.answers.get(`${audit.auditId}/${items[0]!.id}`)?.outcome).toBe("pass");
-    expect(describeSync(sync.status()).text).toBe("All changes saved");
+    expect(describeSync(sync.status()).text).toBe("All changes arrived in Lintel");
     sync.stop();
   });
 });

@@ -62,7 +62,7 @@ describe("an isolation room whose airflow nobody confirmed (390×844)", () => {
     await page.getByRole("heading", { level: 2, name: "Hold until fixed" }).waitFor();
     const why = page.getByRole("list", { name: "Why" });
     await why.getByText(/^Inward airflow not confirmed/).waitFor();
-    await page.getByText("All changes saved").waitFor({ timeout: 30_000 });
+    await page.getByText("All changes arrived in Lintel").waitFor({ timeout: 30_000 });
     await expect
       .poll(async () => page.getByText("On this phone only").count(), { timeout: 15_000 })
       .toBe(0);

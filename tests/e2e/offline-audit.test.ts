@@ -54,7 +54,7 @@ describe("an audit on a phone that loses its connection half-way (390×844)", ()
         // Half-way the connection goes: the browser is offline and the API cannot be reached.
         await context.setOffline(true);
         await context.route("**/api/**", (route) => route.abort());
-        await page.getByText("Offline — changes are kept on this phone").waitFor();
+        await page.getByText(/^Offline — /).waitFor();
       }
       const text = (await page.getByRole("heading", { level: 2 }).first().textContent()) ?? "";
       if (text.startsWith("Dirty chair present")) {
@@ -82,7 +82,7 @@ describe("an audit on a phone that loses its connection half-way (390×844)", ()
     // Back online: the phone sends what it kept, by itself.
     await context.unroute("**/api/**");
     await context.setOffline(false);
-    await page.getByText("All changes saved").waitFor({ timeout: 30_000 });
+    await page.getByText("All changes arrived in Lintel").waitFor({ timeout: 30_000 });
     await expect
       .poll(async () => page.getByText("On this phone only").count(), { timeout: 15_000 })
       .toBe(0);

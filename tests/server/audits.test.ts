@@ -238,6 +238,73 @@ describe("audits", () => {
     expect(fresh.detail.items.map((i) => i.text)).toEqual(["Only one new item"]);
   });
 
+  it("when a phone started offline names the checklist version it used and the checklist was republished meanwhile, then the audit keeps that version", async () => {
+    const spaceId = await newSpace("donning_zone");
+    const before = (await start(spaceId)).detail;
+    const draft = await as(admin)
+      .put("/api/checklists/donning_zone/draft")
+      .send({
+        title: "Donning checks, revised",
+        items: [
+          { text: "A new donning check", severity: "minor", response: "check", photoOnFail: false },
+        ],
+      });
+    expect(draft.status).toBe(200);
+    const published = await as(admin).post("/api/checklists/donning_zone/publish");
+    expect(published.status).toBe(200);
+
+    const auditId = crypto.randomUUID();
+    const body = {
+      spaceId,
+      startedAt: new Date().toISOString(),
+      checklistVersionId: before.audit.checklistVersionId,
+    };
+    const response = await as(auditor).put(`/api/audits/${auditId}`).send(body);
+    expect(response.status, JSON.stringify(response.body)).toBe(201);
+    expect(response.body.audit.checklistVersionId).toBe(before.audit.checklistVersionId);
+    expect(response.body.audit.checklistVersion).toBe(before.audit.checklistVersion);
+    expect(response.body.items.map((i: { id: string }) => i.id)).toEqual(
+      before.items.map((i) => i.id),
+    );
+    // Sent again (the reply was lost), it is the same audit.
+    const again = await as(auditor).put(`/api/audits/${auditId}`).send(body);
+    expect(again.status).toBe(200);
+    expect(again.body.audit.checklistVersionId).toBe(before.audit.checklistVersionId);
+    // Without a version, a new audit gets the one published now.
+    expect((await start(spaceId)).detail.audit.checklistVersion).toBe(
+      published.body.published.version,
+    );
+  });
+
+  it("when the start names a checklist version of another kind of space, a draft or none at all, then 400 names checklistVersionId and no audit is made", async () => {
+    const doffing = await newSpace("doffing_area");
+    const otherKind = (await start(await newSpace("anteroom"))).detail.audit.checklistVersionId;
+    const draft = await as(admin)
+      .put("/api/checklists/doffing_area/draft")
+      .send({
+        title: "Doffing checks, not yet published",
+        items: [{ text: "Unpublished", severity: "minor", response: "check", photoOnFail: false }],
+      });
+    expect(draft.status).toBe(200);
+    const draftId = (await as(admin).get("/api/checklists")).body.checklists.find(
+      (entry: { zoneType: string }) => entry.zoneType === "doffing_area",
+    ).draft.id as string;
+    for (const checklistVersionId of [otherKind, draftId, crypto.randomUUID()]) {
+      const auditId = crypto.randomUUID();
+      const response = await as(auditor)
+        .put(`/api/audits/${auditId}`)
+        .send({ spaceId: doffing, startedAt: new Date().toISOString(), checklistVersionId });
+      expect(response.status, JSON.stringify(response.body)).toBe(400);
+      expect(Object.keys(response.body.error.fields)).toEqual(["checklistVersionId"]);
+      const [row] = await testApp()
+        .deps.db.select({ n: count() })
+        .from(audits)
+        .where(eq(audits.id, auditId));
+      expect(row!.n).toBe(0);
+    }
+    await as(admin).delete("/api/checklists/doffing_area/draft");
+  });
+
   it("when readings are implausible or not numbers, then 400 names the field and nothing is stored", async () => {
     const { auditId, detail } = await start(
       await newSpace("isolation_room", { constructionClass: "existing", volumeM3: 80 }),

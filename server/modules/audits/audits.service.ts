@@ -15,6 +15,7 @@ import type {
   AuditDetail,
   MyDueEntry,
   ScheduleEntry,
+  StartAuditBody,
 } from "@shared/schemas/audits";
 import type { ChecklistItem } from "@shared/schemas/checklists";
 import type { ZoneType } from "@shared/zones";
@@ -27,6 +28,7 @@ import { sha256Of, storeImage } from "../../lib/images";
 import type { AppDeps, SignedIn } from "../../lib/context";
 import {
   checklistItemsOf,
+  checklistVersionById,
   ensureDefaultChecklists,
   latestPublishedVersion,
 } from "../checklists/checklists.service";
@@ -132,7 +134,7 @@ export async function startAudit(
   deps: AppDeps,
   auth: SignedIn,
   auditId: string,
-  body: { spaceId: string; startedAt: string },
+  body: StartAuditBody,
   actor: Actor,
 ): Promise<{ created: boolean; detail: AuditDetail }> {
   const existing = await repo.findAudit(deps.db, auditId);
@@ -153,7 +155,24 @@ export async function startAudit(
     );
   }
   await ensureDefaultChecklists(deps.db, auth.user.networkId);
-  const version = await latestPublishedVersion(deps.db, auth.user.networkId, space.zoneType);
+  const version = body.checklistVersionId
+    ? await checklistVersionById(deps.db, body.checklistVersionId)
+    : await latestPublishedVersion(deps.db, auth.user.networkId, space.zoneType);
+  if (body.checklistVersionId) {
+    // A phone that began offline keeps the version it showed the auditor, even if it has been
+    // republished since; but only a version once published for this kind of space.
+    if (
+      !version ||
+      version.networkId !== auth.user.networkId ||
+      version.zoneType !== space.zoneType ||
+      version.status !== "published"
+    ) {
+      throw invalid(
+        "checklistVersionId",
+        `That checklist version is not one published for ${space.name}'s kind of space.`,
+      );
+    }
+  }
   if (!version) throw notFound("A checklist for this zone type");
   const created = await deps.db.transaction(async (tx) => {
     const inserted = await repo.insertAudit(tx, {

@@ -1,20 +1,20 @@
 import { type RoleGrant, roleLabels } from "@shared/roles";
 import type { Site } from "@shared/schemas/site";
 import type { QueryClient } from "@tanstack/react-query";
-import { useNavigate } from "react-router-dom";
 
 import { Alert } from "@/components/ui/alert";
 import { Button } from "@/components/ui/button";
 import { Card } from "@/components/ui/card";
 import { CautionNote } from "@/components/ui/caution-note";
-import { Spinner, SpinnerGlyph } from "@/components/ui/spinner";
-import { paths } from "@/config/paths";
-import { useSignOut } from "@/features/auth/api/sign-out";
+import { Spinner } from "@/components/ui/spinner";
 import { ChangePasswordForm } from "@/features/auth/components/change-password-form";
 import { ProfileForm } from "@/features/auth/components/profile-form";
 import { sitesQueryOptions, useSites } from "@/features/sites/api/get-sites";
+import { canAnywhere } from "@/lib/authorization";
 
 import { isSignedIn } from "../session";
+import { OfflineStorageNote } from "../offline-storage-note";
+import { SignOutPanel } from "../sign-out-panel";
 import { useSignedInPerson } from "./protected-layout";
 
 export function accountLoader(queryClient: QueryClient) {
@@ -77,17 +77,6 @@ function RolesList({ grants }: { grants: readonly RoleGrant[] }) {
 
 export function AccountRoute() {
   const me = useSignedInPerson();
-  const navigate = useNavigate();
-  const signOut = useSignOut();
-
-  const handleSignOut = async () => {
-    try {
-      await signOut.mutateAsync();
-    } catch {
-      return; // shown from the mutation's error state
-    }
-    void navigate(paths.signIn.getHref(), { replace: true });
-  };
 
   return (
     <>
@@ -117,26 +106,16 @@ export function AccountRoute() {
           <ChangePasswordForm email={me.user.email} />
         </Card>
 
+        {canAnywhere(me.roles, "conduct:audit:site") ? (
+          <OfflineStorageNote personId={me.user.id} />
+        ) : null}
+
         <Card>
           <h2 className="text-lg font-semibold">Signing out</h2>
           <p className="mt-1 text-ink-muted">
             Sign out when you hand this device to someone else or leave it unattended.
           </p>
-          {signOut.isError ? (
-            <Alert role="alert" tone="error" title="Could not sign you out" className="mt-3">
-              {signOut.error.message}
-            </Alert>
-          ) : null}
-          <Button
-            variant="secondary"
-            className="mt-4"
-            disabled={signOut.isPending}
-            aria-busy={signOut.isPending || undefined}
-            onClick={() => void handleSignOut()}
-          >
-            {signOut.isPending ? <SpinnerGlyph className="size-5" /> : null}
-            Sign out
-          </Button>
+          <SignOutPanel />
         </Card>
 
         <CautionNote />

@@ -1,5 +1,5 @@
 import type { MeResponse } from "@shared/schemas/auth";
-import type { QueryClient } from "@tanstack/react-query";
+import { type QueryClient, useQueryClient } from "@tanstack/react-query";
 import { lazy, Suspense } from "react";
 import { Link, type LoaderFunctionArgs, Outlet, redirect } from "react-router-dom";
 
@@ -9,6 +9,7 @@ import { meQueryOptions, useMe } from "@/features/auth/api/get-me";
 import { AuthorizationProvider } from "@/lib/authorization";
 
 import { useAuditSyncInBackground } from "../background-sync";
+import { useKeptForOffline } from "../kept-in-background";
 
 const SyncStatusNote = lazy(() =>
   import("@/features/walkthroughs/components/sync-status").then((module) => ({
@@ -48,6 +49,7 @@ export function auditLayoutLoader(queryClient: QueryClient) {
 export function AuditLayout() {
   const me = useMe();
   useAuditSyncInBackground();
+  useKeptForOffline(useQueryClient(), me.data ?? null);
   const grants = me.data?.roles ?? [];
 
   return (

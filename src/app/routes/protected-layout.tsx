@@ -1,5 +1,5 @@
 import type { MeResponse } from "@shared/schemas/auth";
-import type { QueryClient } from "@tanstack/react-query";
+import { type QueryClient, useQueryClient } from "@tanstack/react-query";
 import { lazy, Suspense } from "react";
 import { type LoaderFunctionArgs, Outlet, redirect, useOutletContext } from "react-router-dom";
 
@@ -10,6 +10,7 @@ import { useMe } from "@/features/auth/api/get-me";
 import { AuthorizationProvider } from "@/lib/authorization";
 
 import { useAuditSyncInBackground } from "../background-sync";
+import { useKeptForOffline } from "../kept-in-background";
 import { useNavigationItems } from "../navigation-items";
 import { isSignedIn } from "../session";
 
@@ -36,6 +37,7 @@ export function protectedLoader(queryClient: QueryClient) {
 function SignedInFrame({ me }: { me: MeResponse }) {
   const navigationItems = useNavigationItems(me.roles);
   useAuditSyncInBackground();
+  useKeptForOffline(useQueryClient(), me);
   return (
     <AuthorizationProvider grants={me.roles}>
       <AppShell

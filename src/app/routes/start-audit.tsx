@@ -1,14 +1,20 @@
+import type { AuditDetail } from "@shared/schemas/audits";
+import type { ChecklistsResponse } from "@shared/schemas/checklists";
 import { spaceParamsSchema } from "@shared/schemas/floors";
-import { type QueryClient, useQueryClient } from "@tanstack/react-query";
+import { onlineManager, type QueryClient, useQueryClient } from "@tanstack/react-query";
 import { useCallback, useState } from "react";
 import { useNavigate, useParams } from "react-router-dom";
 
 import { paths } from "@/config/paths";
-import { cachedSpaceName } from "@/features/floor-plans/api/get-floor";
+import { checklistsQueryOptions } from "@/features/admin/api/get-checklists";
+import { meQueryOptions } from "@/features/auth/api/get-me";
+import { cachedSpace, cachedSpaceName } from "@/features/floor-plans/api/get-floor";
 import { scheduledSpaceName } from "@/features/walkthroughs/api/get-site-schedule";
 import { StartAudit } from "@/features/walkthroughs/components/start-audit";
+import { prepareAuditDetail } from "@/features/walkthroughs/lib/prepared-audit";
 import { canAnywhere } from "@/lib/authorization";
 
+import { restoreKept } from "../kept-data";
 import { usePersonIfKnown } from "./audit-person";
 import { NotAvailable } from "./not-available";
 
@@ -17,11 +23,56 @@ function knownSpaceName(queryClient: QueryClient, spaceId: string): string | nul
   return scheduledSpaceName(queryClient, spaceId) ?? cachedSpaceName(queryClient, spaceId);
 }
 
+const freshChecklistWaitMs = 3_000;
+
+/** The published checklists: fresh when Lintel answers quickly, else as the phone keeps them. */
+async function checklistsNow(queryClient: QueryClient): Promise<ChecklistsResponse | undefined> {
+  const kept = () => queryClient.getQueryData(checklistsQueryOptions().queryKey);
+  if (!onlineManager.isOnline()) return kept();
+  const fresh = queryClient.fetchQuery({ ...checklistsQueryOptions(), staleTime: 0, retry: false });
+  const late = new Promise<undefined>((resolve) =>
+    setTimeout(() => resolve(undefined), freshChecklistWaitMs),
+  );
+  return (await Promise.race([fresh, late]).catch(() => undefined)) ?? kept();
+}
+
+/**
+ * The audit built on the phone from what it keeps (the space from its floor, the published
+ * checklist of its zone type), so it starts at once, with or without signal. Null when something
+ * is not kept: the audit then waits for Lintel to send its checklist.
+ */
+async function preparedAudit(
+  queryClient: QueryClient,
+  spaceId: string,
+  auditId: string,
+  now: Date,
+): Promise<AuditDetail | null> {
+  await restoreKept(queryClient);
+  const me = queryClient.getQueryData(meQueryOptions().queryKey);
+  const found = cachedSpace(queryClient, spaceId);
+  if (!me || !found) return null;
+  const checklist = (await checklistsNow(queryClient))?.checklists.find(
+    (entry) => entry.zoneType === found.space.zoneType,
+  )?.published;
+  if (!checklist) return null;
+  return prepareAuditDetail({
+    auditId,
+    space: { ...found.space, siteId: found.floor.siteId },
+    checklist,
+    auditor: { id: me.user.id, name: me.user.name },
+    startedAt: now,
+  });
+}
+
 function StartAuditPage({ spaceId }: { spaceId: string }) {
   const me = usePersonIfKnown();
   const queryClient = useQueryClient();
   const navigate = useNavigate();
   const [spaceName] = useState(() => knownSpaceName(queryClient, spaceId));
+  const prepare = useCallback(
+    (auditId: string, now: Date) => preparedAudit(queryClient, spaceId, auditId, now),
+    [queryClient, spaceId],
+  );
   const onReady = useCallback(
     (auditId: string) => void navigate(paths.audit.getHref(auditId), { replace: true }),
     [navigate],
@@ -40,6 +91,7 @@ function StartAuditPage({ spaceId }: { spaceId: string }) {
         spaceId={spaceId}
         spaceName={spaceName}
         personId={me?.user.id ?? null}
+        prepare={prepare}
         onReady={onReady}
       />
     </>

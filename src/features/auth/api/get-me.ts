@@ -2,12 +2,34 @@ import { type MeResponse, meResponseSchema } from "@shared/schemas/shell";
 import { type QueryClient, queryOptions, useQuery } from "@tanstack/react-query";
 
 import { apiRequest, isApiError } from "@/lib/api-client";
+import { rememberPhonePerson, setSignOutPending, signOutPending } from "@/lib/phone-person";
 import { queryKeys } from "@/lib/query-keys";
+
+/**
+ * Someone signed out here with no signal, so their session on the server could not be ended then:
+ * end it now, before anything else is asked with it.
+ */
+export async function endPendingSignOut(): Promise<void> {
+  if (!signOutPending()) return;
+  try {
+    await apiRequest("/api/auth/sign-out", { method: "POST" });
+  } catch (error) {
+    // Already over (401) is as good as ended; anything else tries again next time.
+    if (!(isApiError(error) && error.status === 401)) throw error;
+  }
+  setSignOutPending(false);
+}
 
 /** The signed-in person and their roles, or null when nobody is signed in. */
 export async function getMe({ signal }: { signal?: AbortSignal } = {}): Promise<MeResponse | null> {
+  if (signOutPending()) {
+    await endPendingSignOut();
+    return null;
+  }
   try {
-    return await apiRequest("/api/auth/me", { schema: meResponseSchema, signal });
+    const me = await apiRequest("/api/auth/me", { schema: meResponseSchema, signal });
+    rememberPhonePerson(me.user.id);
+    return me;
   } catch (error) {
     if (isApiError(error) && error.status === 401) return null;
     throw error;
@@ -44,4 +66,5 @@ export function rememberSignedInPerson(
       !(keep && keep.every((part, index) => query.queryKey[index] === part)),
   });
   queryClient.setQueryData(queryKeys.sessions.me, me);
+  rememberPhonePerson(me.user.id);
 }

@@ -8,9 +8,11 @@ import {
 
 import { apiRequest } from "@/lib/api-client";
 
-import { rememberSignedInPerson } from "./get-me";
+import { endPendingSignOut, rememberSignedInPerson } from "./get-me";
 
-export function signIn(body: SignInBody): Promise<MeResponse> {
+export async function signIn(body: SignInBody): Promise<MeResponse> {
+  // The previous person signed out with no signal: their session ends before this one begins.
+  await endPendingSignOut().catch(() => undefined);
   return apiRequest("/api/auth/sign-in", { method: "POST", body, schema: meResponseSchema });
 }
 

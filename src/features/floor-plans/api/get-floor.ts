@@ -49,6 +49,20 @@ export function floorChanged(queryClient: QueryClient, floor: Floor): Promise<un
   ]);
 }
 
+/** A space with its floor, from any floor already loaded (or kept on the phone), or null. */
+export function cachedSpace(
+  queryClient: QueryClient,
+  spaceId: string,
+): { space: FloorDetail["spaces"][number]; floor: FloorDetail["floor"] } | null {
+  for (const [, detail] of queryClient.getQueriesData<FloorDetail>({
+    queryKey: queryKeys.floors.details,
+  })) {
+    const space = detail?.spaces.find((candidate) => candidate.id === spaceId);
+    if (space) return { space, floor: detail!.floor };
+  }
+  return null;
+}
+
 /** A space's name from any floor already loaded, or null. */
 export function cachedSpaceName(queryClient: QueryClient, spaceId: string): string | null {
   for (const [, detail] of queryClient.getQueriesData<FloorDetail>({

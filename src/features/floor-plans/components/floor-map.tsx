@@ -26,6 +26,7 @@ import {
 } from "react-leaflet";
 
 import { cn } from "@/lib/cn";
+import { usePlanImageUrl } from "@/lib/use-plan-image";
 
 import { fixtureMarkerHtml } from "../lib/fixture-symbols";
 import type { MapPin } from "../lib/map-pins";
@@ -230,6 +231,7 @@ export function FloorMap({
   pins = noPins,
 }: FloorMapProps) {
   const { width, height, imageId } = plan;
+  const planUrl = usePlanImageUrl(imageId);
   const bounds = useMemo(() => planBounds({ width, height }), [width, height]);
   const picking = tool.kind !== "idle";
   // Layers keep Leaflet's "interactive" from creation: remount them when it changes, so taps
@@ -250,11 +252,7 @@ export function FloorMap({
       attributionControl={false}
       className={cn("lintel-map h-full w-full", picking && "is-picking")}
     >
-      <ImageOverlay
-        url={`/api/images/${encodeURIComponent(imageId)}?variant=display`}
-        bounds={bounds}
-        pane="tilePane"
-      />
+      {planUrl ? <ImageOverlay url={planUrl} bounds={bounds} pane="tilePane" /> : null}
       {spaces.map((space) => (
         <Polygon
           key={`${space.id}:${layerKey}`}

@@ -5,6 +5,8 @@ import { CRS, latLngBounds } from "leaflet";
 import { useEffect, useMemo } from "react";
 import { ImageOverlay, MapContainer, Polygon, useMap } from "react-leaflet";
 
+import { usePlanImageUrl } from "@/lib/use-plan-image";
+
 import type { MapPin } from "../lib/map-pins";
 import { planBounds, type PlanSize, polygonToLatLngs } from "../lib/plan-coordinates";
 import { PinMarkers } from "./pin-markers";
@@ -39,6 +41,7 @@ function Naming({ label }: { label: string }) {
 /** A small read-only view of one spot on a plan: the space outlined and its pins. */
 export function PlanSpotMap({ plan, polygon, pins, label }: PlanSpotMapProps) {
   const { width, height, imageId } = plan;
+  const planUrl = usePlanImageUrl(imageId);
   const whole = useMemo(() => planBounds({ width, height }), [width, height]);
   const spot = useMemo(
     () =>
@@ -59,11 +62,7 @@ export function PlanSpotMap({ plan, polygon, pins, label }: PlanSpotMapProps) {
       attributionControl={false}
       className="lintel-map h-full w-full"
     >
-      <ImageOverlay
-        url={`/api/images/${encodeURIComponent(imageId)}?variant=display`}
-        bounds={whole}
-        pane="tilePane"
-      />
+      {planUrl ? <ImageOverlay url={planUrl} bounds={whole} pane="tilePane" /> : null}
       {polygon.length > 0 ? (
         <Polygon positions={polygonToLatLngs(polygon)} pathOptions={outline} />
       ) : null}

@@ -19,6 +19,7 @@ import { parseNumberText } from "@/lib/form-values";
 import { useSiteSchedule } from "../api/get-site-schedule";
 import { useSetCadence } from "../api/set-cadence";
 import { describeDue, dueNow, orderByDue } from "../lib/due-order";
+import { KeptFreshness, NotKeptHere } from "./kept-freshness";
 
 export interface DueLinks {
   startHref: (spaceId: string) => string;
@@ -256,8 +257,15 @@ export function DueSection({
             </p>
           ) : null}
         </div>
-        {schedule.isPending ? <Spinner label="Loading what is due…" /> : null}
-        {schedule.isError ? (
+        {schedule.data !== undefined ? (
+          <KeptFreshness updatedAt={schedule.dataUpdatedAt} failed={schedule.isError} />
+        ) : null}
+        {schedule.isPending && schedule.fetchStatus === "paused" ? (
+          <NotKeptHere what="This site's due list" />
+        ) : schedule.isPending ? (
+          <Spinner label="Loading what is due…" />
+        ) : null}
+        {schedule.isError && schedule.data === undefined ? (
           <ScheduleProblem error={schedule.error} retry={() => void schedule.refetch()} />
         ) : null}
         {schedule.data && due.length === 0 ? (
@@ -299,8 +307,12 @@ export function SchedulePanel({
   ...links
 }: SchedulePanelProps) {
   const schedule = useSiteSchedule(siteId);
+  if (schedule.data === undefined && schedule.fetchStatus === "paused") {
+    return <NotKeptHere what="This site's due list" />;
+  }
   if (schedule.isPending) return <Spinner label="Loading what is due…" className="py-6" />;
-  if (schedule.isError) {
+  // Kept on the phone and shown, even when Lintel cannot be reached for a newer copy.
+  if (schedule.data === undefined) {
     return <ScheduleProblem error={schedule.error} retry={() => void schedule.refetch()} />;
   }
   const ordered = orderByDue(schedule.data);
@@ -318,6 +330,7 @@ export function SchedulePanel({
 
   return (
     <div className="flex flex-col gap-6">
+      <KeptFreshness updatedAt={schedule.dataUpdatedAt} failed={schedule.isError} />
       {groups.map((group) => (
         <section key={group.state} className="flex flex-col gap-2">
           <h2 className="text-lg font-semibold">

@@ -9,6 +9,7 @@ import { cn } from "@/lib/cn";
 
 import { useMyDue } from "../api/get-my-due";
 import { describeDue } from "../lib/due-order";
+import { KeptFreshness, NotKeptHere } from "./kept-freshness";
 
 export interface MyDueAuditsProps {
   startHref: (spaceId: string) => string;
@@ -16,13 +17,18 @@ export interface MyDueAuditsProps {
 
 /** The auditor's own round: what is overdue or due soon at every site where they audit. */
 export function MyDueAudits({ startHref }: MyDueAuditsProps) {
-  const { data, isPending, isError } = useMyDue();
+  const { data, isPending, isError, fetchStatus, dataUpdatedAt } = useMyDue();
   return (
     <Card className="mb-6">
       <h2 className="text-lg font-semibold">Due for you</h2>
-      {isPending ? (
+      {data !== undefined ? (
+        <KeptFreshness updatedAt={dataUpdatedAt} failed={isError} className="mt-2" />
+      ) : null}
+      {isPending && fetchStatus === "paused" ? (
+        <NotKeptHere what="What is due for you" />
+      ) : isPending ? (
         <Spinner label="Loading what is due…" />
-      ) : isError ? (
+      ) : data === undefined ? (
         <p className="mt-2 text-ink-muted">
           What is due could not be loaded. Try again in a moment.
         </p>

@@ -1,3 +1,4 @@
+import type { AuditDetail } from "@shared/schemas/audits";
 import { useEffect, useState } from "react";
 
 import { Alert } from "@/components/ui/alert";
@@ -11,6 +12,11 @@ export interface StartAuditProps {
   /** Shown as the heading at once, when the space was picked from a list. */
   spaceName: string | null;
   personId: string | null;
+  /**
+   * The audit built from what the phone keeps (checklist version, room facts), so it can begin
+   * with no signal; null to wait for Lintel's copy.
+   */
+  prepare?: (auditId: string, now: Date) => Promise<AuditDetail | null>;
   /** Called with the audit to open: the person's open draft for the space, or a new one. */
   onReady: (auditId: string) => void;
 }
@@ -19,7 +25,7 @@ export interface StartAuditProps {
  * Opens the audit for a space: resumes this person's draft on this phone, or starts a new one
  * with an id made here. Nothing waits for the network; the sync queue tells the server.
  */
-export function StartAudit({ spaceId, spaceName, personId, onReady }: StartAuditProps) {
+export function StartAudit({ spaceId, spaceName, personId, prepare, onReady }: StartAuditProps) {
   const [problem, setProblem] = useState<string | null>(() =>
     hasOfflineStorage()
       ? null
@@ -29,16 +35,22 @@ export function StartAudit({ spaceId, spaceName, personId, onReady }: StartAudit
   useEffect(() => {
     if (!hasOfflineStorage()) return;
     let live = true;
+    const auditId = newDeviceId();
+    const now = new Date();
     auditDevice()
-      .then(({ store }) =>
-        store.openDraft({
+      .then(async ({ store, personId: owner }) => {
+        // Resuming an open draft needs nothing built.
+        const open = (await store.auditsForSpace(spaceId)).find((a) => a.state === "draft");
+        const detail = open || !prepare ? null : await prepare(auditId, now).catch(() => null);
+        return store.openDraft({
           spaceId,
-          spaceName,
-          auditorId: personId,
-          auditId: newDeviceId(),
-          now: new Date(),
-        }),
-      )
+          spaceName: detail?.audit.spaceName ?? spaceName,
+          auditorId: personId ?? owner,
+          auditId,
+          now,
+          detail,
+        });
+      })
       .then(
         (audit) => {
           if (live) onReady(audit.auditId);
@@ -50,7 +62,7 @@ export function StartAudit({ spaceId, spaceName, personId, onReady }: StartAudit
     return () => {
       live = false;
     };
-  }, [spaceId, spaceName, personId, onReady]);
+  }, [spaceId, spaceName, personId, prepare, onReady]);
 
   if (problem) {
     return (

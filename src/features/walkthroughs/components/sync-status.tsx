@@ -7,7 +7,14 @@ type Tone = "saved" | "waiting" | "offline" | "problem";
 
 export function describeSync(status: SyncStatus): { text: string; tone: Tone } {
   const changes = (count: number) => `${count} ${count === 1 ? "change" : "changes"}`;
-  if (!status.online) return { text: "Offline — changes are kept on this phone", tone: "offline" };
+  if (!status.online) {
+    return status.waiting > 0
+      ? {
+          text: `Offline — ${changes(status.waiting)} saved on this phone only, sent when there is signal`,
+          tone: "offline",
+        }
+      : { text: "Offline — changes are kept on this phone", tone: "offline" };
+  }
   if (status.signedOut && status.waiting > 0) {
     return {
       text: `Signed out — ${changes(status.waiting)} kept on this phone until you sign in again`,
@@ -23,7 +30,10 @@ export function describeSync(status: SyncStatus): { text: string; tone: Tone } {
     };
   }
   if (status.waiting > 0) {
-    return { text: `${changes(status.waiting)} waiting to sync`, tone: "waiting" };
+    return {
+      text: `${changes(status.waiting)} saved on this phone only — sending to Lintel`,
+      tone: "waiting",
+    };
   }
   if (status.held > 0) {
     return {
@@ -31,7 +41,7 @@ export function describeSync(status: SyncStatus): { text: string; tone: Tone } {
       tone: "problem",
     };
   }
-  return { text: "All changes saved", tone: "saved" };
+  return { text: "All changes arrived in Lintel", tone: "saved" };
 }
 
 const toneStyles: Record<Tone, string> = {

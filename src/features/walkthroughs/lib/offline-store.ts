@@ -1,6 +1,7 @@
 import type { Answer, AuditDetail } from "@shared/schemas/audits";
 import {
   type DBSchema,
+  deleteDB,
   type IDBPDatabase,
   type IDBPObjectStore,
   openDB,
@@ -96,7 +97,11 @@ type ChangesStore = IDBPObjectStore<
   "readwrite"
 >;
 
-export const auditDatabaseName = "lintel-audits";
+/**
+ * The database every person on the phone once shared. Each person now has their own
+ * (`lintel-audits:<personId>`); drafts left here move to their auditor's on first open.
+ */
+export const sharedAuditDatabaseName = "lintel-audits";
 
 export interface ChangeCounts {
   /** Changes still to send. */
@@ -111,6 +116,19 @@ export interface OpenDraftInput {
   auditorId: string | null;
   auditId: string;
   now: Date;
+  /**
+   * The checklist and room facts as the phone keeps them, so the auditor can begin with no signal;
+   * the start sent later names this checklist version, which the server then keeps.
+   */
+  detail?: AuditDetail | null;
+}
+
+/** What waits on this phone for its person: shown before they sign out. */
+export interface UnsentWork {
+  /** Audits not yet submitted to Lintel, or with changes still to send. */
+  audits: number;
+  /** Changes still to send (or refused and waiting for the auditor). */
+  changes: number;
 }
 
 export interface AuditStore {
@@ -159,6 +177,7 @@ export interface AuditStore {
   /** Removes a sent change, unless it was edited while in flight. */
   completeChange(change: QueuedChange): Promise<void>;
   holdChange(change: QueuedChange, problem: ChangeProblem): Promise<void>;
+  unsentWork(): Promise<UnsentWork>;
 }
 
 export class AuditNotEditableError extends Error {
@@ -213,20 +232,88 @@ function sameFields(a: AnswerFields, b: AnswerFields): boolean {
 }
 
 export interface AuditStoreOptions {
-  /** A separate database, for tests. */
-  name?: string;
+  /** The database to open (each person has their own). */
+  name: string;
+  /**
+   * Whose store it is: their drafts left in the database once shared by everyone on the phone
+   * move here (and drafts nobody claimed, started before anyone was known).
+   */
+  personId?: string;
+  /** Where the shared drafts are looked for (a separate one in tests). */
+  sharedName?: string;
   newId?: () => string;
 }
 
+async function databaseExists(name: string): Promise<boolean> {
+  // Opening a database that is not there would make it: ask first where the browser can say.
+  if (typeof indexedDB.databases !== "function") return true;
+  return (await indexedDB.databases()).some((info) => info.name === name);
+}
+
+/** Moves the person's drafts (with their answers, photos and queued changes) out of the shared database. */
+export async function moveSharedDrafts(
+  target: IDBPDatabase<AuditDb>,
+  personId: string,
+  sharedName: string,
+): Promise<number> {
+  if (!(await databaseExists(sharedName))) return 0;
+  const shared = await openDB<AuditDb>(sharedName, 1, { upgrade });
+  try {
+    const tx = shared.transaction(["audits", "answers", "photos", "changes"], "readwrite");
+    const audits = (await tx.objectStore("audits").getAll()).filter(
+      (audit) => audit.auditorId === personId || audit.auditorId === null,
+    );
+    const moving = new Set(audits.map((audit) => audit.auditId));
+    const answers = (await tx.objectStore("answers").getAll()).filter((a) => moving.has(a.auditId));
+    const photos = (await tx.objectStore("photos").getAll()).filter((p) => moving.has(p.auditId));
+    const changes = (await tx.objectStore("changes").getAll()).filter((c) => moving.has(c.auditId));
+    const remaining = (await tx.objectStore("audits").count()) - audits.length;
+    await tx.done;
+    if (audits.length > 0) {
+      const into = target.transaction(["audits", "answers", "photos", "changes"], "readwrite");
+      for (const audit of audits) {
+        await into.objectStore("audits").put({ ...audit, auditorId: personId });
+      }
+      for (const answer of answers) await into.objectStore("answers").put(answer);
+      for (const photo of photos) await into.objectStore("photos").put(photo);
+      // New sequence numbers, in the same order.
+      for (const change of changes.sort((a, b) => a.seq - b.seq)) {
+        const { seq: _seq, ...rest } = change;
+        await into.objectStore("changes").add(rest as QueuedChange);
+      }
+      await into.done;
+      const out = shared.transaction(["audits", "answers", "photos", "changes"], "readwrite");
+      for (const audit of audits) await out.objectStore("audits").delete(audit.auditId);
+      for (const answer of answers) {
+        await out.objectStore("answers").delete([answer.auditId, answer.itemId]);
+      }
+      for (const photo of photos) await out.objectStore("photos").delete(photo.id);
+      for (const change of changes) await out.objectStore("changes").delete(change.seq);
+      await out.done;
+    }
+    if (remaining === 0) {
+      shared.close();
+      // Not waited for: a tab still holding it open lets go when asked (see `blocking`).
+      void deleteDB(sharedName).catch(() => undefined);
+    }
+    return audits.length;
+  } finally {
+    shared.close();
+  }
+}
+
 export async function openAuditStore({
-  name = auditDatabaseName,
+  name,
+  personId,
+  sharedName = sharedAuditDatabaseName,
   newId = newDeviceId,
-}: AuditStoreOptions = {}): Promise<AuditStore> {
+}: AuditStoreOptions): Promise<AuditStore> {
   const db = await openDB<AuditDb>(name, 1, {
     upgrade,
     // Another tab is upgrading the database: let it.
     blocking: () => db.close(),
   });
+  if (personId) await moveSharedDrafts(db, personId, sharedName);
   const listeners = new Set<() => void>();
   const changed = () => {
     for (const listener of [...listeners]) listener();
@@ -275,7 +362,7 @@ export async function openAuditStore({
       return audits.sort((a, b) => b.startedAt.localeCompare(a.startedAt));
     },
 
-    async openDraft({ spaceId, spaceName, auditorId, auditId, now }) {
+    async openDraft({ spaceId, spaceName, auditorId, auditId, now, detail = null }) {
       const tx = db.transaction(["audits", "changes"], "readwrite");
       const audits = tx.objectStore("audits");
       const open = (await audits.index("bySpace").getAll(spaceId)).find(
@@ -292,7 +379,12 @@ export async function openAuditStore({
         spaceName,
         auditorId,
         startedAt: now.toISOString(),
-        detail: null,
+        detail: detail
+          ? {
+              ...detail,
+              audit: { ...detail.audit, id: auditId, startedAt: now.toISOString() },
+            }
+          : null,
         state: "draft",
         submitRefusals: null,
         updatedAt: now.toISOString(),
@@ -548,6 +640,13 @@ export async function openAuditStore({
       if (current && current.revision === change.revision) await tx.store.delete(change.seq);
       await tx.done;
       changed();
+    },
+
+    async unsentWork() {
+      const [audits, changes] = await Promise.all([db.getAll("audits"), db.getAll("changes")]);
+      const open = new Set(changes.map((change) => change.auditId));
+      for (const audit of audits) if (audit.state !== "submitted") open.add(audit.auditId);
+      return { audits: open.size, changes: changes.length };
     },
 
     async holdChange(change, problem) {

@@ -1,4 +1,4 @@
-import type { Answer, AnswerBody, AuditDetail } from "@shared/schemas/audits";
+import type { Answer, AnswerBody, AuditDetail, StartAuditBody } from "@shared/schemas/audits";
 
 import { isApiError, isTemporarilyUnavailable } from "@/lib/api-client";
 
@@ -13,7 +13,7 @@ import type {
 
 /** The four calls the queue makes; all idempotent on the device-made ids. */
 export interface SyncTransport {
-  startAudit(auditId: string, body: { spaceId: string; startedAt: string }): Promise<AuditDetail>;
+  startAudit(auditId: string, body: StartAuditBody): Promise<AuditDetail>;
   saveAnswer(auditId: string, itemId: string, body: AnswerBody): Promise<Answer>;
   uploadPhoto(
     auditId: string,
@@ -118,9 +118,13 @@ async function send(
     case "start": {
       const audit = await store.getAudit(change.auditId);
       if (!audit) return;
+      // Begun from the checklist the phone keeps: the server pins that version, even if the
+      // checklist was republished while the phone had no signal.
+      const versionId = audit.detail?.audit.checklistVersionId;
       const detail = await transport.startAudit(audit.auditId, {
         spaceId: audit.spaceId,
         startedAt: audit.startedAt,
+        ...(versionId ? { checklistVersionId: versionId } : {}),
       });
       await store.saveDetail(audit.auditId, detail);
       return;
@@ -162,7 +166,14 @@ async function send(
 export async function syncOnce(
   store: AuditStore,
   transport: SyncTransport,
-  { onSubmitted }: { onSubmitted?: SubmittedListener } = {},
+  {
+    onSubmitted,
+    stopped = () => false,
+  }: {
+    onSubmitted?: SubmittedListener;
+    /** Asked before each change: the person signed out, so nothing more goes. */
+    stopped?: () => boolean;
+  } = {},
 ): Promise<SyncRun> {
   const changes = orderForSending(await store.queuedChanges());
   const stuck = new Set<string>();
@@ -170,6 +181,7 @@ export async function syncOnce(
   let sent = 0;
 
   for (const change of changes) {
+    if (stopped()) return { kind: "done", sent };
     if (stuck.has(change.auditId)) continue;
     if (change.problem) {
       unsettled.add(change.auditId);
@@ -282,7 +294,7 @@ export function createSyncScheduler({
       again = false;
       if (!isOnline()) break;
       publish({ syncing: true, online: true });
-      last = await syncOnce(store, transport, { onSubmitted });
+      last = await syncOnce(store, transport, { onSubmitted, stopped: () => stopped });
       if (last.kind !== "done") break;
     } while (again && !stopped);
 
