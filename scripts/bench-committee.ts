@@ -288,10 +288,7 @@ export async function benchCommittee(cluster: Cluster, s3Endpoint: string): Prom
       const endpoints = {
         comparison: {
           url: `${origin}/api/committee/comparison?${query}&siteA=${siteIds[0]}&siteB=${siteIds[1] ?? siteIds[0]}`,
-          sql: [
-            committeeQueries.readinessBySite(siteIds, period),
-            committeeQueries.categoriesBySite(siteIds, period),
-          ],
+          sql: [committeeQueries.comparison(networkId, null, period)],
         },
         trends: {
           url: `${origin}/api/committee/trends?${query}`,
