@@ -313,8 +313,8 @@ export async function benchCommittee(cluster: Cluster, s3Endpoint: string): Prom
         await httpTimes(endpoint.url, cookie, origin, 5); // warm-up
         const http = await httpTimes(endpoint.url, cookie, origin, calls);
         const statements = psqlTimes(cluster, database, endpoint.sql.map(literalSql), calls);
-        // The endpoint runs its statements one after another (the comparison's two at once):
-        // the bare figure is the sum of each statement's own percentile.
+        // The comparison runs one statement; the trends run theirs after the readable sites, some
+        // at once: the bare figure is the sum of each statement's own percentile.
         const sum = (p: number) =>
           statements.reduce((total, times) => total + percentile(times, p), 0);
         scale.endpoints[name] = {
