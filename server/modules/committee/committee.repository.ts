@@ -162,21 +162,49 @@ const agedBuckets = (from: "opened_at" | "due_at", where: SQL) => sql`
  * time exactly these statements in psql beside the endpoints that run them.
  */
 export const committeeQueries = {
-  readinessBySite: (siteIds: readonly string[], period: Period) => sql`
-    select site_id, sum(audits)::int as audits, sum(all_clear)::int as all_clear,
-           sum(gaps_to_fix)::int as gaps_to_fix, sum(hold)::int as hold
-      from audit_month_stats
-     where site_id = any(${siteArray(siteIds)})
-       and month between ${firstDay(period.from)}::date and ${firstDay(period.to)}::date
-       ${zoneFilter(period.zoneType)}
-     group by site_id`,
-  categoriesBySite: (siteIds: readonly string[], period: Period) => sql`
-    select site_id, category, sum(applicable)::int as applicable, sum(passed)::int as passed
-      from answer_month_stats
-     where site_id = any(${siteArray(siteIds)})
-       and month between ${firstDay(period.from)}::date and ${firstDay(period.to)}::date
-       ${zoneFilter(period.zoneType)}
-     group by site_id, category`,
+  /**
+   * The comparison in one statement: the sites the person may read (every site of the network
+   * for a network-wide grant, else `onlyIds`; retired ones too, since their audits happened), the
+   * network's name, each site's audit counts and its answer counts by item group, one row per site
+   * and item group (a site without answers has one row whose group is null), in site-name order.
+   */
+  comparison: (networkId: string, onlyIds: readonly string[] | null, period: Period) => {
+    // A few granted sites are read through the index by id; a whole network by joining its sites.
+    const scope =
+      onlyIds === null
+        ? sql`site_id in (select id from readable)`
+        : sql`site_id = any(${siteArray(onlyIds)})`;
+    return sql`
+    with readable as (
+      select id, name from sites
+       where network_id = ${networkId}
+         ${onlyIds === null ? sql`` : sql`and id = any(${siteArray(onlyIds)})`}
+    ), readiness as (
+      select site_id, sum(audits)::int as audits, sum(all_clear)::int as all_clear,
+             sum(gaps_to_fix)::int as gaps_to_fix, sum(hold)::int as hold
+        from audit_month_stats
+       where ${scope}
+         and month between ${firstDay(period.from)}::date and ${firstDay(period.to)}::date
+         ${zoneFilter(period.zoneType)}
+       group by site_id
+    ), categories as (
+      select site_id, category, sum(applicable)::int as applicable, sum(passed)::int as passed
+        from answer_month_stats
+       where ${scope}
+         and month between ${firstDay(period.from)}::date and ${firstDay(period.to)}::date
+         ${zoneFilter(period.zoneType)}
+       group by site_id, category
+    )
+    select r.id as site_id, r.name as site_name,
+           (select name from networks where id = ${networkId}) as network_name,
+           coalesce(a.audits, 0) as audits, coalesce(a.all_clear, 0) as all_clear,
+           coalesce(a.gaps_to_fix, 0) as gaps_to_fix, coalesce(a.hold, 0) as hold,
+           c.category, c.applicable, c.passed
+      from readable r
+      left join readiness a on a.site_id = r.id
+      left join categories c on c.site_id = r.id
+     order by r.name, r.id`;
+  },
   readinessByMonth: (siteIds: readonly string[], period: Period) => sql`
     select site_id, to_char(month, 'YYYY-MM') as month, sum(audits)::int as audits,
            sum(all_clear)::int as all_clear
@@ -218,24 +246,28 @@ export const committeeQueries = {
      group by ca.site_id, ca.severity`,
 };
 
-export async function readinessBySite(db: DbOrTx, siteIds: readonly string[], period: Period) {
-  const result = await db.execute<{
-    site_id: string;
-    audits: number;
-    all_clear: number;
-    gaps_to_fix: number;
-    hold: number;
-  }>(committeeQueries.readinessBySite(siteIds, period));
-  return result.rows;
-}
+export type ComparisonRow = {
+  site_id: string;
+  site_name: string;
+  network_name: string | null;
+  audits: number;
+  all_clear: number;
+  gaps_to_fix: number;
+  hold: number;
+  category: string | null;
+  applicable: number | null;
+  passed: number | null;
+};
 
-export async function categoriesBySite(db: DbOrTx, siteIds: readonly string[], period: Period) {
-  const result = await db.execute<{
-    site_id: string;
-    category: string;
-    applicable: number;
-    passed: number;
-  }>(committeeQueries.categoriesBySite(siteIds, period));
+export async function comparisonRows(
+  db: DbOrTx,
+  networkId: string,
+  onlyIds: readonly string[] | null,
+  period: Period,
+) {
+  const result = await db.execute<ComparisonRow>(
+    committeeQueries.comparison(networkId, onlyIds, period),
+  );
   return result.rows;
 }
 

@@ -41,44 +41,47 @@ export async function readableSites(db: Database, networkId: string, grants: rea
   }));
 }
 
+/** The site ids a person's grants limit them to, or null when a network-wide grant covers all. */
+function grantedSiteIds(grants: readonly RoleGrant[]): string[] | null {
+  if (grants.some((grant) => grant.siteId === null)) return null;
+  return [...new Set(grants.flatMap((grant) => (grant.siteId ? [grant.siteId] : [])))];
+}
+
+type ComparisonSite = ComparisonResponse["sites"][number];
+
 export async function comparison(
   db: Database,
   networkId: string,
   grants: readonly RoleGrant[],
   query: CommitteeQuery,
 ): Promise<ComparisonResponse> {
-  const [sites, name] = await Promise.all([
-    readableSites(db, networkId, grants),
-    networkName(db, networkId),
-  ]);
-  const ids = sites.map((site) => site.id);
-  const [readiness, categories] = await Promise.all([
-    repo.readinessBySite(db, ids, query),
-    repo.categoriesBySite(db, ids, query),
-  ]);
-  // Looked up by key, not searched: 40 sites × 8 item groups over hundreds of rows adds up.
-  const readinessBySite = new Map(readiness.map((row) => [row.site_id, row]));
-  const categoryRows = new Map(categories.map((row) => [`${row.site_id} ${row.category}`, row]));
-  const rows = sites.map((site) => {
-    const counts = readinessBySite.get(site.id);
-    const audits = counts?.audits ?? 0;
-    return {
-      siteId: site.id,
-      siteName: site.name,
-      readiness: proportion(counts?.all_clear ?? 0, audits),
-      verdicts: {
-        all_clear: counts?.all_clear ?? 0,
-        gaps_to_fix: counts?.gaps_to_fix ?? 0,
-        hold: counts?.hold ?? 0,
-      },
-      categories: itemCategories.flatMap((category) => {
-        const row = categoryRows.get(`${site.id} ${category}`);
-        return row && row.applicable > 0
-          ? [{ category, ...proportion(row.passed, row.applicable) }]
-          : [];
-      }),
-      rank: null as number | null,
-    };
+  // One round trip: the readable sites, the network's name and both sets of counts together.
+  const found = await repo.comparisonRows(db, networkId, grantedSiteIds(grants), query);
+  const name = found[0]?.network_name ?? (await networkName(db, networkId));
+  const rows: ComparisonSite[] = [];
+  const groupsOf: Map<string, { applicable: number; passed: number }>[] = [];
+  // The rows come one per site and item group, in site-name order: a site's rows are adjacent.
+  for (const row of found) {
+    if (rows.at(-1)?.siteId !== row.site_id) {
+      rows.push({
+        siteId: row.site_id,
+        siteName: row.site_name,
+        readiness: proportion(row.all_clear, row.audits),
+        verdicts: { all_clear: row.all_clear, gaps_to_fix: row.gaps_to_fix, hold: row.hold },
+        categories: [],
+        rank: null,
+      });
+      groupsOf.push(new Map());
+    }
+    if (row.category !== null)
+      groupsOf.at(-1)!.set(row.category, { applicable: row.applicable!, passed: row.passed! });
+  }
+  rows.forEach((site, index) => {
+    for (const category of itemCategories) {
+      const counts = groupsOf[index]!.get(category);
+      if (counts && counts.applicable > 0)
+        site.categories.push({ category, ...proportion(counts.passed, counts.applicable) });
+    }
   });
   // Only sites with enough audits are ranked; the others keep their interval and a flag.
   const ranked = rows
