@@ -3,6 +3,7 @@ import type { Browser } from "playwright-core";
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
 
 import { baseUrl, launchBrowser, phonePage } from "../helpers/browser";
+import { answerDoffingItem } from "../helpers/doffing-steps";
 
 describe("an audit on a phone that loses its connection half-way (390×844)", () => {
   let browser: Browser;
@@ -56,23 +57,10 @@ describe("an audit on a phone that loses its connection half-way (390×844)", ()
         await context.route("**/api/**", (route) => route.abort());
         await page.getByText(/^Offline — /).waitFor();
       }
-      const text = (await page.getByRole("heading", { level: 2 }).first().textContent()) ?? "";
-      if (text.startsWith("Dirty chair present")) {
-        await page.getByRole("button", { name: "Fail", exact: true }).click();
-        await page.getByLabel("Note").fill("No dirty chair; staff sit on the bin lid");
-        await page
-          .getByLabel("Add photo")
-          .setInputFiles({ name: "chair.png", mimeType: "image/png", buffer: chairPhoto });
-        await page.getByRole("list", { name: "Photos of this item" }).waitFor();
-      } else if (text.startsWith("Number of working")) {
-        await page.getByLabel("Count").fill("2");
-      } else if (text.startsWith("Mirror or observer")) {
-        await page.getByRole("button", { name: "Mirror", exact: true }).click();
-      } else {
-        await page.getByRole("button", { name: "Pass", exact: true }).click();
-      }
-      // "Next" on the last item opens the review.
-      await page.getByRole("button", { name: "Next", exact: true }).click();
+      await answerDoffingItem(page, {
+        note: "No dirty chair; staff sit on the bin lid",
+        photo: { name: "chair.png", buffer: chairPhoto },
+      });
     }
 
     await page.getByRole("button", { name: "Submit audit" }).click();

@@ -5,6 +5,7 @@ import { afterAll, beforeAll, describe, expect, it } from "vitest";
 import type { ChecklistItem } from "@shared/schemas/checklists";
 
 import { baseUrl, launchBrowser, phonePage } from "../helpers/browser";
+import { answerDoffingItem } from "../helpers/doffing-steps";
 import { waitForKept } from "../helpers/kept";
 
 const password = "lintel-demo-2026";
@@ -166,22 +167,10 @@ describe("an audit begun with no signal at all (390×844)", () => {
       .toBuffer();
     for (let index = 1; index <= total; index += 1) {
       await page.getByText(`Item ${index} of ${total}`, { exact: true }).waitFor();
-      const text = (await page.getByRole("heading", { level: 2 }).first().textContent()) ?? "";
-      if (text.startsWith("Dirty chair present")) {
-        await page.getByRole("button", { name: "Fail", exact: true }).click();
-        await page.getByLabel("Note").fill("The dirty chair is missing from the bay");
-        await page
-          .getByLabel("Add photo")
-          .setInputFiles({ name: "bay.png", mimeType: "image/png", buffer: chairPhoto });
-        await page.getByRole("list", { name: "Photos of this item" }).waitFor();
-      } else if (text.startsWith("Number of working")) {
-        await page.getByLabel("Count").fill("2");
-      } else if (text.startsWith("Mirror or observer")) {
-        await page.getByRole("button", { name: "Mirror", exact: true }).click();
-      } else {
-        await page.getByRole("button", { name: "Pass", exact: true }).click();
-      }
-      await page.getByRole("button", { name: "Next", exact: true }).click();
+      await answerDoffingItem(page, {
+        note: "The dirty chair is missing from the bay",
+        photo: { name: "bay.png", buffer: chairPhoto },
+      });
     }
     await page.getByRole("button", { name: "Submit audit" }).click();
     await page.getByRole("heading", { level: 2, name: "Hold until fixed" }).waitFor();
