@@ -1,4 +1,4 @@
-import { mkdtempSync, readdirSync, rmSync, statSync } from "node:fs";
+import { mkdtempSync, readFileSync, rmSync, statSync } from "node:fs";
 import os from "node:os";
 import path from "node:path";
 import { pathToFileURL } from "node:url";
@@ -42,6 +42,8 @@ interface PhoneFigures {
 
 /** Each page is opened this many times, each on a cold cache; the table shows the medians. */
 const runsPerPage = Number(process.env.BENCH_PHONE_RUNS ?? 3);
+/** `BENCH_PHONE_PAGES=audit,home`: only the pages whose label starts with one of these. */
+const onlyPages = process.env.BENCH_PHONE_PAGES?.split(",").map((name) => name.trim());
 
 function median(runs: PhoneFigures[]): PhoneFigures {
   const middle = <K extends keyof PhoneFigures>(key: K) =>
@@ -164,7 +166,23 @@ async function measurePage(
               value: number;
               hadRecentInput: boolean;
             })[])
-              if (!entry.hadRecentInput) cls += entry.value;
+              if (!entry.hadRecentInput) {
+                cls += entry.value;
+                const sources = (
+                  entry as unknown as {
+                    sources?: { node?: Node; previousRect: DOMRect; currentRect: DOMRect }[];
+                  }
+                ).sources;
+                (window as unknown as { shifts?: string[] }).shifts = [
+                  ...((window as unknown as { shifts?: string[] }).shifts ?? []),
+                  `${entry.startTime.toFixed(0)} ${entry.value.toFixed(3)} ${(sources ?? [])
+                    .map(
+                      (source) =>
+                        `${source.node?.nodeName ?? "?"}.${(source.node as Element | undefined)?.className ?? ""} ${source.previousRect.y}→${source.currentRect.y} h${source.previousRect.height}→${source.currentRect.height}`,
+                    )
+                    .join(" | ")}`,
+                ];
+              }
           }).observe({ type: "layout-shift", buffered: true });
           setTimeout(() => resolve({ lcpMs, cls }), 100);
         }),
@@ -182,6 +200,7 @@ async function measurePage(
             .join("\n"),
         ),
         await page.evaluate(() => (window as unknown as { lcpElements?: string[] }).lcpElements),
+        await page.evaluate(() => (window as unknown as { shifts?: string[] }).shifts),
       );
 
     // The service worker's own downloads come after the page is idle: wait until it is active
@@ -219,13 +238,28 @@ async function measurePage(
   }
 }
 
-/** The main chunk: the entry's own file, with the compressed copies the build writes beside it. */
+/**
+ * The main chunk: the largest of the files the page loads before anything else (the entry and
+ * what it imports, from the build's manifest), with the compressed copies written beside it.
+ */
 function mainChunkSizes(clientDir: string) {
-  const assets = path.join(clientDir, "assets");
-  const main = readdirSync(assets).find((file) => /^index-[\w-]+\.js$/.test(file));
+  const manifest = JSON.parse(
+    readFileSync(path.join(clientDir, ".vite", "manifest.json"), "utf8"),
+  ) as Record<string, { file: string; imports?: string[] }>;
+  const entry = manifest["index.html"];
+  if (!entry) return null;
+  const size = (file: string) =>
+    statSync(path.join(clientDir, file), { throwIfNoEntry: false })?.size ?? 0;
+  const main = [entry.file, ...(entry.imports ?? []).map((key) => manifest[key]?.file ?? "")]
+    .filter((file) => file.endsWith(".js"))
+    .sort((a, b) => size(b) - size(a))[0];
   if (!main) return null;
-  const size = (file: string) => statSync(path.join(assets, file)).size;
-  return { file: main, raw: size(main), gzip: size(`${main}.gz`), brotli: size(`${main}.br`) };
+  return {
+    file: path.basename(main),
+    raw: size(main),
+    gzip: size(`${main}.gz`),
+    brotli: size(`${main}.br`),
+  };
 }
 
 /** A space the demo auditor may audit: the first one on the first floor of their first site. */
@@ -280,6 +314,7 @@ export async function benchPhone(cluster: Cluster, s3Endpoint: string): Promise<
       ["home page", "/", "My sites", true],
       ["audit screen", `/spaces/${spaceId}/audit`, "Item 1 of", true],
     ] as const) {
+      if (onlyPages && !onlyPages.some((name) => label.startsWith(name))) continue;
       const runs: PhoneFigures[] = [];
       for (let run = 0; run < runsPerPage; run += 1)
         runs.push(await measurePage(browser, label, origin, `${origin}${route}`, ready, signedIn));
@@ -327,9 +362,10 @@ export async function benchPhone(cluster: Cluster, s3Endpoint: string): Promise<
       );
     }
     const first = pages[0]!;
-    console.log(
-      `service worker, after the sign-in page is idle: ${kb(first.workerBytes)} in ${first.workerRequests} requests (not in the page's bytes)`,
-    );
+    if (first.label === "sign-in page")
+      console.log(
+        `service worker, after the sign-in page is idle: ${kb(first.workerBytes)} in ${first.workerRequests} requests (not in the page's bytes)`,
+      );
     const main = mainChunkSizes(clientDir);
     if (main)
       console.log(
