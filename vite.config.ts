@@ -1,3 +1,4 @@
+import { readFileSync } from "node:fs";
 import { readdir, readFile, writeFile } from "node:fs/promises";
 import path from "node:path";
 import { fileURLToPath } from "node:url";
@@ -12,23 +13,22 @@ import { VitePWA } from "vite-plugin-pwa";
 const here = (path: string) => fileURLToPath(new URL(path, import.meta.url));
 
 /**
- * Adds `<link rel="preload" as="font">` for the built font file whose name matches `file`, so the
- * phone asks for the body text's font with the page's first files instead of once the styles are
- * applied. Only one weight: the others arrive as the text that uses them appears.
+ * Adds `<link rel="preload" as="font">` for each built font file matching one of `files`, so the
+ * phone asks for the fonts with the page's first files instead of once the styles are applied.
  */
-function preloadFont(file: RegExp): Plugin {
+function preloadFonts(files: RegExp[]): Plugin {
   return {
     name: "lintel-preload-font",
     apply: "build",
     transformIndexHtml: {
       order: "post",
       handler(_html, context) {
-        const font = Object.values(context.bundle ?? {}).find(
-          (output) => output.type === "asset" && file.test(output.fileName),
-        );
-        if (!font) throw new Error(`No built font file matches ${file}: nothing to preload.`);
-        return [
-          {
+        return files.map((file) => {
+          const font = Object.values(context.bundle ?? {}).find(
+            (output) => output.type === "asset" && file.test(output.fileName),
+          );
+          if (!font) throw new Error(`No built font file matches ${file}: nothing to preload.`);
+          return {
             tag: "link",
             attrs: {
               rel: "preload",
@@ -37,12 +37,25 @@ function preloadFont(file: RegExp): Plugin {
               href: `/${font.fileName}`,
               crossorigin: "",
             },
-            injectTo: "head",
-          },
-        ];
+            injectTo: "head" as const,
+          };
+        });
       },
     },
   };
+}
+
+/**
+ * Whether a module of Lintel's own keeps something between calls: a variable, a map or set, a
+ * React context, a listener. Such a module must exist once on the page, so it is never copied
+ * into the screens that share it (see `experimentalInlineCommonChunks` below).
+ */
+function holdsState(id: string): boolean {
+  if (id.includes("node_modules") || !/\.(ts|tsx)$/.test(id)) return id.includes("node_modules");
+  const source = readFileSync(id, "utf8");
+  return /^(export )?(let|var) |createContext\(|^(export )?const \w+[^=]*= new (Map|Set|WeakMap|BroadcastChannel|EventTarget)\b|^(window|document|self|globalThis)\.addEventListener/m.test(
+    source,
+  );
 }
 
 /**
@@ -85,7 +98,12 @@ export default defineConfig({
     react(),
     tailwindcss(),
     // The body text's weight; 600 and 700 follow when headings need them (all use font-display: swap).
-    preloadFont(/noto-sans-latin-400-normal-[\w-]+\.woff2$/),
+    // Both weights: text drawn first in a fallback font and then in Noto Sans rewraps, and a
+    // status line that went from two lines to one moved the audit screen below it.
+    preloadFonts([
+      /noto-sans-latin-400-normal-[\w-]+\.woff2$/,
+      /noto-sans-latin-600-normal-[\w-]+\.woff2$/,
+    ]),
     // The service worker (sw.js, with Workbox's runtime beside it): keeps the built shell on the
     // phone so the app opens with no signal. The page registers it only once the first page is
     // idle (src/lib/service-worker.ts), and a new version waits until the person taps "Reload".
@@ -134,6 +152,19 @@ export default defineConfig({
     sourcemap: true,
     // Lets `npm run bench` weigh what each screen loads first.
     manifest: true,
+    // Fewer, larger screen files: on a phone each file costs a round trip, and a screen that
+    // needed some forty files of under a kilobyte each waited on them six at a time. Everything
+    // the first page needs stays in one file, and shared pieces under 4 KB are copied into the
+    // screens that use them, except a piece that holds state: that must exist once.
+    rolldownOptions: {
+      preserveEntrySignatures: false,
+      output: {
+        codeSplitting: {
+          groups: [{ name: "main", tags: ["$initial"], priority: 10 }],
+          experimentalInlineCommonChunks: { maxSize: 4096, exclude: holdsState },
+        },
+      },
+    },
   },
   server: {
     host: "127.0.0.1",

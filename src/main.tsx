@@ -4,9 +4,6 @@ import { StrictMode } from "react";
 import { createRoot } from "react-dom/client";
 
 import { App } from "@/app/app";
-import { preloadFirstPage } from "@/app/first-page";
-
-preloadFirstPage(window.location.pathname);
 
 const root = document.getElementById("root");
 if (!root) throw new Error("Lintel needs an element with id 'root' to start.");

@@ -3,6 +3,7 @@ import { createBrowserRouter, RouterProvider } from "react-router-dom";
 import { meQueryOptions } from "@/features/auth/api/get-me";
 import { createQueryClient } from "@/lib/query-client";
 
+import { preloadFirstPage } from "./first-page";
 import { AppProvider } from "./provider";
 import { type AppRouter, createRoutes, sendToSignIn } from "./router";
 
@@ -14,6 +15,9 @@ function createAppState() {
   // Who is signed in decides what every page shows: ask at once, while the first page's own
   // files are still on their way, rather than after they arrive.
   void queryClient.prefetchQuery(meQueryOptions());
+  // Then the opened page's own files: asked second, so the phone's few connections carry the
+  // question of who is signed in before a screen's dozen files.
+  preloadFirstPage(window.location.pathname);
   const router: AppRouter = createBrowserRouter(createRoutes(queryClient));
   return { queryClient, router };
 }

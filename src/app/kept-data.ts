@@ -29,6 +29,10 @@ import {
   readKeptQueries,
   saveKeptQueries,
 } from "@/lib/kept-store";
+
+// Reached through this module, which every signed-in page has loaded by then: a file of its own
+// could still be on the server when the signal goes.
+export { askForPersistentStorage } from "@/lib/kept-store";
 import { canAnywhere } from "@/lib/authorization";
 import { phonePersonId } from "@/lib/phone-person";
 import { planImageUrl as planUrl } from "@/lib/use-plan-image";

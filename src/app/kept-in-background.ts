@@ -32,7 +32,7 @@ export function useKeptForOffline(queryClient: QueryClient, me: MeResponse | nul
       });
     };
     timer = setTimeout(() => {
-      void import("@/lib/kept-store").then((module) => module.askForPersistentStorage());
+      void keptData().then((module) => module.askForPersistentStorage());
       keep();
     }, afterFirstPaintMs);
     const unsubscribeOnline = onlineManager.subscribe((online) => {

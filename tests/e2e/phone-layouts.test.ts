@@ -264,6 +264,66 @@ describe("phone layouts", () => {
     expect(problems).toEqual([]);
   }, 150_000);
 
+  it("when the auditor opens a space's QR link on a phone that has not opened Lintel's screens before, on a slow processor, and the audit's start takes a moment to arrive, then the audit screen does not shift while the status says it is sending and then that it arrived", async () => {
+    const db = new pg.Client({ connectionString: process.env.LINTEL_E2E_DATABASE_URL });
+    await db.connect();
+    let spaceId: string;
+    try {
+      // A space with no audit open, far down the list so other tests' picks stay their own.
+      const { rows } = await db.query<{ id: string }>(`
+        select sp.id from spaces sp
+          join floors f on f.id = sp.floor_id
+          join sites s on s.id = f.site_id
+         where s.name = 'Tamsin Bay General Hospital' and sp.retired_at is null
+           and not exists (select 1 from audits a where a.space_id = sp.id and a.status = 'draft')
+         order by sp.name desc limit 1`);
+      spaceId = rows[0]!.id;
+    } finally {
+      await db.end();
+    }
+    const problems: string[] = [];
+    const signedIn = await phoneContext(browser, phones[1], problems);
+    try {
+      const first = await signedIn.newPage();
+      await signIn(first, "auditor@example.org", password);
+      await first.getByRole("heading", { level: 1, name: "My sites" }).waitFor();
+      // A second context from the same cookies: the session, but none of the screens' files.
+      const context = await phoneContext(browser, phones[1], problems, signedIn);
+      try {
+        await context.addInitScript(layoutShiftCounter);
+        // The start reaches Lintel a second late, as over one bar of signal.
+        await context.route(`**/api/audits/*`, async (route) => {
+          if (route.request().method() === "PUT") await new Promise((r) => setTimeout(r, 1000));
+          await route.continue();
+        });
+        const page = await context.newPage();
+        // A mid-range phone's processor: the steps between the audit's arrival and the status
+        // saying so are far enough apart to be drawn.
+        const cdp = await context.newCDPSession(page);
+        await cdp.send("Emulation.setCPUThrottlingRate", { rate: 4 });
+        await page.goto(`${baseUrl()}/spaces/${spaceId}/audit`);
+        await page.getByText(/Item 1 of/).waitFor();
+        await page
+          .getByRole("status")
+          .filter({ hasText: "All changes arrived in Lintel" })
+          .waitFor();
+        await page.waitForTimeout(300);
+        const shift = await page.evaluate<number>("window.__layoutShift");
+        const sources = await page.evaluate<string[]>("window.__shiftSources");
+        if (process.env.LINTEL_SHOTS_DIR)
+          await page.screenshot({
+            path: path.join(process.env.LINTEL_SHOTS_DIR, "auditor-qr-start-cold.png"),
+          });
+        expect(shift, sources.join("\n")).toBeLessThanOrEqual(0.1);
+      } finally {
+        await context.close();
+      }
+    } finally {
+      await signedIn.close();
+    }
+    expect(problems).toEqual([]);
+  });
+
   it("when words kept for screen readers sit at the far end of a wide table in a frame that scrolls sideways, then the page stays as wide as the phone", async () => {
     const context = await phoneContext(browser, phones[0]);
     try {

@@ -1,21 +1,15 @@
 import type { MeResponse } from "@shared/schemas/auth";
 import { type QueryClient, useQueryClient } from "@tanstack/react-query";
-import { lazy, Suspense } from "react";
 import { Link, type LoaderFunctionArgs, Outlet, redirect } from "react-router-dom";
 
 import { BrandMark } from "@/components/ui/brand-mark";
 import { paths } from "@/config/paths";
 import { meQueryOptions, useMe } from "@/features/auth/api/get-me";
+import { SyncStatusNote } from "@/features/walkthroughs/components/sync-status";
 import { AuthorizationProvider } from "@/lib/authorization";
 
 import { useAuditSyncInBackground } from "../background-sync";
 import { useKeptForOffline } from "../kept-in-background";
-
-const SyncStatusNote = lazy(() =>
-  import("@/features/walkthroughs/components/sync-status").then((module) => ({
-    default: module.SyncStatusNote,
-  })),
-);
 
 function signInHref(request: Request): string {
   const url = new URL(request.url);
@@ -62,7 +56,7 @@ export function AuditLayout() {
           Skip to content
         </a>
         <header className="sticky top-0 z-20 border-b border-surface-line bg-surface/95 backdrop-blur">
-          <div className="mx-auto flex min-h-14 max-w-2xl items-center justify-between gap-3 px-4 py-2">
+          <div className="mx-auto flex min-h-16 max-w-2xl items-center justify-between gap-3 px-4 py-2">
             <Link
               to={paths.home.getHref()}
               className="inline-flex min-h-tap items-center gap-2 rounded-lg font-semibold text-brand-800"
@@ -70,9 +64,9 @@ export function AuditLayout() {
               <BrandMark className="size-7" />
               <span className="max-[420px]:sr-only">My sites</span>
             </Link>
-            <Suspense fallback={null}>
-              <SyncStatusNote />
-            </Suspense>
+            {/* The header keeps room for a two-line status, so the screen below does not move
+                as the status changes length while an audit starts and sends. */}
+            <SyncStatusNote className="leading-tight" />
           </div>
         </header>
         <main
