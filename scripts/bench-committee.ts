@@ -3,6 +3,7 @@ import { mkdtempSync, rmSync, writeFileSync } from "node:fs";
 import http from "node:http";
 import os from "node:os";
 import path from "node:path";
+import { pathToFileURL } from "node:url";
 import zlib from "node:zlib";
 
 import { PgDialect } from "drizzle-orm/pg-core";
@@ -20,8 +21,9 @@ import {
   type Period,
 } from "../server/modules/committee/committee.repository";
 import { startServer } from "../server/server";
-import type { Cluster } from "./lib/postgres";
+import { prepareCluster, type Cluster } from "./lib/postgres";
 import { freePort } from "./lib/process";
+import { startS3Fake } from "./lib/s3-fake";
 
 /**
  * The committee's comparison and trends at network scale: 40 sites × 60 spaces × weekly audits
@@ -32,7 +34,9 @@ const sitesInAll = Number(process.env.BENCH_COMMITTEE_SITES ?? 40);
 const spacesPerSite = 60;
 const weeks = 104;
 const itemsPerChecklist = 24;
-const calls = Number(process.env.BENCH_COMMITTEE_CALLS ?? 60);
+const calls = Number(process.env.BENCH_COMMITTEE_CALLS ?? 200);
+/** The calls go in this many alternating rounds of HTTP and psql. */
+const rounds = 10;
 const password = "bench committee passphrase";
 
 const percentile = (values: number[], p: number) => {
@@ -358,8 +362,18 @@ export async function benchCommittee(cluster: Cluster, s3Endpoint: string): Prom
       scale.baseline = { p50: percentile(me, 50), p95: percentile(me, 95) };
       for (const [name, endpoint] of Object.entries(endpoints)) {
         await httpTimes(endpoint.url, cookie, origin, 5); // warm-up
-        const http = await httpTimes(endpoint.url, cookie, origin, calls);
-        const statements = psqlTimes(cluster, database, endpoint.sql.map(literalSql), calls);
+        // In alternating rounds, so that whatever else the machine does at a given moment
+        // weighs on both sides alike rather than on whichever ran then.
+        const http: number[] = [];
+        const statements: number[][] = endpoint.sql.map(() => []);
+        const literal = endpoint.sql.map(literalSql);
+        for (let round = 0; round < rounds; round += 1) {
+          const share = Math.ceil(calls / rounds);
+          http.push(...(await httpTimes(endpoint.url, cookie, origin, share)));
+          psqlTimes(cluster, database, literal, share).forEach((times, index) =>
+            statements[index]!.push(...times),
+          );
+        }
         // The comparison runs one statement; the trends run theirs after the readable sites, some
         // at once: the bare figure is the sum of each statement's own percentile.
         const sum = (p: number) =>
@@ -439,5 +453,22 @@ export async function benchCommittee(cluster: Cluster, s3Endpoint: string): Prom
     agent.destroy();
     await client.end();
     await server.close();
+  }
+}
+
+// `npx tsx scripts/bench-committee.ts`: the committee figures alone, on a throwaway cluster
+// (`BENCH_COMMITTEE_SITES=4` seeds in seconds rather than minutes).
+if (import.meta.url === pathToFileURL(process.argv[1] ?? "").href) {
+  const folder = mkdtempSync(path.join(os.tmpdir(), "lintel-bench-committee-db-"));
+  const s3Dir = mkdtempSync(path.join(os.tmpdir(), "lintel-bench-committee-s3-"));
+  const cluster = await prepareCluster({ folder, port: await freePort(), throwaway: true });
+  await cluster.start();
+  const s3 = await startS3Fake({ dir: s3Dir });
+  try {
+    await benchCommittee(cluster, s3.endpoint);
+  } finally {
+    await s3.stop();
+    cluster.destroy();
+    rmSync(s3Dir, { recursive: true, force: true });
   }
 }
