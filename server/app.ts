@@ -20,6 +20,9 @@ const requestIdPattern = /^[A-Za-z0-9._-]{8,64}$/;
 export function createApp(deps: AppDeps): express.Express {
   const { env } = deps;
   const app = express();
+  // No ETag on replies sent whole: every API reply is no-store, so a tag is never asked back, and
+  // hashing a 50 KB reply costs each request. Built files keep theirs (set by the static server).
+  app.set("etag", false);
   app.disable("x-powered-by");
   if (env.LINTEL_TRUST_PROXY) {
     const value = env.LINTEL_TRUST_PROXY;

@@ -1,3 +1,5 @@
+import { brotliCompressSync, constants, gzipSync } from "node:zlib";
+
 import compression from "compression";
 import type { Request, RequestHandler, Response } from "express";
 
@@ -23,7 +25,61 @@ export function mayCompress(req: Request, res: Response): boolean {
   return compression.filter(req, res);
 }
 
+/** The encoding to send a whole reply in, of those the caller accepts; null to send it plain. */
+function chosenEncoding(req: Request): "br" | "gzip" | null {
+  const accepted = req.acceptsEncodings() as string[];
+  if (accepted.includes("br")) return "br";
+  if (accepted.includes("gzip")) return "gzip";
+  return null;
+}
+
+/**
+ * A reply handed over whole (every JSON answer) is compressed here in one step, at the quality
+ * the `compression` package uses for brotli. That package compresses through a stream set up for
+ * each reply, which cost the committee's 50 KB comparison about a millisecond more at the median
+ * and two more at the 95th percentile (`npm run bench`). Replies written piece by piece, such as
+ * the CSV exports, still go through it.
+ */
+function compressWholeReplies(): RequestHandler {
+  return (req, res, next) => {
+    const send = res.send.bind(res);
+    res.send = (body?: unknown) => {
+      if (
+        (typeof body === "string" || Buffer.isBuffer(body)) &&
+        req.method !== "HEAD" &&
+        res.statusCode !== 204 &&
+        res.statusCode !== 304 &&
+        res.getHeader("Content-Encoding") === undefined
+      ) {
+        const raw = typeof body === "string" ? Buffer.from(body) : body;
+        if (raw.length >= apiCompressionThreshold && mayCompress(req, res)) {
+          res.vary("Accept-Encoding");
+          const encoding = chosenEncoding(req);
+          if (encoding) {
+            res.setHeader("Content-Encoding", encoding);
+            return send(
+              encoding === "br"
+                ? brotliCompressSync(raw, {
+                    params: {
+                      [constants.BROTLI_PARAM_QUALITY]: 4,
+                      [constants.BROTLI_PARAM_SIZE_HINT]: raw.length,
+                    },
+                  })
+                : gzipSync(raw),
+            );
+          }
+        }
+      }
+      return send(body);
+    };
+    next();
+  };
+}
+
 /** Compresses API replies above the threshold, except those `mayCompress` keeps plain. */
-export function compressApiReplies(): RequestHandler {
-  return compression({ threshold: apiCompressionThreshold, filter: mayCompress });
+export function compressApiReplies(): RequestHandler[] {
+  return [
+    compressWholeReplies(),
+    compression({ threshold: apiCompressionThreshold, filter: mayCompress }),
+  ];
 }
