@@ -13,3 +13,4 @@ export * from "./audits";
 export * from "./checklists";
 export * from "./actions";
 export * from "./committee";
+export * from "./observations";
