@@ -100,6 +100,26 @@ describe("observations of putting-on and removal", () => {
     expect(logged!.n).toBe(1);
   });
 
+  it("when the same observation arrives four times at once, then one reply is 201, the others 200, and it is stored once", async () => {
+    const space = await insertSpace(db(), floorA, "doffing_area");
+    const id = crypto.randomUUID();
+    const body = buildObservation(space.id, removal, {
+      breaches: { gown: [spaceBreach("item_dropped_or_wrong_container", "bin_full")] },
+    });
+    const replies = await Promise.all(
+      Array.from({ length: 4 }, () => as(auditorA).put(`/api/observations/${id}`).send(body)),
+    );
+    expect(replies.map((reply) => reply.status).sort()).toEqual([200, 200, 200, 201]);
+    for (const reply of replies) expect(reply.body).toEqual(replies[0]!.body);
+    expect(await countWhere(observations, id)).toBe(1);
+    expect(await countWhere(observationBreaches, id)).toBe(1);
+    const [actions] = await db()
+      .select({ n: count() })
+      .from(correctiveActions)
+      .where(eq(correctiveActions.spaceId, space.id));
+    expect(actions!.n).toBe(1);
+  });
+
   it("when the same id comes with other content, then 409 and the first stays as it was", async () => {
     const space = await insertSpace(db(), floorA, "doffing_area");
     const id = crypto.randomUUID();
