@@ -12,9 +12,12 @@ import {
   floors,
   networks,
   roleGrants,
+  sequenceVersions,
   sites,
   users,
 } from "../../server/db/schema/index";
+import { defaultSequences } from "@shared/observations/default-sequences";
+
 import { demoPassword, demoPeople } from "../../server/demo/people";
 import { runDemoSteps, type DemoStep } from "../../server/demo/run-demo-steps";
 import { demoStepList } from "../../server/demo/steps";
@@ -368,5 +371,22 @@ describe("demo data", () => {
         ),
       );
     expect(unopened!.n).toBe(0);
+  });
+
+  it("when the demo data is loaded, then the demo network has Lintel's four default sequences, each published as version 1", async () => {
+    const { db: database, logger, storage } = testApp().deps;
+    await runDemoSteps(database, logger, demoStepList, { storage });
+    const rows = await database
+      .select({
+        key: sequenceVersions.key,
+        version: sequenceVersions.version,
+        status: sequenceVersions.status,
+      })
+      .from(sequenceVersions)
+      .innerJoin(networks, eq(networks.id, sequenceVersions.networkId))
+      .where(eq(networks.name, "Tamsin Bay Health"));
+    expect(rows.map((row) => `${row.key} v${row.version} ${row.status}`).sort()).toEqual(
+      defaultSequences.map((sequence) => `${sequence.key} v1 published`).sort(),
+    );
   });
 });
