@@ -36,7 +36,7 @@ export interface ObservationDraft {
   /** One per step of the sequence, filled as the observer goes. */
   steps: (StepRecord | null)[];
   /** The step on screen (index into the sequence's steps). */
-  current: number;
+  stepIndex: number;
   coachingGiven: boolean | null;
   coachingNote: string;
   phase: ObservationPhase;
@@ -70,7 +70,7 @@ export function newObservationDraft(input: {
     startedAt: null,
     precheck: { waste_not_overfull: null, hand_rub_within_reach: null, sides_marked: null },
     steps: [],
-    current: 0,
+    stepIndex: 0,
     coachingGiven: null,
     coachingNote: "",
     phase: "setup",
@@ -107,13 +107,13 @@ const notDone = (breaches: readonly Breach[]) =>
 
 function withStep(draft: ObservationDraft, record: StepRecord): ObservationDraft {
   const steps = [...draft.steps];
-  steps[draft.current] = record;
+  steps[draft.stepIndex] = record;
   const total = draft.sequence?.steps.length ?? 0;
-  const last = draft.current >= total - 1;
+  const last = draft.stepIndex >= total - 1;
   return {
     ...draft,
     steps,
-    current: last ? draft.current : draft.current + 1,
+    stepIndex: last ? draft.stepIndex : draft.stepIndex + 1,
     phase: last ? "coaching" : "steps",
   };
 }
@@ -142,10 +142,10 @@ export function observationReducer(
       return { ...draft, precheck: { ...draft.precheck, [event.key]: event.ok } };
     case "precheck-done":
       if (draft.phase !== "precheck" || !precheckComplete(draft)) return draft;
-      return { ...draft, phase: "steps", current: 0 };
+      return { ...draft, phase: "steps", stepIndex: 0 };
     case "step-done": {
       if (draft.phase !== "steps" || !draft.sequence) return draft;
-      const stepId = draft.sequence.steps[draft.current]!.id;
+      const stepId = draft.sequence.steps[draft.stepIndex]!.id;
       return withStep(draft, { stepId, done: true, breaches: [] });
     }
     case "open-breach":
@@ -154,7 +154,7 @@ export function observationReducer(
       return draft.phase === "breach" ? { ...draft, phase: "steps" } : draft;
     case "record-breach": {
       if (draft.phase !== "breach" || !draft.sequence) return draft;
-      const stepId = draft.sequence.steps[draft.current]!.id;
+      const stepId = draft.sequence.steps[draft.stepIndex]!.id;
       const breach: Breach = {
         ...event.breach,
         spaceProblem: event.breach.cause === "space" ? event.breach.spaceProblem : null,
@@ -166,9 +166,9 @@ export function observationReducer(
     case "back":
       if (draft.phase === "breach") return { ...draft, phase: "steps" };
       if (draft.phase === "steps") {
-        return draft.current === 0
+        return draft.stepIndex === 0
           ? { ...draft, phase: "precheck" }
-          : { ...draft, current: draft.current - 1 };
+          : { ...draft, stepIndex: draft.stepIndex - 1 };
       }
       if (draft.phase === "coaching") return { ...draft, phase: "steps" };
       if (draft.phase === "summary") return { ...draft, phase: "coaching" };
