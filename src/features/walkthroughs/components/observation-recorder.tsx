@@ -22,6 +22,7 @@ import {
   breachesSoFar,
   type ObservationDraft,
   observationReducer,
+  outcomeOnPhone,
   precheckComplete,
   sequenceKindsFor,
   setupProblem,
@@ -30,6 +31,7 @@ import {
   breachCauseLabels,
   breachKindLabels,
   describeBreaches,
+  observationOutcomeLabels,
   precheckLabels,
   sequenceKindLabels,
   spaceProblemLabels,
@@ -499,6 +501,7 @@ function SummaryScreen({
   const [finishing, setFinishing] = useState(false);
   const [failed, setFailed] = useState(false);
   const breaches = breachesSoFar(draft);
+  const result = outcomeOnPhone(draft);
   const steps = draft.sequence!.steps;
   return (
     <div className="flex flex-col gap-5">
@@ -512,13 +515,21 @@ function SummaryScreen({
           </dd>
           <dt className="font-semibold">Steps</dt>
           <dd>{steps.length}</dd>
-          <dt className="font-semibold">Breaches</dt>
+          <dt className="font-semibold">Outcome</dt>
           <dd>
-            {describeBreaches(
-              breaches.map((entry) => entry.position),
-              breaches.length,
-            )}
+            {result ? observationOutcomeLabels[result.outcome] : ""}
+            {result && result.breachCount > 0
+              ? ` — ${describeBreaches(result.breachedSteps, result.breachCount)}`
+              : ""}
           </dd>
+          {result && result.handHygiene.expected > 0 ? (
+            <>
+              <dt className="font-semibold">Hand hygiene</dt>
+              <dd>
+                {result.handHygiene.performed} of {result.handHygiene.expected} moments performed
+              </dd>
+            </>
+          ) : null}
           <dt className="font-semibold">Coaching</dt>
           <dd>{draft.coachingGiven ? "Given on the spot" : "Not given"}</dd>
         </dl>

@@ -7,8 +7,12 @@ import { Spinner } from "@/components/ui/spinner";
 
 import { useLocalObservation } from "../hooks/use-local-observation";
 import { auditDevice } from "../lib/audit-device";
-import { breachesSoFar, type ObservationDraft, observationBody } from "../lib/observation-flow";
-import { describeBreaches, staffRoleLabels } from "../lib/observation-words";
+import { type ObservationDraft, observationBody, outcomeOnPhone } from "../lib/observation-flow";
+import {
+  describeBreaches,
+  observationOutcomeLabels,
+  staffRoleLabels,
+} from "../lib/observation-words";
 import type { LocalObservation, QueuedChange } from "../lib/offline-store";
 import { ObservationRecorder } from "./observation-recorder";
 
@@ -59,15 +63,16 @@ function FinishedObservation({
   after: ReactNode;
 }) {
   const draft = observation.draft;
-  const breaches = breachesSoFar(draft);
   const arrived = observation.observation;
-  // Lintel decides the outcome; until it has answered, the phone shows what it counted.
-  const outcome = arrived
-    ? describeBreaches(arrived.breachedSteps, arrived.breachCount)
-    : describeBreaches(
-        breaches.map((entry) => entry.position),
-        breaches.length,
-      );
+  // Lintel decides the outcome; until it has answered, the phone decides it by the same rule.
+  const result = arrived ?? outcomeOnPhone(draft);
+  const outcome = result
+    ? `${observationOutcomeLabels[result.outcome]}${
+        result.breachCount > 0
+          ? ` — ${describeBreaches(result.breachedSteps, result.breachCount)}`
+          : ""
+      }`
+    : "";
   return (
     <div className="flex flex-col gap-4">
       <h2 className="text-xl font-bold">Observation finished</h2>
@@ -81,11 +86,11 @@ function FinishedObservation({
         </dd>
         <dt className="font-semibold">Outcome</dt>
         <dd>{outcome}</dd>
-        {arrived ? (
+        {result && result.handHygiene.expected > 0 ? (
           <>
             <dt className="font-semibold">Hand hygiene</dt>
             <dd>
-              {arrived.handHygiene.performed} of {arrived.handHygiene.expected} moments performed
+              {result.handHygiene.performed} of {result.handHygiene.expected} moments performed
             </dd>
           </>
         ) : null}

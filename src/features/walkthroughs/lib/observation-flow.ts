@@ -1,3 +1,4 @@
+import { type ObservationResult, observationOutcome } from "@shared/calc/observation-outcome";
 import type { ZoneType } from "@shared/zones";
 import {
   type Breach,
@@ -208,4 +209,16 @@ export function observationBody(draft: ObservationDraft, finishedAt: Date): Obse
     coachingNote:
       draft.coachingGiven && draft.coachingNote.trim() ? draft.coachingNote.trim() : null,
   };
+}
+
+/**
+ * The outcome as the phone decides it with Lintel's own rule (the server decides again and its
+ * answer is shown once it arrives): a clean run, or breaches seen at which steps.
+ */
+export function outcomeOnPhone(draft: ObservationDraft): ObservationResult | null {
+  if (!draft.sequence) return null;
+  return observationOutcome(
+    draft.sequence.steps,
+    draft.steps.filter((record): record is StepRecord => record !== null),
+  );
 }

@@ -1,6 +1,7 @@
 import type {
   BreachCause,
   BreachKind,
+  ObservationOutcome,
   PrecheckKey,
   SequenceKind,
   SpaceProblem,
@@ -18,8 +19,8 @@ export const breachKindLabels: Record<BreachKind, string> = {
   step_skipped: "Step skipped",
   hand_hygiene_missed: "Hand hygiene missed",
   touched_face_or_clean_clothing: "Touched face or clean clothing with a contaminated hand",
-  item_dropped_or_wrong_container: "Item dropped, or not into the right container",
-  assistant_needed: "Needed an assistant",
+  item_dropped_or_wrong_container: "Item dropped or not into the right container",
+  assistant_needed: "Assistant needed",
 };
 
 export const breachCauseLabels: Record<BreachCause, string> = {
@@ -60,3 +61,9 @@ export function describeBreaches(positions: readonly number[], count: number): s
       : `at steps ${steps.slice(0, -1).join(", ")} and ${steps[steps.length - 1]}`;
   return `${count} ${count === 1 ? "breach" : "breaches"}, ${where}`;
 }
+
+/** Lintel's names for what an observation came to. */
+export const observationOutcomeLabels: Record<ObservationOutcome, string> = {
+  clean_run: "Clean run",
+  breaches_seen: "Breaches seen",
+};
