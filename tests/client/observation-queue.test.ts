@@ -1,5 +1,6 @@
 import "fake-indexeddb/auto";
 
+import { openDB } from "idb";
 import { afterEach, beforeEach, describe, expect, it } from "vitest";
 
 import { describeSync } from "@/features/walkthroughs/components/sync-status";
@@ -212,5 +213,57 @@ describe("an observation in the phone's store and the audits' queue", () => {
     expect(await store.observationsForSpace(doffingAreaSpaceId)).toHaveLength(2);
     expect(await syncOnce(store, server)).toEqual({ kind: "done", sent: 2 });
     expect(server.observations.stored.size).toBe(2);
+  });
+
+  it("when a phone still holds a person's store from before observations, then it opens with the drafts it held and keeps observations too", async () => {
+    const name = `observations-upgrade-${databaseNumber}`;
+    const old = await openDB(name, 1, {
+      upgrade(db) {
+        db.createObjectStore("audits", { keyPath: "auditId" }).createIndex("bySpace", "spaceId");
+        db.createObjectStore("answers", { keyPath: ["auditId", "itemId"] }).createIndex(
+          "byAudit",
+          "auditId",
+        );
+        db.createObjectStore("photos", { keyPath: "id" }).createIndex("byAudit", "auditId");
+        const changes = db.createObjectStore("changes", { keyPath: "seq", autoIncrement: true });
+        changes.createIndex("byTarget", ["auditId", "kind", "target"]);
+        changes.createIndex("byAudit", "auditId");
+      },
+    });
+    const auditId = testId();
+    await old.put("audits", {
+      auditId,
+      spaceId: doffingAreaSpaceId,
+      spaceName: "Doffing area 1",
+      auditorId: observerId,
+      startedAt: at(0).toISOString(),
+      detail: null,
+      state: "draft",
+      submitRefusals: null,
+      updatedAt: at(0).toISOString(),
+    });
+    await old.add("changes", {
+      auditId,
+      kind: "start",
+      target: "",
+      revision: 0,
+      problem: null,
+      queuedAt: at(0).toISOString(),
+    });
+    old.close();
+
+    const upgraded = await openAuditStore({ name, newId: testId });
+    try {
+      expect(await upgraded.getAudit(auditId)).toMatchObject({ state: "draft" });
+      const draft = recorded();
+      await upgraded.saveObservationDraft(draft, observerId, at(1));
+      await upgraded.finishObservation(draft.observationId, observationBody(draft, at(2))!, at(2));
+      expect((await upgraded.queuedChanges()).map((change) => change.kind)).toEqual([
+        "start",
+        "observation",
+      ]);
+    } finally {
+      upgraded.close();
+    }
   });
 });

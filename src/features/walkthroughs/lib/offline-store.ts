@@ -311,8 +311,8 @@ export async function moveSharedDrafts(
   sharedName: string,
 ): Promise<number> {
   if (!(await databaseExists(sharedName))) return 0;
-  // The shared database never held observations: it stays at the version it was left at.
-  const shared = await openDB<AuditDb>(sharedName, 1, { upgrade });
+  // Opened at the current version (an older one is upgraded; it never held observations).
+  const shared = await openDB<AuditDb>(sharedName, storeVersion, { upgrade });
   try {
     const tx = shared.transaction(["audits", "answers", "photos", "changes"], "readwrite");
     const audits = (await tx.objectStore("audits").getAll()).filter(
