@@ -1,7 +1,8 @@
 import { sql } from "drizzle-orm";
 
 import { itemCategories, categoryOfItem } from "@shared/checklists/categories";
-import { pChart, proportionDifferenceInterval, wilsonInterval } from "@shared/calc/statistics";
+import { committeeConfidence, proportion } from "@shared/calc/proportion";
+import { pChart, proportionDifferenceInterval } from "@shared/calc/statistics";
 import type { Outcome, Verdict } from "@shared/calc/verdict";
 import type { RoleGrant } from "@shared/roles";
 import {
@@ -9,7 +10,6 @@ import {
   minimumRankedSample,
   type CommitteeQuery,
   type ComparisonResponse,
-  type Proportion,
   type SiteDrillDown,
   type TrendsResponse,
 } from "@shared/schemas/committee";
@@ -20,17 +20,7 @@ import { AppError } from "../../lib/app-error";
 import { listSitesFor, networkName } from "../sites/sites.service";
 import * as repo from "./committee.repository";
 
-const confidence = 0.95;
-
-export function proportion(successes: number, n: number): Proportion {
-  return {
-    n,
-    successes,
-    rate: n === 0 ? null : successes / n,
-    interval: n === 0 ? null : wilsonInterval(successes, n, confidence),
-    smallSample: n < minimumRankedSample,
-  };
-}
+const confidence = committeeConfidence;
 
 /** The sites the person may read, in name order. */
 export async function readableSites(db: Database, networkId: string, grants: readonly RoleGrant[]) {
