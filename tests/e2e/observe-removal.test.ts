@@ -169,7 +169,7 @@ describe("observing a removal on a phone that loses its connection half-way (390
     await shot(page, "observe-6-summary-auditor");
     await tap(page.getByRole("button", { name: "Finish" }));
 
-    await page.getByText("Saved on this phone only").waitFor();
+    await page.getByText("Saved on this phone only", { exact: true }).waitFor();
     await page.getByText("Breaches seen — 1 breach, at step 8").waitFor();
     await fitsThePhone(page);
     await shot(page, "observe-7-finished-offline-auditor");
