@@ -79,6 +79,12 @@ describe("observing a removal on a phone that loses its connection half-way (390
       .getByRole("link", { name: /All spaces and due dates|every other space/ })
       .first()
       .click();
+    await page
+      .getByRole("listitem", { name: "Doffing area 1", exact: true })
+      .getByRole("link", { name: "Observe putting on or removal" })
+      .waitFor();
+    await fitsThePhone(page);
+    await shot(page, "observe-0-due-list-auditor");
     // From the due list's entry for the doffing area (the first tap of the observation).
     await tap(
       page
