@@ -423,8 +423,8 @@ describe("observation settings and retention", () => {
 
 describe("sequences", () => {
   it("when the demo data is loaded, then the demo network has Lintel's four default sequences, each published as version 1", async () => {
-    const { db: database, logger, storage } = testApp().deps;
-    await runDemoSteps(database, logger, demoStepList, { storage });
+    const { db: database, logger, storage, env } = testApp().deps;
+    await runDemoSteps(database, logger, demoStepList, { storage, env });
     const rows = await database
       .select({
         key: sequenceVersions.key,
