@@ -1,21 +1,16 @@
 import { count, eq, sql } from "drizzle-orm";
 
-import { defaultSequences } from "@shared/observations/default-sequences";
 import { beforeAll, describe, expect, it } from "vitest";
 
 import {
   changeLog,
   correctiveActions,
   findings,
-  networks,
   observationBreaches,
   observations,
   observationSteps,
-  sequenceVersions,
   users,
 } from "../../server/db/schema/index";
-import { runDemoSteps } from "../../server/demo/run-demo-steps";
-import { demoStepList } from "../../server/demo/steps";
 import { purgeObservationDetail } from "../../server/modules/observations/observations.service";
 import { insertFloor, insertSpace } from "../factories/audits";
 import {
@@ -422,23 +417,6 @@ describe("observation settings and retention", () => {
 });
 
 describe("sequences", () => {
-  it("when the demo data is loaded, then the demo network has Lintel's four default sequences, each published as version 1", async () => {
-    const { db: database, logger, storage, env } = testApp().deps;
-    await runDemoSteps(database, logger, demoStepList, { storage, env });
-    const rows = await database
-      .select({
-        key: sequenceVersions.key,
-        version: sequenceVersions.version,
-        status: sequenceVersions.status,
-      })
-      .from(sequenceVersions)
-      .innerJoin(networks, eq(networks.id, sequenceVersions.networkId))
-      .where(eq(networks.name, "Tamsin Bay Health"));
-    expect(rows.map((row) => `${row.key} v${row.version} ${row.status}`).sort()).toEqual(
-      defaultSequences.map((sequence) => `${sequence.key} v1 published`).sort(),
-    );
-  });
-
   it("when an auditor lists sequences, then Lintel's four defaults are published as version 1; a facilities lead is refused", async () => {
     const networkId = (await insertNetwork(db())).id;
     const siteId = (await insertSite(db(), networkId)).id;
