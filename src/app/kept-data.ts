@@ -18,6 +18,7 @@ import { floorsQueryOptions } from "@/features/floor-plans/api/get-floors";
 import { siteQueryOptions } from "@/features/sites/api/get-site";
 import { sitesQueryOptions } from "@/features/sites/api/get-sites";
 import { myDueQueryOptions } from "@/features/walkthroughs/api/get-my-due";
+import { sequencesQueryOptions } from "@/features/walkthroughs/api/get-sequences";
 import { siteScheduleQueryOptions } from "@/features/walkthroughs/api/get-site-schedule";
 import {
   hasKeptStorage,
@@ -40,7 +41,8 @@ import { planImageUrl as planUrl } from "@/lib/use-plan-image";
 /**
  * What an auditor needs with no signal, kept in their own store on the phone after an online
  * sign-in and again, at most every few minutes, while the app is online: their due list, their
- * sites' due lists, floors and spaces, the published checklists, and the floor plans at the size
+ * sites' due lists, floors and spaces, the published checklists, the sequences for observing
+ * putting on and removal, and the floor plans at the size
  * the phone shows them. Bounded so a large network cannot fill the phone.
  */
 export const keptLimits = {
@@ -75,6 +77,7 @@ function loadAuditingPages(): Promise<unknown> {
     import("@/features/floor-plans/components/floor-map"),
     import("./routes/audit-layout"),
     import("./routes/start-audit"),
+    import("./routes/observe"),
     import("./routes/audit"),
     import("./routes/account"),
   ]);
@@ -92,6 +95,8 @@ async function keepNow(queryClient: QueryClient, me: MeResponse): Promise<KeptSu
 
   await fetchKept(myDueQueryOptions());
   await fetchKept<ChecklistsResponse>(checklistsQueryOptions());
+  // Lintel before observations answers 404 here: audits are still kept.
+  await fetchKept(sequencesQueryOptions()).catch(() => undefined);
   const sites = (await fetchKept<{ id: string }[]>(sitesQueryOptions()))
     .filter((site) => can(me.roles, "conduct:audit:site", site.id))
     .slice(0, keptLimits.sites);

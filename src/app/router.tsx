@@ -255,6 +255,22 @@ export function createRoutes(queryClient: QueryClient): RouteObject[] {
                 return { Component: StartAuditRoute };
               },
             },
+            {
+              path: paths.startObservation.path,
+              errorElement: <RouteError />,
+              lazy: async () => {
+                const { StartObservationRoute } = await import("./routes/observe");
+                return { Component: StartObservationRoute };
+              },
+            },
+            {
+              path: paths.observation.path,
+              errorElement: <RouteError />,
+              lazy: async () => {
+                const { ObservationRoute } = await import("./routes/observe");
+                return { Component: ObservationRoute };
+              },
+            },
           ],
         },
         {

@@ -11,11 +11,23 @@ import type { UnsentWork } from "@/features/walkthroughs/lib/offline-store";
 
 import { signOutOfPhone, type UnsentChoice, unsentWorkOnPhone } from "./sign-out";
 
-/** "2 audits with 14 changes", in words. */
-export function describeUnsent({ audits, changes }: UnsentWork): string {
+/** "2 audits with 14 changes", in words, and the observations not yet in Lintel. */
+export function describeUnsent({ audits, observations, changes }: UnsentWork): string {
+  const observationWords = `${observations} ${observations === 1 ? "observation" : "observations"}`;
+  if (audits === 0 && observations > 0) return observationWords;
   const auditWords = `${audits} ${audits === 1 ? "audit" : "audits"}`;
-  if (changes === 0) return `${auditWords} not yet submitted`;
-  return `${auditWords} with ${changes} ${changes === 1 ? "change" : "changes"}`;
+  const also = observations > 0 ? ` and ${observationWords}` : "";
+  if (changes === 0) return `${auditWords} not yet submitted${also}`;
+  const changed =
+    audits > 0 && observations > 0
+      ? ""
+      : ` with ${changes} ${changes === 1 ? "change" : "changes"}`;
+  return `${auditWords}${changed}${also}`;
+}
+
+/** Whether the unsent work is one thing ("is saved") or more ("are saved"). */
+export function unsentIsOne({ audits, observations }: UnsentWork): boolean {
+  return audits + observations === 1;
 }
 
 export interface SignedOutNotice {
@@ -53,7 +65,7 @@ export function SignOutPanel() {
     networkMode: "always",
     mutationFn: unsentWorkOnPhone,
     onSuccess: (work) => {
-      if (work.audits === 0 && work.changes === 0)
+      if (work.audits === 0 && work.observations === 0 && work.changes === 0)
         signOut.mutate({ choice: "keep", hadWork: false });
       else setStep({ kind: "choose", work });
     },
@@ -91,7 +103,7 @@ export function SignOutPanel() {
               Not yet in Lintel
             </h3>
             <p className="mt-1">
-              {describeUnsent(step.work)} {step.work.audits === 1 ? "is" : "are"} saved only on this
+              {describeUnsent(step.work)} {unsentIsOne(step.work) ? "is" : "are"} saved only on this
               phone.
             </p>
           </div>

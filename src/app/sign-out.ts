@@ -14,7 +14,8 @@ const walkthroughs = () => import("@/features/walkthroughs/lib/audit-device");
 /** What the person leaves unsent on this phone; nothing when the browser keeps no store. */
 export async function unsentWorkOnPhone(): Promise<UnsentWork> {
   const module = await walkthroughs();
-  if (!module.hasOfflineStorage() || !phonePersonId()) return { audits: 0, changes: 0 };
+  if (!module.hasOfflineStorage() || !phonePersonId())
+    return { audits: 0, observations: 0, changes: 0 };
   const { store } = await module.auditDevice();
   return store.unsentWork();
 }

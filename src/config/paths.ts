@@ -45,6 +45,14 @@ export const paths = {
     path: "/spaces/:spaceId/audit",
     getHref: (spaceId: string) => `/spaces/${encodeURIComponent(spaceId)}/audit`,
   },
+  startObservation: {
+    path: "/spaces/:spaceId/observe",
+    getHref: (spaceId: string) => `/spaces/${encodeURIComponent(spaceId)}/observe`,
+  },
+  observation: {
+    path: "/observations/:observationId",
+    getHref: (observationId: string) => `/observations/${encodeURIComponent(observationId)}`,
+  },
   spaceAudits: {
     path: "/spaces/:spaceId/audits",
     getHref: (spaceId: string) => `/spaces/${encodeURIComponent(spaceId)}/audits`,

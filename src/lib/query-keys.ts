@@ -66,6 +66,9 @@ export const queryKeys = {
   checklists: {
     list: ["checklists", "list"] as const,
   },
+  sequences: {
+    list: ["sequences", "list"] as const,
+  },
   appConfigs: {
     current: ["app-configs", "current"] as const,
   },

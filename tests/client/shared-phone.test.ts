@@ -173,7 +173,7 @@ describe("a phone shared by several people", () => {
       "start",
       "answer",
     ]);
-    expect(await storeA.unsentWork()).toEqual({ audits: 1, changes: 2 });
+    expect(await storeA.unsentWork()).toEqual({ audits: 1, observations: 0, changes: 2 });
 
     const storeB = await openAuditStore({
       name: "b",
@@ -217,7 +217,7 @@ describe("a phone shared by several people", () => {
     const deviceB = await auditDevice();
     expect(deviceB.personId).toBe(personB);
     expect(await deviceB.store.getAudit(auditId)).toBeUndefined();
-    expect(await deviceB.store.unsentWork()).toEqual({ audits: 0, changes: 0 });
+    expect(await deviceB.store.unsentWork()).toEqual({ audits: 0, observations: 0, changes: 0 });
     await deviceB.sync.kick();
     // The first person's queue, had it still been running, would have retried by now.
     await deviceA.sync.kick().catch(() => undefined);
@@ -226,7 +226,7 @@ describe("a phone shared by several people", () => {
     // Back to the first person: their work is still there, waiting.
     rememberPhonePerson(personA);
     const again = await auditDevice();
-    expect(await again.store.unsentWork()).toEqual({ audits: 1, changes: 1 });
+    expect(await again.store.unsentWork()).toEqual({ audits: 1, observations: 0, changes: 1 });
   });
 });
 
@@ -245,8 +245,19 @@ describe("what the phone says about work not yet in Lintel", () => {
   });
 
   it("when someone signs out with unsent work, then it is counted in words", () => {
-    expect(describeUnsent({ audits: 2, changes: 14 })).toBe("2 audits with 14 changes");
-    expect(describeUnsent({ audits: 1, changes: 1 })).toBe("1 audit with 1 change");
-    expect(describeUnsent({ audits: 1, changes: 0 })).toBe("1 audit not yet submitted");
+    expect(describeUnsent({ audits: 2, observations: 0, changes: 14 })).toBe(
+      "2 audits with 14 changes",
+    );
+    expect(describeUnsent({ audits: 1, observations: 0, changes: 1 })).toBe(
+      "1 audit with 1 change",
+    );
+    expect(describeUnsent({ audits: 1, observations: 0, changes: 0 })).toBe(
+      "1 audit not yet submitted",
+    );
+    // An observation finished offline is one queued change of its own.
+    expect(describeUnsent({ audits: 0, observations: 1, changes: 1 })).toBe("1 observation");
+    expect(describeUnsent({ audits: 1, observations: 2, changes: 3 })).toBe(
+      "1 audit and 2 observations",
+    );
   });
 });

@@ -20,6 +20,7 @@ import { FloorPlanView } from "@/features/floor-plans/components/floor-plan-view
 import { FloorRetirement } from "@/features/floor-plans/components/floor-retirement";
 import type { MapPin } from "@/features/floor-plans/lib/map-pins";
 import { siteQueryOptions, useSite } from "@/features/sites/api/get-site";
+import { isObservedZone } from "@/features/walkthroughs/lib/observation-flow";
 import { isApiError } from "@/lib/api-client";
 import { useAuthorization } from "@/lib/authorization";
 
@@ -140,6 +141,14 @@ function FloorPage({ siteId, floorId }: { siteId: string; floorId: string }) {
                   className={buttonStyles({ className: "px-3 py-1.5" })}
                 >
                   Start audit
+                </Link>
+              ) : null}
+              {mayAudit && isObservedZone(space.zoneType) ? (
+                <Link
+                  to={paths.startObservation.getHref(space.id)}
+                  className={buttonStyles({ variant: "secondary", className: "px-3 py-1.5" })}
+                >
+                  Observe putting on or removal
                 </Link>
               ) : null}
               <Link

@@ -59,6 +59,7 @@ function SiteDuePage({ siteId }: { siteId: string }) {
           canChangeCadence={can("update:site:site", siteId)}
           startHref={paths.startAudit.getHref}
           historyHref={paths.spaceAudits.getHref}
+          observeHref={paths.startObservation.getHref}
         />
         <CautionNote />
       </div>

@@ -129,6 +129,7 @@ function SiteOverview({ siteId }: { siteId: string }) {
           allHref={paths.siteDue.getHref(siteId)}
           startHref={paths.startAudit.getHref}
           historyHref={paths.spaceAudits.getHref}
+          observeHref={paths.startObservation.getHref}
           actions={
             canEdit ? (
               <TextLink

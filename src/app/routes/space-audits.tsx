@@ -1,5 +1,5 @@
 import { spaceParamsSchema } from "@shared/schemas/floors";
-import type { QueryClient } from "@tanstack/react-query";
+import { type QueryClient, useQueryClient } from "@tanstack/react-query";
 import { Link, type LoaderFunctionArgs, useParams } from "react-router-dom";
 
 import { buttonStyles } from "@/components/ui/button";
@@ -7,9 +7,11 @@ import { TextLink } from "@/components/ui/text-link";
 import { paths } from "@/config/paths";
 import { spaceAuditsQueryOptions } from "@/features/walkthroughs/api/get-space-audits";
 import { AuditHistory } from "@/features/walkthroughs/components/audit-history";
+import { isObservedZone } from "@/features/walkthroughs/lib/observation-flow";
 import { useAuthorization } from "@/lib/authorization";
 
 import { isSignedIn } from "../session";
+import { knownSpace } from "./known-space";
 import { NotAvailable } from "./not-available";
 
 export function spaceAuditsLoader(queryClient: QueryClient) {
@@ -25,6 +27,7 @@ export function spaceAuditsLoader(queryClient: QueryClient) {
 /** A space's audits: date, auditor, verdict, score; each opens read-only once submitted. */
 export function SpaceAuditsRoute() {
   const { can, canAnywhere } = useAuthorization();
+  const queryClient = useQueryClient();
   const parsed = spaceParamsSchema.safeParse(useParams());
   if (!parsed.success) return <NotAvailable description="There is no space at this address." />;
   const { spaceId } = parsed.data;
@@ -42,9 +45,19 @@ export function SpaceAuditsRoute() {
       }
       startAction={(siteId) =>
         (siteId ? can("conduct:audit:site", siteId) : canAnywhere("conduct:audit:site")) ? (
-          <Link to={paths.startAudit.getHref(spaceId)} className={buttonStyles()}>
-            Start audit
-          </Link>
+          <div className="flex flex-wrap gap-2">
+            <Link to={paths.startAudit.getHref(spaceId)} className={buttonStyles()}>
+              Start audit
+            </Link>
+            {isObservedZone(knownSpace(queryClient, spaceId)?.zoneType) ? (
+              <Link
+                to={paths.startObservation.getHref(spaceId)}
+                className={buttonStyles({ variant: "secondary" })}
+              >
+                Observe putting on or removal
+              </Link>
+            ) : null}
+          </div>
         ) : null
       }
     />

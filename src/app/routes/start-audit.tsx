@@ -2,8 +2,11 @@ import type { AuditDetail } from "@shared/schemas/audits";
 import type { ChecklistsResponse } from "@shared/schemas/checklists";
 import { spaceParamsSchema } from "@shared/schemas/floors";
 import { onlineManager, type QueryClient, useQueryClient } from "@tanstack/react-query";
-import { useCallback, useState } from "react";
-import { useNavigate, useParams } from "react-router-dom";
+import { useCallback, useEffect, useState } from "react";
+import { Link, useLocation, useNavigate, useParams } from "react-router-dom";
+
+import { Button, buttonStyles } from "@/components/ui/button";
+import { Spinner } from "@/components/ui/spinner";
 
 import { paths } from "@/config/paths";
 import { checklistsQueryOptions } from "@/features/admin/api/get-checklists";
@@ -11,11 +14,13 @@ import { meQueryOptions } from "@/features/auth/api/get-me";
 import { cachedSpace, cachedSpaceName } from "@/features/floor-plans/api/get-floor";
 import { scheduledSpaceName } from "@/features/walkthroughs/api/get-site-schedule";
 import { StartAudit } from "@/features/walkthroughs/components/start-audit";
+import { isObservedZone } from "@/features/walkthroughs/lib/observation-flow";
 import { prepareAuditDetail } from "@/features/walkthroughs/lib/prepared-audit";
 import { canAnywhere } from "@/lib/authorization";
 
 import { restoreKept } from "../kept-data";
 import { usePersonIfKnown } from "./audit-person";
+import { knownSpace } from "./known-space";
 import { NotAvailable } from "./not-available";
 
 /** The space's name from whatever list the auditor came from: the due list or a floor. */
@@ -98,13 +103,80 @@ function StartAuditPage({ spaceId }: { spaceId: string }) {
   );
 }
 
+type Choice = "deciding" | "ask" | "audit";
+
+/**
+ * Opened from outside the app (a scanned QR code) at a donning zone, doffing area or anteroom:
+ * the auditor chooses between auditing the space and observing someone put on or remove PPE.
+ * From Lintel's own lists the audit starts at once (they have their own "Observe" link).
+ */
+function useChoice(spaceId: string): [Choice, () => void, string | null] {
+  const queryClient = useQueryClient();
+  const openedFromOutside = useLocation().key === "default";
+  const [choice, setChoice] = useState<Choice>(openedFromOutside ? "deciding" : "audit");
+  const [name, setName] = useState<string | null>(null);
+  useEffect(() => {
+    if (choice !== "deciding") return;
+    let live = true;
+    void restoreKept(queryClient).then(() => {
+      if (!live) return;
+      const space = knownSpace(queryClient, spaceId);
+      setName(space?.name ?? null);
+      setChoice(isObservedZone(space?.zoneType) ? "ask" : "audit");
+    });
+    return () => {
+      live = false;
+    };
+  }, [choice, queryClient, spaceId]);
+  return [choice, () => setChoice("audit"), name];
+}
+
+function AuditOrObserve({
+  spaceId,
+  spaceName,
+  onAudit,
+}: {
+  spaceId: string;
+  spaceName: string | null;
+  onAudit: () => void;
+}) {
+  return (
+    <>
+      <title>What to do here · Lintel</title>
+      <h1 className="mb-2 text-2xl font-bold tracking-tight">{spaceName ?? "This space"}</h1>
+      <p className="mb-5">What are you here to do?</p>
+      <div className="flex flex-col gap-3">
+        <Button size="lg" className="min-h-16" onClick={onAudit}>
+          Audit this space
+        </Button>
+        <Link
+          to={paths.startObservation.getHref(spaceId)}
+          replace
+          className={buttonStyles({ size: "lg", variant: "secondary", className: "min-h-16" })}
+        >
+          Observe putting on or removal
+        </Link>
+      </div>
+    </>
+  );
+}
+
+function StartHere({ spaceId }: { spaceId: string }) {
+  const [choice, audit, spaceName] = useChoice(spaceId);
+  if (choice === "deciding") return <Spinner label="Opening the space…" className="py-8" />;
+  if (choice === "ask")
+    return <AuditOrObserve spaceId={spaceId} spaceName={spaceName} onAudit={audit} />;
+  return <StartAuditPage spaceId={spaceId} />;
+}
+
 /**
  * Where a space's QR code leads: opens this person's draft for the space on this phone, or
- * starts a new audit — also without a connection.
+ * starts a new audit — also without a connection. At a donning zone, doffing area or anteroom the
+ * code first offers the choice to observe putting on or removal instead.
  */
 export function StartAuditRoute() {
   const parsed = spaceParamsSchema.safeParse(useParams());
   if (!parsed.success)
     return <NotAvailable description="This QR code or link does not name a space Lintel knows." />;
-  return <StartAuditPage key={parsed.data.spaceId} spaceId={parsed.data.spaceId} />;
+  return <StartHere key={parsed.data.spaceId} spaceId={parsed.data.spaceId} />;
 }

@@ -1,10 +1,12 @@
 import type { Answer, AnswerBody, AuditDetail } from "@shared/schemas/audits";
 import type { ChecklistItem } from "@shared/schemas/checklists";
+import type { ObservationBody } from "@shared/schemas/observations";
 
 import { ApiError } from "@/lib/api-client";
 import type { SyncTransport } from "@/features/walkthroughs/lib/sync-queue";
 
 import { tamsinGeneral } from "./api-stub";
+import { FakeObservations } from "./observation-data";
 
 export const doffingSpaceId = "1f2e3d4c-5b6a-4978-8a6b-5c4d3e2f1a0b";
 export const isolationSpaceId = "2a3b4c5d-6e7f-4a8b-9c0d-1e2f3a4b5c6d";
@@ -236,6 +238,14 @@ export class FakeLintel implements SyncTransport {
         imageId: `7f000000-0000-4000-8000-${photo.id.slice(-12)}`,
       };
     });
+  }
+
+  readonly observations = new FakeObservations();
+
+  async putObservation(observationId: string, body: ObservationBody) {
+    return this.run(`observation ${observationId}`, () =>
+      this.observations.putObservation(observationId, body),
+    );
   }
 
   async submitAudit(auditId: string) {

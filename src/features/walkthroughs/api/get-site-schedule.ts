@@ -27,6 +27,17 @@ export function useSiteSchedule(siteId: string) {
   return useQuery(siteScheduleQueryOptions(siteId));
 }
 
+/** A space's entry from any due list already loaded, or null. */
+export function scheduledSpace(queryClient: QueryClient, spaceId: string): ScheduleEntry | null {
+  for (const [, entries] of queryClient.getQueriesData<ScheduleEntry[]>({
+    queryKey: queryKeys.schedules.all,
+  })) {
+    const found = entries?.find((entry) => entry.spaceId === spaceId);
+    if (found) return found;
+  }
+  return null;
+}
+
 /** The name of a space from any schedule already loaded, to show before the server answers. */
 export function scheduledSpaceName(queryClient: QueryClient, spaceId: string): string | null {
   for (const [, entries] of queryClient.getQueriesData<ScheduleEntry[]>({

@@ -19,11 +19,14 @@ import { parseNumberText } from "@/lib/form-values";
 import { useSiteSchedule } from "../api/get-site-schedule";
 import { useSetCadence } from "../api/set-cadence";
 import { describeDue, dueNow, orderByDue } from "../lib/due-order";
+import { isObservedZone } from "../lib/observation-flow";
 import { KeptFreshness, NotKeptHere } from "./kept-freshness";
 
 export interface DueLinks {
   startHref: (spaceId: string) => string;
   historyHref: (spaceId: string) => string;
+  /** Where to observe putting on or removal, shown for donning zones, doffing areas and anterooms. */
+  observeHref?: (spaceId: string) => string;
 }
 
 const stateLabels: Record<ScheduleEntry["state"], string> = {
@@ -115,6 +118,7 @@ function DueItem({
   canChangeCadence,
   startHref,
   historyHref,
+  observeHref,
 }: DueItemProps) {
   const headingId = useId();
   return (
@@ -159,6 +163,15 @@ function DueItem({
             className={buttonStyles({ className: "min-w-36" })}
           >
             Start audit
+          </Link>
+        ) : null}
+        {canStart && observeHref && isObservedZone(entry.zoneType) ? (
+          <Link
+            to={observeHref(entry.spaceId)}
+            aria-describedby={headingId}
+            className={buttonStyles({ variant: "secondary", className: "px-3" })}
+          >
+            Observe putting on or removal
           </Link>
         ) : null}
         <Link

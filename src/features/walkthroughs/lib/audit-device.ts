@@ -1,6 +1,7 @@
 import { ApiError } from "@/lib/api-client";
 import { onPhonePersonChange, personDatabases, phonePersonId } from "@/lib/phone-person";
 
+import { putObservation } from "../api/put-observation";
 import { saveAnswer } from "../api/save-answer";
 import { startAudit } from "../api/start-audit";
 import { submitAudit } from "../api/submit-audit";
@@ -57,6 +58,7 @@ function transportFor(personId: string): SyncTransport {
     saveAnswer: theirs(saveAnswer),
     uploadPhoto: theirs(uploadAuditPhoto),
     submitAudit: theirs(submitAudit),
+    putObservation: theirs(putObservation),
   };
 }
 

@@ -1,4 +1,5 @@
 import type { Answer, AuditDetail } from "@shared/schemas/audits";
+import type { Observation, ObservationBody } from "@shared/schemas/observations";
 import {
   type DBSchema,
   deleteDB,
@@ -11,6 +12,7 @@ import {
 import { newDeviceId } from "@/lib/device-ids";
 
 import type { AnswerFields } from "./answer-rules";
+import type { ObservationDraft } from "./observation-flow";
 import { fromStoredUnit } from "./reading-units";
 
 /**
@@ -58,7 +60,27 @@ export interface LocalPhoto {
   takenAt: string;
 }
 
-export type ChangeKind = "start" | "answer" | "photo" | "submit";
+/**
+ * An observation of putting on or removal: recorded step by step on the phone (`recording`),
+ * then finished and queued to be sent whole (`finished`), until Lintel confirms it (`arrived`).
+ */
+export type ObservationState = "recording" | "finished" | "arrived";
+
+export interface LocalObservation {
+  observationId: string;
+  spaceId: string;
+  /** Who observes: on a shared phone each person resumes only their own. */
+  observerId: string | null;
+  draft: ObservationDraft;
+  state: ObservationState;
+  /** What is sent, fixed when the observer taps "Finish". */
+  body: ObservationBody | null;
+  /** Lintel's reply once it arrived (with the outcome it decided). */
+  observation: Observation | null;
+  updatedAt: string;
+}
+
+export type ChangeKind = "start" | "answer" | "photo" | "submit" | "observation";
 
 export interface ChangeProblem {
   status: number;
@@ -68,9 +90,10 @@ export interface ChangeProblem {
 
 export interface QueuedChange {
   seq: number;
+  /** The audit the change belongs to; for an observation, the observation's id. */
   auditId: string;
   kind: ChangeKind;
-  /** The item (answer), the photo id (photo), or "" (start, submit). */
+  /** The item (answer), the photo id (photo), or "" (start, submit, observation). */
   target: string;
   /** Raised when the change is edited while waiting, so a send in flight does not retire it. */
   revision: number;
@@ -83,6 +106,7 @@ interface AuditDb extends DBSchema {
   audits: { key: string; value: LocalAudit; indexes: { bySpace: string } };
   answers: { key: [string, string]; value: LocalAnswer; indexes: { byAudit: string } };
   photos: { key: string; value: LocalPhoto; indexes: { byAudit: string } };
+  observations: { key: string; value: LocalObservation; indexes: { bySpace: string } };
   changes: {
     key: number;
     value: QueuedChange;
@@ -127,6 +151,8 @@ export interface OpenDraftInput {
 export interface UnsentWork {
   /** Audits not yet submitted to Lintel, or with changes still to send. */
   audits: number;
+  /** Observations being recorded, or finished and not yet arrived in Lintel. */
+  observations: number;
   /** Changes still to send (or refused and waiting for the auditor). */
   changes: number;
 }
@@ -170,6 +196,18 @@ export interface AuditStore {
   recordSubmitted(auditId: string, detail: AuditDetail, now: Date): Promise<void>;
   recordSubmitRefused(auditId: string, refusals: Record<string, string>, now: Date): Promise<void>;
 
+  getObservation(observationId: string): Promise<LocalObservation | undefined>;
+  observationsForSpace(spaceId: string): Promise<LocalObservation[]>;
+  /** Keeps the observation as recorded so far; refused once it is finished. */
+  saveObservationDraft(
+    draft: ObservationDraft,
+    observerId: string | null,
+    now: Date,
+  ): Promise<LocalObservation>;
+  /** Fixes what is sent and queues it, once; a second finish changes nothing. */
+  finishObservation(observationId: string, body: ObservationBody, now: Date): Promise<void>;
+  recordObservationArrived(observation: Observation, now: Date): Promise<void>;
+
   /** Every queued change, oldest first. */
   queuedChanges(): Promise<QueuedChange[]>;
   changesForAudit(auditId: string): Promise<QueuedChange[]>;
@@ -178,6 +216,13 @@ export interface AuditStore {
   completeChange(change: QueuedChange): Promise<void>;
   holdChange(change: QueuedChange, problem: ChangeProblem): Promise<void>;
   unsentWork(): Promise<UnsentWork>;
+}
+
+export class ObservationFinishedError extends Error {
+  override readonly name = "ObservationFinishedError";
+  constructor() {
+    super("This observation is finished and can no longer be changed.");
+  }
 }
 
 export class AuditNotEditableError extends Error {
@@ -199,7 +244,16 @@ function upgrade(db: IDBPDatabase<AuditDb>, oldVersion: number) {
     changes.createIndex("byTarget", ["auditId", "kind", "target"]);
     changes.createIndex("byAudit", "auditId");
   }
+  if (oldVersion < 2) {
+    db.createObjectStore("observations", { keyPath: "observationId" }).createIndex(
+      "bySpace",
+      "spaceId",
+    );
+  }
 }
+
+/** Version 2 added observations of putting on and removal. */
+const storeVersion = 2;
 
 function answerFromServer(answer: Answer, auditId: string, now: Date): LocalAnswer {
   return {
@@ -257,7 +311,8 @@ export async function moveSharedDrafts(
   sharedName: string,
 ): Promise<number> {
   if (!(await databaseExists(sharedName))) return 0;
-  const shared = await openDB<AuditDb>(sharedName, 1, { upgrade });
+  // Opened at the current version (an older one is upgraded; it never held observations).
+  const shared = await openDB<AuditDb>(sharedName, storeVersion, { upgrade });
   try {
     const tx = shared.transaction(["audits", "answers", "photos", "changes"], "readwrite");
     const audits = (await tx.objectStore("audits").getAll()).filter(
@@ -308,7 +363,7 @@ export async function openAuditStore({
   sharedName = sharedAuditDatabaseName,
   newId = newDeviceId,
 }: AuditStoreOptions): Promise<AuditStore> {
-  const db = await openDB<AuditDb>(name, 1, {
+  const db = await openDB<AuditDb>(name, storeVersion, {
     upgrade,
     // Another tab is upgrading the database: let it.
     blocking: () => db.close(),
@@ -624,6 +679,78 @@ export async function openAuditStore({
       changed();
     },
 
+    getObservation: (observationId) => db.get("observations", observationId),
+
+    async observationsForSpace(spaceId) {
+      const observations = await db.getAllFromIndex("observations", "bySpace", spaceId);
+      return observations.sort((a, b) => b.updatedAt.localeCompare(a.updatedAt));
+    },
+
+    async saveObservationDraft(draft, observerId, now) {
+      const tx = db.transaction("observations", "readwrite");
+      const known = await tx.store.get(draft.observationId);
+      if (known && known.state !== "recording") {
+        await tx.done;
+        throw new ObservationFinishedError();
+      }
+      const local: LocalObservation = {
+        observationId: draft.observationId,
+        spaceId: draft.spaceId,
+        observerId: known?.observerId ?? observerId,
+        draft,
+        state: "recording",
+        body: null,
+        observation: null,
+        updatedAt: now.toISOString(),
+      };
+      await tx.store.put(local);
+      await tx.done;
+      changed();
+      return local;
+    },
+
+    async finishObservation(observationId, body, now) {
+      const tx = db.transaction(["observations", "changes"], "readwrite");
+      const known = await tx.objectStore("observations").get(observationId);
+      if (!known) {
+        await tx.done;
+        throw new Error("This observation is not on this phone.");
+      }
+      if (known.state !== "recording") {
+        await tx.done;
+        return;
+      }
+      await tx.objectStore("observations").put({
+        ...known,
+        state: "finished",
+        body,
+        updatedAt: now.toISOString(),
+      });
+      await queue(tx.objectStore("changes"), {
+        auditId: observationId,
+        kind: "observation",
+        target: "",
+        queuedAt: now.toISOString(),
+      });
+      await tx.done;
+      changed();
+    },
+
+    async recordObservationArrived(observation, now) {
+      const tx = db.transaction("observations", "readwrite");
+      const known = await tx.store.get(observation.id);
+      if (known) {
+        await tx.store.put({
+          ...known,
+          state: "arrived",
+          observation,
+          updatedAt: now.toISOString(),
+        });
+      }
+      await tx.done;
+      changed();
+    },
+
     queuedChanges: () => db.getAll("changes"),
 
     changesForAudit: (auditId) => db.getAllFromIndex("changes", "byAudit", auditId),
@@ -643,10 +770,18 @@ export async function openAuditStore({
     },
 
     async unsentWork() {
-      const [audits, changes] = await Promise.all([db.getAll("audits"), db.getAll("changes")]);
-      const open = new Set(changes.map((change) => change.auditId));
+      const [audits, observations, changes] = await Promise.all([
+        db.getAll("audits"),
+        db.getAll("observations"),
+        db.getAll("changes"),
+      ]);
+      const observationIds = new Set(observations.map((o) => o.observationId));
+      const open = new Set(
+        changes.map((change) => change.auditId).filter((id) => !observationIds.has(id)),
+      );
       for (const audit of audits) if (audit.state !== "submitted") open.add(audit.auditId);
-      return { audits: open.size, changes: changes.length };
+      const unsent = observations.filter((o) => o.state !== "arrived").length;
+      return { audits: open.size, observations: unsent, changes: changes.length };
     },
 
     async holdChange(change, problem) {

@@ -1,4 +1,5 @@
 import type { Answer, AnswerBody, AuditDetail, StartAuditBody } from "@shared/schemas/audits";
+import type { Observation, ObservationBody } from "@shared/schemas/observations";
 
 import { isApiError, isTemporarilyUnavailable } from "@/lib/api-client";
 
@@ -11,7 +12,7 @@ import type {
   QueuedChange,
 } from "./offline-store";
 
-/** The four calls the queue makes; all idempotent on the device-made ids. */
+/** The calls the queue makes; all idempotent on the device-made ids. */
 export interface SyncTransport {
   startAudit(auditId: string, body: StartAuditBody): Promise<AuditDetail>;
   saveAnswer(auditId: string, itemId: string, body: AnswerBody): Promise<Answer>;
@@ -20,9 +21,17 @@ export interface SyncTransport {
     photo: { id: string; itemId: string; file: Blob; fileName: string },
   ): Promise<{ id: string; itemId: string | null; imageId: string }>;
   submitAudit(auditId: string): Promise<AuditDetail>;
+  /** An observation, sent whole once finished; the same body again changes nothing. */
+  putObservation(observationId: string, body: ObservationBody): Promise<Observation>;
 }
 
-const kindOrder: Record<ChangeKind, number> = { start: 0, answer: 1, photo: 2, submit: 3 };
+const kindOrder: Record<ChangeKind, number> = {
+  start: 0,
+  answer: 1,
+  photo: 2,
+  submit: 3,
+  observation: 4,
+};
 
 /**
  * The order to send changes in: audit by audit (in the order they were first touched), and
@@ -152,6 +161,13 @@ async function send(
       const detail = await transport.submitAudit(change.auditId);
       await store.recordSubmitted(change.auditId, detail, new Date());
       return detail;
+    }
+    case "observation": {
+      const local = await store.getObservation(change.auditId);
+      if (!local?.body) return;
+      const observation = await transport.putObservation(local.observationId, local.body);
+      await store.recordObservationArrived(observation, new Date());
+      return;
     }
   }
 }
