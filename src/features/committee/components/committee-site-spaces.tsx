@@ -11,6 +11,7 @@ import { paths } from "@/config/paths";
 import { cn } from "@/lib/cn";
 import { formatDateTime } from "@/lib/format";
 
+import { ObservationsSection } from "./observations-section";
 import { useCommitteeSite } from "../api/get-committee-site";
 import { tableStyles } from "../lib/chart-style";
 import { intervalText, percentText, periodText } from "../lib/committee-format";
@@ -168,6 +169,7 @@ export function CommitteeSiteSpaces({ siteId, period }: CommitteeSiteSpacesProps
           ) : null}
         </>
       )}
+      {valid ? <ObservationsSection period={period} siteId={siteId} /> : null}
     </div>
   );
 }
