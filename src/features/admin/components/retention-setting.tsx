@@ -83,8 +83,8 @@ export function RetentionSetting() {
           </p>
           <p>
             <span className="font-semibold">Kept</span>: the committee&apos;s counts, such as how
-            many observations a site had each month and how often each step was breached, which
-            name no one. Findings and corrective actions opened for a space stay as they are.
+            many observations a site had each month and how often each step was breached, which name
+            no one. Findings and corrective actions opened for a space stay as they are.
           </p>
         </div>
         {settings.isPending ? (

@@ -43,7 +43,15 @@ interface StepFieldsProps {
   onRemove: (index: number) => void;
 }
 
-function StepFields({ index, count, control, register, errors, onMove, onRemove }: StepFieldsProps) {
+function StepFields({
+  index,
+  count,
+  control,
+  register,
+  errors,
+  onMove,
+  onRemove,
+}: StepFieldsProps) {
   const legendId = useId();
   const stepKey = useWatch({ control, name: `steps.${index}.key` });
   const stepErrors = errors.steps?.[index];

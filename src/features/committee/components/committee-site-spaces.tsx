@@ -11,12 +11,12 @@ import { paths } from "@/config/paths";
 import { cn } from "@/lib/cn";
 import { formatDateTime } from "@/lib/format";
 
-import { ObservationsSection } from "./observations-section";
 import { useCommitteeSite } from "../api/get-committee-site";
 import { tableStyles } from "../lib/chart-style";
 import { intervalText, percentText, periodText } from "../lib/committee-format";
 import { type CommitteePeriod, viewErrors, viewToSearch } from "../lib/committee-view";
 import "./committee-print.css";
+import { ObservationsSection } from "./observations-section";
 
 type Space = SiteDrillDown["spaces"][number];
 
