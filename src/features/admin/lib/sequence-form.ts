@@ -75,13 +75,17 @@ export function formFromVersion(version: SequenceVersion): SequenceFormValues {
 
 /** A key for a new sequence made from its title: "Removal, enhanced" → "removal-enhanced". */
 export function sequenceKeyFrom(title: string): string {
-  return title
-    .toLowerCase()
-    .normalize("NFKD")
-    .replace(/[^a-z0-9]+/g, "-")
-    .replace(/^-+|-+$/g, "")
-    .slice(0, 60)
-    .replace(/-+$/, "");
+  return (
+    title
+      .toLowerCase()
+      .normalize("NFKD")
+      // Accents come apart from their letters; drop them rather than turn them into dashes.
+      .replace(/\p{M}/gu, "")
+      .replace(/[^a-z0-9]+/g, "-")
+      .replace(/^-+|-+$/g, "")
+      .slice(0, 60)
+      .replace(/-+$/, "")
+  );
 }
 
 /** A checkbox group hands back `false` when nothing is ticked and a string when one box is. */
