@@ -9,6 +9,7 @@ import { imageRoutes } from "./modules/images/images.router";
 import { devMailboxRoutes } from "./modules/dev-mailbox/dev-mailbox.router";
 import { healthRoutes } from "./modules/health/health.router";
 import { mailRoutes } from "./modules/mail/mail.router";
+import { observationRoutes } from "./modules/observations/observations.router";
 import { peopleRoutes } from "./modules/people/people.router";
 import { siteRoutes } from "./modules/sites/sites.router";
 
@@ -27,4 +28,5 @@ export const apiRoutes = [
   ...auditRoutes,
   ...actionRoutes,
   ...committeeRoutes,
+  ...observationRoutes,
 ];

@@ -13,6 +13,7 @@ import { reconcileStorage } from "./lib/images";
 import { createStorage } from "./lib/storage";
 import { prepareMonthStats } from "./modules/committee/committee.service";
 import { createActionScheduler } from "./modules/actions/actions.scheduler";
+import { purgeObservationDetail } from "./modules/observations/observations.service";
 import { createOutboxWorker } from "./outbox/outbox-worker";
 
 export interface RunningServer {
@@ -37,8 +38,14 @@ export async function startServer(env: Env, options: StartOptions = {}): Promise
     reconcileStorage({ db: database.db, storage }).catch((err: unknown) =>
       logger.warn({ err }, "storage reconcile failed"),
     );
+  // Observation detail past the network's retention period goes on the same round.
+  const purge = () =>
+    purgeObservationDetail(database.db).catch((err: unknown) =>
+      logger.warn({ err }, "observation retention purge failed"),
+    );
   await reconcile();
-  const reconcileTimer = setInterval(() => void reconcile(), 10 * 60 * 1000);
+  await purge();
+  const reconcileTimer = setInterval(() => void reconcile().then(purge), 10 * 60 * 1000);
   reconcileTimer.unref();
   if (env.LINTEL_DEMO === "1") await runDemoSteps(database.db, logger, demoStepList, { storage });
   await prepareMonthStats(database.db);

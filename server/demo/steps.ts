@@ -6,6 +6,7 @@ import { hashPassword } from "../auth/password";
 import { networks, roleGrants, sites, users } from "../db/schema/index";
 import { recordChange } from "../lib/change-log";
 import { ensureDefaultChecklists } from "../modules/checklists/checklists.service";
+import { ensureDefaultSequences } from "../modules/observations/sequences.service";
 import { createDemoAuditHistory } from "./audit-history";
 import { createDemoCorrectiveActions } from "./corrective-actions";
 import { createDemoFloor, type DemoFloorPlan } from "./floor-plans";
@@ -207,6 +208,16 @@ const checklistDefaultsV2: DemoStep = {
   },
 };
 
+const sequenceDefaults: DemoStep = {
+  id: "2026-12-03-sequence-defaults",
+  description: "Lintel's default putting-on and removal sequences, published as version 1",
+  async run(tx) {
+    const demo = await findDemoSites(tx);
+    if (!demo) return;
+    await ensureDefaultSequences(tx, demo.networkId);
+  },
+};
+
 /** In release order; append new steps, never reorder or rename released ones. */
 export const demoStepList: DemoStep[] = [
   networkSitesPeople,
@@ -214,4 +225,5 @@ export const demoStepList: DemoStep[] = [
   auditHistory,
   correctiveActionsHistory,
   checklistDefaultsV2,
+  sequenceDefaults,
 ];

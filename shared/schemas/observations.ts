@@ -248,3 +248,16 @@ export const observationCommitteeResponseSchema = z.object({
   sites: z.array(observationFiguresSchema.extend({ siteId: uuidSchema, siteName: responseText() })),
 });
 export type ObservationCommitteeResponse = z.infer<typeof observationCommitteeResponseSchema>;
+
+/** How long a network keeps observation detail (staff codes, notes, breaches, pre-check). */
+export const defaultRetentionDays = 730;
+export const observationSettingsBodySchema = z.strictObject({
+  retentionDays: z
+    .number({ message: "A number of days." })
+    .int({ message: "A whole number of days." })
+    .min(30, { message: "At least 30 days." })
+    .max(3650, { message: "At most 3650 days (ten years)." }),
+});
+export type ObservationSettingsBody = z.infer<typeof observationSettingsBodySchema>;
+export const observationSettingsSchema = z.object({ retentionDays: z.number().int() });
+export type ObservationSettings = z.infer<typeof observationSettingsSchema>;

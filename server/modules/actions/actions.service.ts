@@ -244,11 +244,54 @@ export async function recordFindings(
   actor: Actor,
   now: Date,
 ): Promise<number> {
-  if (failed.length === 0) return 0;
+  const { queued } = await joinOrOpenActions(
+    tx,
+    env,
+    { kind: "audit", ...audit },
+    failed,
+    actor,
+    now,
+  );
+  return queued;
+}
+
+/**
+ * The same path for what an observer saw of a space while watching PPE come off (no hand rub
+ * within reach, a full bin, no clean/dirty separation): each item joins the item's unfinished
+ * action in the space or opens one. The observation's breaches keep the link to the action, so no
+ * audit finding row is written; the timeline says an observation found it, in Lintel's words
+ * (never the observer's note, which is removed after the retention period while the change log
+ * is kept). Returns the e-mails queued and the action of each item key.
+ */
+export async function recordObservationFindings(
+  tx: Tx,
+  env: Env,
+  observation: { id: string; siteId: string; spaceId: string },
+  failed: readonly FailedItem[],
+  actor: Actor,
+  now: Date,
+): Promise<{ queued: number; actionIds: Map<string, string> }> {
+  return joinOrOpenActions(tx, env, { kind: "observation", ...observation }, failed, actor, now);
+}
+
+type FindingSource = { kind: "audit" | "observation"; id: string; siteId: string; spaceId: string };
+
+async function joinOrOpenActions(
+  tx: Tx,
+  env: Env,
+  source: FindingSource,
+  failed: readonly FailedItem[],
+  actor: Actor,
+  now: Date,
+): Promise<{ queued: number; actionIds: Map<string, string> }> {
+  const actionIds = new Map<string, string>();
+  if (failed.length === 0) return { queued: 0, actionIds };
   // Locked before reading, so a retirement of the space is either seen here or waits for this.
-  await repo.lockSpaceForFindings(tx, audit.spaceId);
-  const space = await repo.spaceForFindings(tx, audit.spaceId);
-  if (!space) return 0;
+  await repo.lockSpaceForFindings(tx, source.spaceId);
+  const space = await repo.spaceForFindings(tx, source.spaceId);
+  if (!space) return { queued: 0, actionIds };
+  const sourceFact =
+    source.kind === "audit" ? { auditId: source.id } : { observationId: source.id };
   const policy = (await repo.duePolicyOf(tx, space.siteId)) ?? defaultDuePolicy;
   const [lead] = await repo.peopleWithRoleAt(tx, space.siteId, "facilities_lead");
   const position = polygonCentroid(space.polygon);
@@ -259,19 +302,22 @@ export async function recordFindings(
     const existing = await repo.findUnfinishedAction(tx, space.id, item.key);
     const due = dueAt(now, item.severity, policy, space.timeZone);
     if (existing) {
-      const finding = await repo.insertFinding(tx, {
-        actionId: existing.id,
-        auditId: audit.id,
-        siteId: space.siteId,
-        spaceId: space.id,
-        itemId: item.itemId,
-        itemKey: item.key,
-        itemText: item.text,
-        severity: item.severity,
-        note: item.note,
-        ...position,
-      });
-      if (!finding) continue;
+      actionIds.set(item.key, existing.id);
+      if (source.kind === "audit") {
+        const finding = await repo.insertFinding(tx, {
+          actionId: existing.id,
+          auditId: source.id,
+          siteId: space.siteId,
+          spaceId: space.id,
+          itemId: item.itemId,
+          itemKey: item.key,
+          itemText: item.text,
+          severity: item.severity,
+          note: item.note,
+          ...position,
+        });
+        if (!finding) continue;
+      }
       const changes: Partial<typeof existing> = {};
       // A graver failure tightens the action; a lighter one never loosens it.
       if (severityRank(item.severity) < severityRank(existing.severity)) {
@@ -285,7 +331,7 @@ export async function recordFindings(
       if (Object.keys(changes).length > 0) await repo.updateAction(tx, existing.id, changes);
       await logMove(tx, actor, { id: existing.id, siteId: space.siteId }, "finding_added", {
         before: { state: existing.state },
-        after: { state: repeat.to, auditId: audit.id },
+        after: { state: repeat.to, ...sourceFact },
         reason: item.note,
       });
       continue;
@@ -304,22 +350,24 @@ export async function recordFindings(
       dueAt: due,
       ...position,
     });
-    await repo.insertFinding(tx, {
-      actionId: action.id,
-      auditId: audit.id,
-      siteId: space.siteId,
-      spaceId: space.id,
-      itemId: item.itemId,
-      itemKey: item.key,
-      itemText: item.text,
-      severity: item.severity,
-      note: item.note,
-      ...position,
-    });
+    actionIds.set(item.key, action.id);
+    if (source.kind === "audit")
+      await repo.insertFinding(tx, {
+        actionId: action.id,
+        auditId: source.id,
+        siteId: space.siteId,
+        spaceId: space.id,
+        itemId: item.itemId,
+        itemKey: item.key,
+        itemText: item.text,
+        severity: item.severity,
+        note: item.note,
+        ...position,
+      });
     await logMove(tx, actor, { id: action.id, siteId: space.siteId }, "opened", {
       after: {
         state: "to_fix",
-        auditId: audit.id,
+        ...sourceFact,
         severity: item.severity,
         dueAt: due.toISOString(),
         assigneeId: lead?.id ?? null,
@@ -353,7 +401,7 @@ export async function recordFindings(
   // An audit started before its space was retired still counts, but what it found is not work
   // for anyone now: its actions close at once, for the same reason as the space's others.
   if (space.retiredAt) await closeUnfinishedActions(tx, actor, [space.id], now);
-  return queued;
+  return { queued, actionIds };
 }
 
 const spaceRetiredWords = "Done because the space was retired; not counted as fixed.";
