@@ -215,14 +215,14 @@ describe("the administrator's observation steps", () => {
     const region = await screen.findByRole("region", {
       name: "How long observation detail is kept",
     });
-    expect(region.textContent).toContain("the staff code and role of the person observed");
-    expect(region.textContent).toContain("the committee's counts");
+    expect(region.textContent).toContain("the staff code of the person observed");
+    expect(region.textContent).toContain("what the committee's figures count");
     const days = await within(region).findByLabelText("Keep observation detail for (days)");
     expect((days as HTMLInputElement).value).toBe("730");
     await user.clear(days);
     await user.type(days, "20");
     await user.click(within(region).getByRole("button", { name: "Save retention period" }));
-    await within(region).findByText("Between 30 and 3,650 days.");
+    await within(region).findByText("At least 30 days.");
     expect(calls.some((call) => call.method === "PUT")).toBe(false);
 
     await user.clear(days);

@@ -1,11 +1,8 @@
+import { type ObservationSettings, observationSettingsSchema } from "@shared/schemas/observations";
 import { queryOptions, useQuery } from "@tanstack/react-query";
-import { z } from "zod";
 
 import { apiRequest } from "@/lib/api-client";
 import { queryKeys } from "@/lib/query-keys";
-
-export const observationSettingsSchema = z.object({ retentionDays: z.number().int() });
-export type ObservationSettings = z.infer<typeof observationSettingsSchema>;
 
 /** How long the network keeps the detail of each observation. */
 export function getObservationSettings({

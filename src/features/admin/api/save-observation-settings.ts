@@ -1,4 +1,9 @@
 import {
+  type ObservationSettings,
+  type ObservationSettingsBody,
+  observationSettingsSchema,
+} from "@shared/schemas/observations";
+import {
   mutationOptions,
   type QueryClient,
   useMutation,
@@ -8,10 +13,8 @@ import {
 import { apiRequest } from "@/lib/api-client";
 import { queryKeys } from "@/lib/query-keys";
 
-import { type ObservationSettings, observationSettingsSchema } from "./get-observation-settings";
-
 export async function saveObservationSettings(
-  body: ObservationSettings,
+  body: ObservationSettingsBody,
 ): Promise<ObservationSettings> {
   return apiRequest("/api/observation-settings", {
     method: "PUT",

@@ -78,13 +78,14 @@ export function RetentionSetting() {
         <div className="flex max-w-prose flex-col gap-2 text-sm">
           <p>
             <span className="font-semibold">Removed</span> once an observation is older than this:
-            the staff code and role of the person observed, the record of each step, the breaches
-            with their notes, and the coaching note.
+            the staff code of the person observed, each breach recorded with its note, the check of
+            the area and the coaching note.
           </p>
           <p>
-            <span className="font-semibold">Kept</span>: the committee&apos;s counts, such as how
-            many observations a site had each month and how often each step was breached, which name
-            no one. Findings and corrective actions opened for a space stay as they are.
+            <span className="font-semibold">Kept</span>: what the committee&apos;s figures count,
+            which names no one: when and where the observation took place, the sequence, the
+            person&apos;s role, its outcome, which steps had a breach and the hand-hygiene moments
+            performed. Findings and corrective actions opened for a space stay as they are.
           </p>
         </div>
         {settings.isPending ? (

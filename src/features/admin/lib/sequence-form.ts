@@ -1,6 +1,8 @@
 import {
   type BreachKind,
   breachKinds,
+  defaultRetentionDays,
+  observationSettingsBodySchema,
   type SequenceDraftBody,
   sequenceDraftBodySchema,
   type SequenceKind,
@@ -150,22 +152,18 @@ export const sequenceResolver: Resolver<SequenceFormValues, unknown, SequenceDra
   return { values: none, errors };
 };
 
-/** The network's retention period for observation detail, in days (Lintel's bounds). */
-export const retentionBounds = { min: 30, max: 3650, default: 730 } as const;
+/** The network's retention period for observation detail, in days, as the contract bounds it. */
+export const retentionBounds = { min: 30, max: 3650, default: defaultRetentionDays } as const;
 
-/** The days typed, or the reason they cannot be saved. */
+/** The days typed, or the reason they cannot be saved, in the contract's own words. */
 export function readRetentionDays(
   value: string,
 ): { ok: true; days: number } | { ok: false; message: string } {
   const trimmed = value.trim();
-  if (!/^\d+$/.test(trimmed)) return { ok: false, message: "Enter a whole number of days." };
-  const days = Number(trimmed);
-  if (days < retentionBounds.min || days > retentionBounds.max)
-    return {
-      ok: false,
-      message: `Between ${retentionBounds.min} and ${retentionBounds.max.toLocaleString("en")} days.`,
-    };
-  return { ok: true, days };
+  if (!/^\d+$/.test(trimmed)) return { ok: false, message: "A whole number of days." };
+  const parsed = observationSettingsBodySchema.safeParse({ retentionDays: Number(trimmed) });
+  if (!parsed.success) return { ok: false, message: parsed.error.issues[0]!.message };
+  return { ok: true, days: parsed.data.retentionDays };
 }
 
 /** "730 days (about 2 years)": the period in words an administrator checks at a glance. */
