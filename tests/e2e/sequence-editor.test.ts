@@ -107,7 +107,6 @@ describe("the observation steps page on a phone (390×844)", () => {
     expect(versions.rows[0]!.text).toMatch(/^Take off the gloves: .*Put them in the waste\.$/);
     expect(versions.rows[1]!.text).toBe(reworded);
     await shot(admin.page, "sequences-admin-published");
-    console.log(await admin.page.locator("main").textContent());
     await admin.page
       .locator("section", {
         has: admin.page.getByRole("heading", { name: "Removing PPE, example 1 (gloves first)" }),
