@@ -61,7 +61,10 @@ function SequencesPage() {
     return (
       <>
         <title>{`${base.title} · Lintel`}</title>
-        <h1 className="text-2xl font-bold tracking-tight md:text-3xl">{base.title}</h1>
+        {/* Keyed: each of the page's screens has a heading of its own, not one reused. */}
+        <h1 key="edit" className="text-2xl font-bold tracking-tight md:text-3xl">
+          {base.title}
+        </h1>
         <p className="mt-1 mb-6 text-ink-muted">
           {entry.published
             ? `Draft of version ${nextVersion}. Version ${entry.published.version} stays in use until this one is published.`
@@ -85,7 +88,9 @@ function SequencesPage() {
     return (
       <>
         <title>New sequence · Lintel</title>
-        <h1 className="text-2xl font-bold tracking-tight md:text-3xl">New sequence</h1>
+        <h1 key="new" className="text-2xl font-bold tracking-tight md:text-3xl">
+          New sequence
+        </h1>
         <p className="mt-1 mb-6 text-ink-muted">
           Observers can choose it once its first version is published.
         </p>
@@ -105,7 +110,9 @@ function SequencesPage() {
   return (
     <>
       <title>Observation steps · Lintel</title>
-      <h1 className="text-2xl font-bold tracking-tight md:text-3xl">Observation steps</h1>
+      <h1 key="list" className="text-2xl font-bold tracking-tight md:text-3xl">
+        Observation steps
+      </h1>
       <p className="mt-2 mb-6 max-w-prose text-ink-muted">
         The putting-on and removal sequences an observer reads aloud, step by step, used by every
         site in the network. Each observation keeps the version it followed.
