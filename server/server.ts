@@ -47,7 +47,8 @@ export async function startServer(env: Env, options: StartOptions = {}): Promise
   await purge();
   const reconcileTimer = setInterval(() => void reconcile().then(purge), 10 * 60 * 1000);
   reconcileTimer.unref();
-  if (env.LINTEL_DEMO === "1") await runDemoSteps(database.db, logger, demoStepList, { storage });
+  if (env.LINTEL_DEMO === "1")
+    await runDemoSteps(database.db, logger, demoStepList, { storage, env });
   await prepareMonthStats(database.db);
 
   const mailer = createMailer(env);

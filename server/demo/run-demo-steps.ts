@@ -2,11 +2,14 @@ import { eq, sql } from "drizzle-orm";
 import type { Logger } from "pino";
 
 import type { Database, Tx } from "../db/client";
+import type { Env } from "../env";
 import type { Storage } from "../lib/storage";
 import { demoSteps } from "../db/schema/index";
 
 export interface DemoContext {
   storage: Storage;
+  /** For the links in any notice a demo finding queues, as the app's own would carry. */
+  env: Env;
 }
 
 export interface DemoStep {

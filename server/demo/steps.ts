@@ -9,6 +9,7 @@ import { ensureDefaultChecklists } from "../modules/checklists/checklists.servic
 import { ensureDefaultSequences } from "../modules/observations/sequences.service";
 import { createDemoAuditHistory } from "./audit-history";
 import { createDemoCorrectiveActions } from "./corrective-actions";
+import { createDemoObservationHistory } from "./observation-history";
 import { createDemoFloor, type DemoFloorPlan } from "./floor-plans";
 import { demoNetworkName, demoPassword, demoPeople, demoSites, type DemoSiteKey } from "./people";
 import type { Tx } from "../db/client";
@@ -218,6 +219,17 @@ const sequenceDefaults: DemoStep = {
   },
 };
 
+const observationHistory: DemoStep = {
+  id: "2026-12-03-observation-history",
+  description:
+    "a year of observed putting-on and removal at the three sites, a few breaches caused by the space",
+  async run(tx, context) {
+    const demo = await findDemoSites(tx);
+    if (!demo || !hasEverySite(demo.siteIds)) return;
+    await createDemoObservationHistory(tx, context.env, demo.networkId, demo.siteIds);
+  },
+};
+
 /** In release order; append new steps, never reorder or rename released ones. */
 export const demoStepList: DemoStep[] = [
   networkSitesPeople,
@@ -226,4 +238,5 @@ export const demoStepList: DemoStep[] = [
   correctiveActionsHistory,
   checklistDefaultsV2,
   sequenceDefaults,
+  observationHistory,
 ];

@@ -20,6 +20,19 @@ export const monthsBetween = (from: string, to: string) => {
   return (ty - fy) * 12 + (tm - fm) + 1;
 };
 
+/** A period of whole months runs forward and is at most `maxPeriodMonths` long. */
+function checkPeriod(query: { from: string; to: string }, ctx: z.RefinementCtx) {
+  const span = monthsBetween(query.from, query.to);
+  if (span < 1)
+    ctx.addIssue({ code: "custom", path: ["to"], message: "End on or after the start." });
+  else if (span > maxPeriodMonths)
+    ctx.addIssue({
+      code: "custom",
+      path: ["to"],
+      message: `At most ${maxPeriodMonths} months at a time.`,
+    });
+}
+
 /** The period (whole months, on each site's clock) and the zone type a committee view covers. */
 export const committeeQuerySchema = z
   .strictObject({
@@ -29,17 +42,11 @@ export const committeeQuerySchema = z
     siteA: uuidSchema.optional(),
     siteB: uuidSchema.optional(),
   })
-  .superRefine((query, ctx) => {
-    const span = monthsBetween(query.from, query.to);
-    if (span < 1)
-      ctx.addIssue({ code: "custom", path: ["to"], message: "End on or after the start." });
-    else if (span > maxPeriodMonths)
-      ctx.addIssue({
-        code: "custom",
-        path: ["to"],
-        message: `At most ${maxPeriodMonths} months at a time.`,
-      });
-  });
+  .superRefine(checkPeriod);
+/** A period alone (whole months, on each site's clock). */
+export const committeePeriodSchema = z
+  .strictObject({ from: month, to: month })
+  .superRefine(checkPeriod);
 export type CommitteeQuery = z.infer<typeof committeeQuerySchema>;
 
 const interval = z.object({ lower: z.number(), upper: z.number() });

@@ -213,29 +213,49 @@ export const observationSchema = z.object({
 export type Observation = z.infer<typeof observationSchema>;
 
 /** Committee figures on observations, per site and for the network. */
+/** Fewer distinct staff codes than this behind a figure and the figure is withheld. */
+export const minimumStaffCodes = 5;
+
+/** A proportion that is withheld (all counts 0, rate and interval null) when `suppressed`. */
+const suppressibleProportionSchema = proportionSchema.extend({ suppressed: z.boolean() });
+
 export const stepBreachRateSchema = z.object({
   sequenceKey: responseText(),
+  /** The sequence's title in its newest version observed. */
+  sequenceTitle: responseText(),
   stepKey: responseText(),
   stepText: responseText(),
-  /** Observations with a breach at this step out of observations of the sequence. */
+  /** Observations with a breach at this step out of observations of the sequence with this step. */
   breached: proportionSchema,
+  /** True when the step's observations describe fewer than 5 staff codes: `breached` is withheld. */
+  suppressed: z.boolean(),
 });
+export type StepBreachRate = z.infer<typeof stepBreachRateSchema>;
 
 export const observationFiguresSchema = z.object({
+  /** Observations in the period (counted even when the figures are withheld). */
   observations: z.number().int(),
-  /** Null when the cell would describe fewer than 5 staff codes. */
+  /**
+   * True when the cell describes fewer than 5 staff codes: every figure below is withheld (steps
+   * empty, proportions with no counts), only the number of observations and the months stay.
+   */
   suppressed: z.boolean(),
+  /** One row per step of each sequence observed, by sequence then the step's position. */
   steps: z.array(stepBreachRateSchema),
   /** The five steps with the highest breach rate (ranked only with enough observations). */
   mostErrorProne: z.array(stepBreachRateSchema),
-  /** Observations with every hand-hygiene moment performed, out of observations. */
-  handHygieneAllMoments: proportionSchema,
+  /** Observations with every hand-hygiene moment performed, out of observations with a moment. */
+  handHygieneAllMoments: suppressibleProportionSchema,
   /** Moments performed ÷ moments expected (no interval: moments in one observation are not independent). */
   handHygieneMomentRate: z.number().nullable(),
   perMonth: z.array(z.object({ month: responseText(), observations: z.number().int() })),
-  /** Staff codes observed again after coaching whose next observation was clean. */
-  cleanAfterCoaching: proportionSchema,
+  /**
+   * Staff codes coached and observed again at the same site in the period whose next observation
+   * was clean (one per staff code: the first coaching followed by another observation).
+   */
+  cleanAfterCoaching: suppressibleProportionSchema,
 });
+export type ObservationFigures = z.infer<typeof observationFiguresSchema>;
 
 export const observationCommitteeResponseSchema = z.object({
   from: responseText(),

@@ -75,8 +75,8 @@ function monthsBack(back: number): string {
 
 describe("committee report PDF layout", () => {
   it("when the demo network's report for the last twelve months is printed, then every page holds real content, no text crosses a margin and no overdue row is split across pages", async () => {
-    const { db, logger, storage } = testApp().deps;
-    await runDemoSteps(db, logger, demoStepList, { storage });
+    const { db, logger, storage, env } = testApp().deps;
+    await runDemoSteps(db, logger, demoStepList, { storage, env });
     const [committee] = await db
       .select({ id: users.id, networkId: users.networkId })
       .from(users)

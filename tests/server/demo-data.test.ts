@@ -22,12 +22,12 @@ import { api, testApp } from "../helpers/app";
 
 describe("demo data", () => {
   it("when the steps run twice (even at once), then each runs once and is recorded", async () => {
-    const { db, logger, storage } = testApp().deps;
+    const { db, logger, storage, env } = testApp().deps;
     const [first, second] = await Promise.all([
-      runDemoSteps(db, logger, demoStepList, { storage }),
-      runDemoSteps(db, logger, demoStepList, { storage }),
+      runDemoSteps(db, logger, demoStepList, { storage, env }),
+      runDemoSteps(db, logger, demoStepList, { storage, env }),
     ]);
-    const third = await runDemoSteps(db, logger, demoStepList, { storage });
+    const third = await runDemoSteps(db, logger, demoStepList, { storage, env });
 
     expect([...first, ...second].sort()).toEqual(demoStepList.map((step) => step.id).sort());
     expect(third).toEqual([]);
@@ -60,24 +60,24 @@ describe("demo data", () => {
   });
 
   it("when a later release adds a step, then only the new step runs on an existing database", async () => {
-    const { db, logger, storage } = testApp().deps;
-    await runDemoSteps(db, logger, demoStepList, { storage });
+    const { db, logger, storage, env } = testApp().deps;
+    await runDemoSteps(db, logger, demoStepList, { storage, env });
     let ran = 0;
     const later: DemoStep = {
       id: `test-later-step-${crypto.randomUUID()}`,
       description: "a later step",
       run: async () => void (ran += 1),
     };
-    expect(await runDemoSteps(db, logger, [...demoStepList, later], { storage })).toEqual([
+    expect(await runDemoSteps(db, logger, [...demoStepList, later], { storage, env })).toEqual([
       later.id,
     ]);
-    expect(await runDemoSteps(db, logger, [...demoStepList, later], { storage })).toEqual([]);
+    expect(await runDemoSteps(db, logger, [...demoStepList, later], { storage, env })).toEqual([]);
     expect(ran).toBe(1);
   });
 
   it("when each demo person signs in with the demo password, then they get the roles the README lists", async () => {
-    const { db, logger, storage } = testApp().deps;
-    await runDemoSteps(db, logger, demoStepList, { storage });
+    const { db, logger, storage, env } = testApp().deps;
+    await runDemoSteps(db, logger, demoStepList, { storage, env });
     for (const person of demoPeople) {
       const response = await api()
         .post("/api/auth/sign-in")
@@ -96,8 +96,8 @@ describe("demo data", () => {
   });
 
   it("when a demo person signs in with the demo password, then they get their roles", async () => {
-    const { db, logger, storage } = testApp().deps;
-    await runDemoSteps(db, logger, demoStepList, { storage });
+    const { db, logger, storage, env } = testApp().deps;
+    await runDemoSteps(db, logger, demoStepList, { storage, env });
     const response = await api()
       .post("/api/auth/sign-in")
       .send({ email: "auditor2@example.org", password: demoPassword });
@@ -111,8 +111,8 @@ describe("demo data", () => {
   });
 
   it("when the demo history is loaded, then each site has about a year of audits with every verdict", async () => {
-    const { db, logger, storage } = testApp().deps;
-    await runDemoSteps(db, logger, demoStepList, { storage });
+    const { db, logger, storage, env } = testApp().deps;
+    await runDemoSteps(db, logger, demoStepList, { storage, env });
     const rows = await db
       .select({
         site: sites.name,
@@ -142,8 +142,8 @@ describe("demo data", () => {
   });
 
   it("when the demo history is loaded, then every verdict records rules version 2 and isolation rooms are ready only with inward airflow confirmed", async () => {
-    const { db, logger, storage } = testApp().deps;
-    await runDemoSteps(db, logger, demoStepList, { storage });
+    const { db, logger, storage, env } = testApp().deps;
+    await runDemoSteps(db, logger, demoStepList, { storage, env });
     const rows = await db
       .select({
         verdict: audits.verdict,
@@ -177,8 +177,8 @@ describe("demo data", () => {
   });
 
   it("when the demo starts, then its year of audits stays on version 1 and version 2 of each default checklist is published", async () => {
-    const { db, logger, storage } = testApp().deps;
-    await runDemoSteps(db, logger, demoStepList, { storage });
+    const { db, logger, storage, env } = testApp().deps;
+    await runDemoSteps(db, logger, demoStepList, { storage, env });
     const [network] = await db
       .select({ id: networks.id })
       .from(networks)
@@ -218,8 +218,8 @@ describe("demo data", () => {
   ];
 
   async function demoActions() {
-    const { db, logger, storage } = testApp().deps;
-    await runDemoSteps(db, logger, demoStepList, { storage });
+    const { db, logger, storage, env } = testApp().deps;
+    await runDemoSteps(db, logger, demoStepList, { storage, env });
     const siteRows = await db
       .select({ id: sites.id, name: sites.name })
       .from(sites)
@@ -347,7 +347,8 @@ describe("demo data", () => {
         ),
       );
     expect(rows.length).toBe(failed!.n);
-    // Every action began with a finding and an "opened" entry at the time it opened.
+    // Every action began with a finding (of an audit, or a space-caused breach seen while
+    // observing) and an "opened" entry at the time it opened.
     const [orphans] = await db
       .select({ n: count() })
       .from(correctiveActions)
@@ -355,6 +356,7 @@ describe("demo data", () => {
         and(
           inArray(correctiveActions.siteId, siteIds),
           sql`not exists (select 1 from ${findings} where ${findings.actionId} = ${correctiveActions.id})`,
+          sql`not exists (select 1 from observation_breaches b where b.action_id = ${correctiveActions.id} and b.cause = 'space')`,
         ),
       );
     expect(orphans!.n).toBe(0);
@@ -368,5 +370,74 @@ describe("demo data", () => {
         ),
       );
     expect(unopened!.n).toBe(0);
+  });
+
+  it("when the demo runs, then a year of observations shows more breaches at glove and gown removal, fewer after coaching at Orchard, and space-caused breaches joined open actions", async () => {
+    const { db, logger, storage, env } = testApp().deps;
+    await runDemoSteps(db, logger, demoStepList, { storage, env });
+    const [network] = await db
+      .select({ id: networks.id })
+      .from(networks)
+      .where(eq(networks.name, "Tamsin Bay Health"));
+    const siteRows = await db
+      .select({ id: sites.id, name: sites.name })
+      .from(sites)
+      .where(eq(sites.networkId, network!.id));
+    const ids = siteRows.map((site) => site.id);
+    const perSite = await db.execute<{ site_id: string; n: number; first: Date; last: Date }>(sql`
+      select site_id, count(*)::int as n, min(finished_at) as first, max(finished_at) as last
+        from observations where site_id = any(${`{${ids.join(",")}}`}::uuid[]) group by site_id`);
+    expect(perSite.rows).toHaveLength(3);
+    for (const row of perSite.rows) {
+      expect(row.n).toBeGreaterThan(60);
+      const span = new Date(row.last).getTime() - new Date(row.first).getTime();
+      expect(span / (24 * 3600 * 1000)).toBeGreaterThan(300);
+    }
+    // Glove and gown removal steps are breached more often than the other steps.
+    const byStep = await db.execute<{ glove_or_gown: boolean; rate: number }>(sql`
+      select (ss.key ~ '(glove|gown)' and ss.key !~ 'hand-hygiene' and sv.kind = 'removal') as glove_or_gown,
+             avg(os.breached::int)::float8 as rate
+        from observation_steps os
+        join observations o on o.id = os.observation_id
+        join sequence_steps ss on ss.id = os.step_id
+        join sequence_versions sv on sv.id = ss.version_id
+       where o.site_id = any(${`{${ids.join(",")}}`}::uuid[])
+       group by 1`);
+    const rate = (flag: boolean) => byStep.rows.find((row) => row.glove_or_gown === flag)!.rate;
+    expect(rate(true)).toBeGreaterThan(2 * rate(false));
+    // At Orchard, staff codes coached once breach less afterwards than before.
+    const orchard = siteRows.find((site) => site.name.includes("Orchard"))!;
+    const coaching = await db.execute<{ after: boolean; rate: number }>(sql`
+      with firsts as (
+        select staff_code, min(finished_at) as coached_at from observations
+         where site_id = ${orchard.id} and coaching_given group by staff_code)
+      select o.finished_at > f.coached_at as after, avg((o.outcome = 'breaches_seen')::int)::float8 as rate
+        from observations o join firsts f on f.staff_code = o.staff_code
+       where o.site_id = ${orchard.id} group by 1`);
+    const before = coaching.rows.find((row) => !row.after)!.rate;
+    const after = coaching.rows.find((row) => row.after)!.rate;
+    expect(after).toBeLessThan(before * 0.75);
+    // Space-caused breaches joined an unfinished action of the matching item; technique never did.
+    const caused = await db.execute<{
+      cause: string;
+      space_problem: string | null;
+      item_key: string | null;
+    }>(sql`
+      select b.cause, b.space_problem, ca.item_key
+        from observation_breaches b
+        join observations o on o.id = b.observation_id
+        left join corrective_actions ca on ca.id = b.action_id
+       where o.site_id = any(${`{${ids.join(",")}}`}::uuid[])`);
+    const space = caused.rows.filter((row) => row.cause === "space");
+    expect(space.length).toBeGreaterThanOrEqual(2);
+    const items: Record<string, string> = {
+      no_hand_rub_within_reach: "doff.hand-rub-reach",
+      bin_full: "doff.bins-fill",
+      no_clean_dirty_separation: "doff.clean-dirty-line",
+    };
+    for (const row of space) expect(row.item_key).toBe(items[row.space_problem!]);
+    expect(caused.rows.filter((row) => row.cause === "technique" && row.item_key !== null)).toEqual(
+      [],
+    );
   });
 });

@@ -487,6 +487,12 @@ export const examples: Record<string, RouteExample> = {
     control: () => ({ query: { from: "2026-01", to: "2026-06" } }),
   },
   "GET /committee/report": { control: () => ({ query: { from: "2026-01", to: "2026-06" } }) },
+  "GET /committee/observations": {
+    control: () => ({ query: { from: "2026-01", to: "2026-06" } }),
+  },
+  "GET /committee/observations/export": {
+    control: () => ({ query: { from: "2026-01", to: "2026-06" } }),
+  },
   "GET /sites/:siteId/actions": {
     control: (w) => ({
       params: { siteId: w.siteA },

@@ -433,6 +433,16 @@ const samples: Record<string, Sample> = {
     ok: 200,
     allowed: everyone,
   },
+  "GET /committee/observations": {
+    prepare: () => ({ url: "/api/committee/observations?from=2026-01&to=2026-12" }),
+    ok: 200,
+    allowed: everyone,
+  },
+  "GET /committee/observations/export": {
+    prepare: () => ({ url: "/api/committee/observations/export?from=2026-01&to=2026-12" }),
+    ok: 200,
+    allowed: everyone,
+  },
   "GET /checklists": { prepare: () => ({ url: "/api/checklists" }), ok: 200, allowed: everyone },
   "PUT /checklists/:zoneType/draft": {
     prepare: () => ({

@@ -7,10 +7,12 @@ import { itemCategoryLabels } from "@shared/checklists/categories";
 import { formatInZone } from "@shared/calc/due";
 import { rulesVersion, severityLabels } from "@shared/calc/verdict";
 import { actionStateLabels } from "@shared/workflow/action-workflow";
-import type { ComparisonResponse, TrendsResponse } from "@shared/schemas/committee";
+import type { ComparisonResponse, Proportion, TrendsResponse } from "@shared/schemas/committee";
+import type { ObservationCommitteeResponse } from "@shared/schemas/observations";
 import { zoneTypeLabels } from "@shared/zones";
 
 import type { overdueActions } from "./committee.repository";
+import { networkLabel } from "./observations.csv";
 
 const require = createRequire(import.meta.url);
 const fonts = {
@@ -24,6 +26,8 @@ export interface ReportInput {
   comparison: ComparisonResponse;
   trends: TrendsResponse;
   overdue: OverdueRow[];
+  /** The observation figures; the section is left out when not given. */
+  observations?: ObservationCommitteeResponse;
   generatedAt: Date;
 }
 
@@ -236,10 +240,70 @@ export function buildMonthlyReport(input: ReportInput): Promise<Buffer> {
       ]),
     );
 
+  if (input.observations) observationSection(input.observations, { heading, paragraph, table });
+
   doc.moveDown(1);
   paragraph(cautionText, 8, warn);
   doc.end();
   return done;
+}
+
+const withInterval = (p: Proportion) =>
+  p.rate === null
+    ? "–"
+    : `${percent(p.rate)} of ${p.n} (${percent(p.interval?.lower)}–${percent(p.interval?.upper)})${p.smallSample ? ", small sample" : ""}`;
+
+/** Observed putting-on and removal: per site, then the most error-prone steps. No staff codes. */
+function observationSection(
+  figures: ObservationCommitteeResponse,
+  draw: {
+    heading: (text: string) => void;
+    paragraph: (text: string, size: number, color: string) => void;
+    table: (columns: string[], rows: string[][]) => void;
+  },
+) {
+  draw.heading("Observed putting-on and removal");
+  draw.paragraph(
+    `Each observation counts once per step, however many breaches that step had. Rates carry 95% Wilson score intervals; fewer than ${figures.minimumRankedSample} observations is a small sample, and steps are ranked only from ${figures.minimumRankedSample}. Hand hygiene: the share of observations with every moment performed (with its interval), and beside it the share of all moments performed (no interval: moments in one observation are not independent). Clean after coaching: staff coached and observed again whose next observation had no breach. Figures describing fewer than ${figures.minimumStaffCodes} staff members are withheld.`,
+    9,
+    muted,
+  );
+  const all = [...figures.sites, { siteName: networkLabel, ...figures.network }];
+  draw.table(
+    ["Site", "Observations", "Every hand-hygiene moment", "Moments", "Clean after coaching"],
+    all.map((site) =>
+      site.suppressed
+        ? [site.siteName, String(site.observations), "Withheld: fewer than 5 staff", "–", "–"]
+        : [
+            site.siteName,
+            String(site.observations),
+            site.handHygieneAllMoments.suppressed
+              ? "Withheld"
+              : withInterval(site.handHygieneAllMoments),
+            percent(site.handHygieneMomentRate),
+            site.cleanAfterCoaching.suppressed
+              ? "Withheld: fewer than 5 staff"
+              : withInterval(site.cleanAfterCoaching),
+          ],
+    ),
+  );
+  draw.heading("Most error-prone steps");
+  const ranked = all.flatMap((site) =>
+    site.mostErrorProne.map((step, index) => [
+      site.siteName,
+      String(index + 1),
+      step.sequenceTitle,
+      step.stepText,
+      withInterval(step.breached),
+    ]),
+  );
+  if (ranked.length === 0)
+    draw.paragraph(
+      `No step has ${figures.minimumRankedSample} or more observations with a breach in the period.`,
+      10,
+      ink,
+    );
+  else draw.table(["Site", "Rank", "Sequence", "Step", "Breached (95% interval)"], ranked);
 }
 
 const cellGap = 6;

@@ -431,3 +431,147 @@ export async function overdueActions(db: DbOrTx, siteIds: readonly string[], lim
      limit ${limit}`);
   return result.rows.map((row) => ({ ...row, due_at: new Date(row.due_at) }));
 }
+
+/**
+ * The committee's observation counts in one statement, one row of four JSON lists: the sites the
+ * person may read (as for the comparison), each site's totals and hand-hygiene counts, its counts
+ * per sequence step, its observations per month (on its own clock), and its staff codes coached
+ * then observed again. Observations past retention have no staff code: they count everywhere but
+ * in the distinct codes and the after-coaching pairs. No staff code leaves this statement.
+ */
+export const observationQueries = {
+  figures: (networkId: string, onlyIds: readonly string[] | null, period: Period) => sql`
+    with readable as (
+      select id, name,
+             (${firstDay(period.from)}::date::timestamp at time zone time_zone) as starts,
+             ((${firstDay(period.to)}::date + interval '1 month')::timestamp at time zone time_zone) as ends,
+             time_zone
+        from sites
+       where network_id = ${networkId}
+         ${onlyIds === null ? sql`` : sql`and id = any(${siteArray(onlyIds)})`}
+    ), obs as (
+      select o.id, o.site_id, o.staff_code, o.finished_at, o.outcome, o.coaching_given,
+             o.hand_hygiene_performed as performed, o.hand_hygiene_expected as expected,
+             o.sequence_version_id,
+             to_char(o.finished_at at time zone r.time_zone, 'YYYY-MM') as month
+        from readable r
+        join observations o on o.site_id = r.id and o.finished_at >= r.starts and o.finished_at < r.ends
+    ), totals as (
+      select site_id, count(*)::int as observations,
+             count(distinct staff_code)::int as staff_codes,
+             count(*) filter (where staff_code is null)::int as without_code,
+             count(*) filter (where expected > 0)::int as hh_observations,
+             count(*) filter (where expected > 0 and performed >= expected)::int as hh_all,
+             coalesce(sum(performed) filter (where expected > 0), 0)::int as hh_performed,
+             coalesce(sum(expected), 0)::int as hh_expected,
+             count(distinct staff_code) filter (where expected > 0)::int as hh_staff_codes,
+             count(*) filter (where expected > 0 and staff_code is null)::int as hh_without_code
+        from obs group by site_id
+    ), step_names as (
+      -- Each step's words and place as in the newest version of its sequence that was observed.
+      select distinct on (sv.key, ss.key) sv.key as sequence_key, sv.title as sequence_title,
+             ss.key as step_key, ss.text as step_text, ss.position
+        from sequence_versions sv
+        join sequence_steps ss on ss.version_id = sv.id
+       where sv.id in (select distinct sequence_version_id from obs)
+       order by sv.key, ss.key, sv.version desc
+    ), step_counts as (
+      select obs.site_id, sv.key as sequence_key, ss.key as step_key,
+             count(*)::int as observations,
+             count(*) filter (where os.breached)::int as breached,
+             count(distinct obs.staff_code)::int as staff_codes,
+             count(*) filter (where obs.staff_code is null)::int as without_code
+        from obs
+        join observation_steps os on os.observation_id = obs.id
+        join sequence_steps ss on ss.id = os.step_id
+        join sequence_versions sv on sv.id = obs.sequence_version_id
+       group by obs.site_id, sv.key, ss.key
+    ), months as (
+      select site_id, month, count(*)::int as observations from obs group by site_id, month
+    ), followed as (
+      select site_id, staff_code, coaching_given, finished_at, id,
+             lead(outcome) over (partition by site_id, staff_code order by finished_at, id) as next_outcome
+        from obs where staff_code is not null
+    ), first_coaching as (
+      -- One per staff code: the first coaching in the period that another observation followed.
+      select distinct on (site_id, staff_code) site_id, next_outcome
+        from followed
+       where coaching_given and next_outcome is not null
+       order by site_id, staff_code, finished_at, id
+    ), coached as (
+      select site_id, count(*)::int as staff_codes,
+             count(*) filter (where next_outcome = 'clean_run')::int as clean
+        from first_coaching group by site_id
+    )
+    select
+      (select coalesce(json_agg(json_build_object(
+                'site_id', r.id, 'site_name', r.name,
+                'observations', coalesce(t.observations, 0),
+                'staff_codes', coalesce(t.staff_codes, 0),
+                'without_code', coalesce(t.without_code, 0),
+                'hh_observations', coalesce(t.hh_observations, 0),
+                'hh_all', coalesce(t.hh_all, 0),
+                'hh_performed', coalesce(t.hh_performed, 0),
+                'hh_expected', coalesce(t.hh_expected, 0),
+                'hh_staff_codes', coalesce(t.hh_staff_codes, 0),
+                'hh_without_code', coalesce(t.hh_without_code, 0),
+                'coached', coalesce(c.staff_codes, 0),
+                'coached_clean', coalesce(c.clean, 0)) order by r.name, r.id), '[]')
+         from readable r
+         left join totals t on t.site_id = r.id
+         left join coached c on c.site_id = r.id) as sites,
+      (select coalesce(json_agg(json_build_object(
+                'site_id', sc.site_id, 'sequence_key', sc.sequence_key,
+                'sequence_title', n.sequence_title, 'step_key', sc.step_key,
+                'step_text', n.step_text, 'position', n.position,
+                'observations', sc.observations, 'breached', sc.breached,
+                'staff_codes', sc.staff_codes, 'without_code', sc.without_code)), '[]')
+         from step_counts sc
+         join step_names n on n.sequence_key = sc.sequence_key and n.step_key = sc.step_key) as steps,
+      (select coalesce(json_agg(json_build_object(
+                'site_id', site_id, 'month', month, 'observations', observations)), '[]')
+         from months) as months`,
+};
+
+export interface ObservationSiteRow {
+  site_id: string;
+  site_name: string;
+  observations: number;
+  staff_codes: number;
+  without_code: number;
+  hh_observations: number;
+  hh_all: number;
+  hh_performed: number;
+  hh_expected: number;
+  hh_staff_codes: number;
+  hh_without_code: number;
+  coached: number;
+  coached_clean: number;
+}
+
+export interface ObservationStepRow {
+  site_id: string;
+  sequence_key: string;
+  sequence_title: string;
+  step_key: string;
+  step_text: string;
+  position: number;
+  observations: number;
+  breached: number;
+  staff_codes: number;
+  without_code: number;
+}
+
+export async function observationFigureRows(
+  db: DbOrTx,
+  networkId: string,
+  onlyIds: readonly string[] | null,
+  period: Period,
+) {
+  const result = await db.execute<{
+    sites: ObservationSiteRow[];
+    steps: ObservationStepRow[];
+    months: { site_id: string; month: string; observations: number }[];
+  }>(observationQueries.figures(networkId, onlyIds, period));
+  return result.rows[0]!;
+}

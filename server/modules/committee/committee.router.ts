@@ -3,7 +3,11 @@ import { stringify } from "csv-stringify/sync";
 import { itemCategoryLabels } from "@shared/checklists/categories";
 import { formatInZone } from "@shared/calc/due";
 import { verdictLabels } from "@shared/calc/verdict";
-import { committeeQuerySchema, committeeSiteParamsSchema } from "@shared/schemas/committee";
+import {
+  committeePeriodSchema,
+  committeeQuerySchema,
+  committeeSiteParamsSchema,
+} from "@shared/schemas/committee";
 import { zoneTypeLabels } from "@shared/zones";
 
 import { notFound } from "../../lib/app-error";
@@ -11,6 +15,7 @@ import { asCell, cautionRow, csvPreamble } from "../../lib/csv";
 import { atSite, defineRoute, type AnySiteAccess } from "../../lib/routes";
 import { requireSite } from "../sites/sites.service";
 import { buildMonthlyReport } from "./committee.report";
+import { observationCsv } from "./observations.csv";
 import * as committee from "./committee.service";
 import { exportAuditRows } from "./committee.repository";
 
@@ -176,9 +181,10 @@ export const committeeRoutes = [
     query: committeeQuerySchema,
     async handle({ res, deps, auth, query }) {
       const networkId = auth.user.networkId;
-      const [comparison, trends] = await Promise.all([
+      const [comparison, trends, observations] = await Promise.all([
         committee.comparison(deps.db, networkId, auth.grants, query),
         committee.trends(deps.db, networkId, auth.grants, query),
+        committee.observationFigures(deps.db, networkId, auth.grants, query),
       ]);
       const sites = await committee.readableSites(deps.db, networkId, auth.grants);
       if (sites.length === 0) throw notFound("A site to report on");
@@ -190,6 +196,7 @@ export const committeeRoutes = [
         comparison,
         trends,
         overdue,
+        observations,
         generatedAt: new Date(),
       });
       res
@@ -198,6 +205,38 @@ export const committeeRoutes = [
         .set("Content-Length", String(pdf.length))
         .attachment(`committee-report-${fileStamp(query)}.pdf`)
         .send(pdf);
+    },
+  }),
+  defineRoute({
+    method: "get",
+    path: "/committee/observations",
+    summary:
+      "Observed putting-on and removal per site and network: breach rate per step with 95% Wilson intervals, the five most error-prone steps, hand hygiene, observations per month, clean after coaching; cells of fewer than 5 staff codes withheld",
+    access: anyReadableSite,
+    query: committeePeriodSchema,
+    async handle({ res, deps, auth, query }) {
+      res.json(
+        await committee.observationFigures(deps.db, auth.user.networkId, auth.grants, query),
+      );
+    },
+  }),
+  defineRoute({
+    method: "get",
+    path: "/committee/observations/export",
+    summary: "The observation figures as CSV: one row per site (and the network) and measure",
+    access: anyReadableSite,
+    query: committeePeriodSchema,
+    async handle({ res, deps, auth, query }) {
+      const figures = await committee.observationFigures(
+        deps.db,
+        auth.user.networkId,
+        auth.grants,
+        query,
+      );
+      res
+        .type("text/csv; charset=utf-8")
+        .attachment(`observations-${fileStamp(query)}.csv`)
+        .send(observationCsv(figures));
     },
   }),
 ];

@@ -1,7 +1,14 @@
 import { sql } from "drizzle-orm";
 
 import { itemCategories, categoryOfItem } from "@shared/checklists/categories";
-import { pChart, proportionDifferenceInterval, wilsonInterval } from "@shared/calc/statistics";
+import {
+  monthsOf,
+  networkTally,
+  observationFigures as figuresOf,
+  type SiteObservationTally,
+} from "@shared/calc/observation-stats";
+import { committeeConfidence, proportion } from "@shared/calc/proportion";
+import { pChart, proportionDifferenceInterval } from "@shared/calc/statistics";
 import type { Outcome, Verdict } from "@shared/calc/verdict";
 import type { RoleGrant } from "@shared/roles";
 import {
@@ -9,10 +16,10 @@ import {
   minimumRankedSample,
   type CommitteeQuery,
   type ComparisonResponse,
-  type Proportion,
   type SiteDrillDown,
   type TrendsResponse,
 } from "@shared/schemas/committee";
+import { minimumStaffCodes, type ObservationCommitteeResponse } from "@shared/schemas/observations";
 import type { ZoneType } from "@shared/zones";
 
 import type { Database, DbOrTx } from "../../db/client";
@@ -20,17 +27,7 @@ import { AppError } from "../../lib/app-error";
 import { listSitesFor, networkName } from "../sites/sites.service";
 import * as repo from "./committee.repository";
 
-const confidence = 0.95;
-
-export function proportion(successes: number, n: number): Proportion {
-  return {
-    n,
-    successes,
-    rate: n === 0 ? null : successes / n,
-    interval: n === 0 ? null : wilsonInterval(successes, n, confidence),
-    smallSample: n < minimumRankedSample,
-  };
-}
+const confidence = committeeConfidence;
 
 /** The sites the person may read, in name order. */
 export async function readableSites(db: Database, networkId: string, grants: readonly RoleGrant[]) {
@@ -325,3 +322,59 @@ export const rebuildMonthStats = repo.rebuildMonthStats;
 /** The overdue actions a report lists, most overdue first (at most 200). */
 export const overdueForReport = (db: Database, siteIds: readonly string[]) =>
   repo.overdueActions(db, siteIds, 200);
+
+/** The committee's figures on observed putting-on and removal, per readable site and in all. */
+export async function observationFigures(
+  db: Database,
+  networkId: string,
+  grants: readonly RoleGrant[],
+  query: Pick<CommitteeQuery, "from" | "to">,
+): Promise<ObservationCommitteeResponse> {
+  const found = await repo.observationFigureRows(db, networkId, grantedSiteIds(grants), query);
+  const tallies = new Map<string, SiteObservationTally>();
+  for (const site of found.sites)
+    tallies.set(site.site_id, {
+      observations: site.observations,
+      staffCodes: site.staff_codes,
+      withoutCode: site.without_code,
+      steps: [],
+      handHygiene: {
+        observations: site.hh_observations,
+        allMoments: site.hh_all,
+        performed: site.hh_performed,
+        expected: site.hh_expected,
+        staffCodes: site.hh_staff_codes,
+        withoutCode: site.hh_without_code,
+      },
+      perMonth: [],
+      afterCoaching: { staffCodes: site.coached, clean: site.coached_clean },
+    });
+  for (const row of found.steps)
+    tallies.get(row.site_id)?.steps.push({
+      sequenceKey: row.sequence_key,
+      sequenceTitle: row.sequence_title,
+      stepKey: row.step_key,
+      stepText: row.step_text,
+      position: row.position,
+      observations: row.observations,
+      breached: row.breached,
+      staffCodes: row.staff_codes,
+      withoutCode: row.without_code,
+    });
+  for (const row of found.months)
+    tallies.get(row.site_id)?.perMonth.push({ month: row.month, observations: row.observations });
+  const months = monthsOf(query.from, query.to);
+  return {
+    from: query.from,
+    to: query.to,
+    confidence,
+    minimumRankedSample,
+    minimumStaffCodes,
+    network: figuresOf(networkTally([...tallies.values()]), months),
+    sites: found.sites.map((site) => ({
+      siteId: site.site_id,
+      siteName: site.site_name,
+      ...figuresOf(tallies.get(site.site_id)!, months),
+    })),
+  };
+}
