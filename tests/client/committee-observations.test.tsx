@@ -49,9 +49,11 @@ describe("the committee's observation figures", () => {
     expect(within(gloves).getByText("18.1% – 45.4%")).toBeTruthy();
     expect(within(gloves).getByText("n = 40")).toBeTruthy();
     expect(within(row(ranked, /Remove gown/)).getByText("10.5% – 34.8%")).toBeTruthy();
-    expect(within(gloves).getByText("Standard removal 1")).toBeTruthy();
+    expect(within(gloves).getByText("Removing PPE, example 1 (gloves first)")).toBeTruthy();
     expect(
-      within(section).getByRole("table", { name: "Breaches per step: Standard removal 1" }),
+      within(section).getByRole("table", {
+        name: "Breaches per step: Removing PPE, example 1 (gloves first)",
+      }),
     ).toBeTruthy();
     // The figures cover months only: the zone type of the readiness view is not sent.
     const asked = fetchStub.mock.calls
@@ -96,6 +98,34 @@ describe("the committee's observation figures", () => {
     expect(section.textContent).toContain("fewer than 5 staff members observed in this period");
     expect(within(section).queryByRole("table")).toBeNull();
     expect(section.textContent).not.toMatch(/\d+\.\d%/);
+  });
+
+  it("when one step or the coaching figure describes too few staff members, then that cell says why and shows no rate", async () => {
+    const figures = buildObservationFigures();
+    const withheld = { n: 0, successes: 0, rate: null, interval: null, smallSample: false };
+    figures.network = {
+      ...figures.network,
+      steps: figures.network.steps.map((step, index) =>
+        index === 2 ? { ...step, breached: withheld, suppressed: true } : step,
+      ),
+      cleanAfterCoaching: { ...withheld, suppressed: true },
+    };
+    stubCommittee(figures);
+    renderApp(`/committee?${period}`);
+
+    const steps = await screen.findByRole("table", {
+      name: "Breaches per step: Removing PPE, example 1 (gloves first)",
+    });
+    const hidden = row(steps, /Perform hand hygiene before leaving/);
+    expect(hidden.textContent).toContain("Not shown: fewer than 5 staff members observed");
+    expect(hidden.textContent).not.toMatch(/%/);
+    expect(within(row(steps, /Remove gloves/)).getByText("30.0%")).toBeTruthy();
+    const coaching = row(
+      screen.getByRole("table", { name: "Hand hygiene and coaching" }),
+      /Coached staff whose next observation was clean/,
+    );
+    expect(coaching.textContent).toContain("Not shown: fewer than 5 staff members observed");
+    expect(coaching.textContent).not.toMatch(/%/);
   });
 
   it("when a site's page opens, then it shows that site's observation figures only", async () => {

@@ -163,7 +163,14 @@ function stepRate(
   breached: number,
   n: number,
 ) {
-  return { sequenceKey, stepKey, stepText, breached: proportionOf(breached, n) };
+  return {
+    sequenceKey,
+    sequenceTitle: "Removing PPE, example 1 (gloves first)",
+    stepKey,
+    stepText,
+    breached: proportionOf(breached, n),
+    suppressed: false,
+  };
 }
 
 /**
@@ -191,23 +198,23 @@ export function buildObservationFigures(
     suppressed: false,
     steps,
     mostErrorProne: steps,
-    handHygieneAllMoments: proportionOf(31, 40),
+    handHygieneAllMoments: { ...proportionOf(31, 40), suppressed: false },
     handHygieneMomentRate: 110 / 120,
     perMonth: [
       { month: "2026-03", observations: 18 },
       { month: "2026-04", observations: 22 },
     ],
-    cleanAfterCoaching: proportionOf(9, 12),
+    cleanAfterCoaching: { ...proportionOf(9, 12), suppressed: false },
   };
   const suppressed: ObservationFigures = {
     observations: 4,
     suppressed: true,
     steps: [],
     mostErrorProne: [],
-    handHygieneAllMoments: proportionOf(0, 0),
+    handHygieneAllMoments: { ...proportionOf(0, 0), suppressed: true },
     handHygieneMomentRate: null,
     perMonth: [],
-    cleanAfterCoaching: proportionOf(0, 0),
+    cleanAfterCoaching: { ...proportionOf(0, 0), suppressed: true },
   };
   return {
     from: "2025-05",

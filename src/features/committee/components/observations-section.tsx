@@ -15,21 +15,28 @@ import {
   type FiguresChoice,
   figuresFor,
   type ObservationFigures,
-  sequenceName,
   type StepBreachRate,
   stepsBySequence,
+  suppressedCellText,
   suppressionText,
 } from "../lib/observation-figures";
 import { ProportionFigure } from "./proportion-figure";
+
+/** A withheld figure says why, in place of the number. */
+function Withheld({ minimumStaffCodes }: { minimumStaffCodes: number }) {
+  return <span className="block text-ink-muted">{suppressedCellText(minimumStaffCodes)}</span>;
+}
 
 function StepTable({
   caption,
   steps,
   ranked,
+  minimumStaffCodes,
 }: {
   caption: string;
   steps: readonly StepBreachRate[];
   ranked: boolean;
+  minimumStaffCodes: number;
 }) {
   return (
     <div className={tableStyles.frame}>
@@ -54,12 +61,14 @@ function StepTable({
               <td className={cn(tableStyles.cell, "tabular-nums")}>{index + 1}</td>
               <th scope="row" className={cn(tableStyles.cell, "font-normal")}>
                 {step.stepText}
-                {ranked ? (
-                  <span className="block text-ink-muted">{sequenceName(step.sequenceKey)}</span>
-                ) : null}
+                {ranked ? <span className="block text-ink-muted">{step.sequenceTitle}</span> : null}
               </th>
               <td className={tableStyles.number}>
-                <ProportionFigure proportion={step.breached} empty="Not observed" />
+                {step.suppressed ? (
+                  <Withheld minimumStaffCodes={minimumStaffCodes} />
+                ) : (
+                  <ProportionFigure proportion={step.breached} empty="Not observed" />
+                )}
               </td>
             </tr>
           ))}
@@ -69,7 +78,13 @@ function StepTable({
   );
 }
 
-function KeyFigures({ figures }: { figures: ObservationFigures }) {
+function KeyFigures({
+  figures,
+  minimumStaffCodes,
+}: {
+  figures: ObservationFigures;
+  minimumStaffCodes: number;
+}) {
   return (
     <div className={tableStyles.frame}>
       <table className={tableStyles.table}>
@@ -80,7 +95,11 @@ function KeyFigures({ figures }: { figures: ObservationFigures }) {
               Observations with every hand-hygiene moment performed
             </th>
             <td className={tableStyles.number}>
-              <ProportionFigure proportion={figures.handHygieneAllMoments} empty="No moments" />
+              {figures.handHygieneAllMoments.suppressed ? (
+                <Withheld minimumStaffCodes={minimumStaffCodes} />
+              ) : (
+                <ProportionFigure proportion={figures.handHygieneAllMoments} empty="No moments" />
+              )}
             </td>
           </tr>
           <tr>
@@ -91,7 +110,9 @@ function KeyFigures({ figures }: { figures: ObservationFigures }) {
               </span>
             </th>
             <td className={cn(tableStyles.number, "font-semibold")}>
-              {figures.handHygieneMomentRate === null ? (
+              {figures.handHygieneAllMoments.suppressed ? (
+                <Withheld minimumStaffCodes={minimumStaffCodes} />
+              ) : figures.handHygieneMomentRate === null ? (
                 <span className="font-normal text-ink-muted">No moments</span>
               ) : (
                 percentText(figures.handHygieneMomentRate)
@@ -103,10 +124,14 @@ function KeyFigures({ figures }: { figures: ObservationFigures }) {
               Coached staff whose next observation was clean
             </th>
             <td className={tableStyles.number}>
-              <ProportionFigure
-                proportion={figures.cleanAfterCoaching}
-                empty="Nobody observed again after coaching"
-              />
+              {figures.cleanAfterCoaching.suppressed ? (
+                <Withheld minimumStaffCodes={minimumStaffCodes} />
+              ) : (
+                <ProportionFigure
+                  proportion={figures.cleanAfterCoaching}
+                  empty="Nobody observed again after coaching"
+                />
+              )}
             </td>
           </tr>
         </tbody>
@@ -173,12 +198,13 @@ export function ObservationFiguresPanel({
         <p className="text-ink-muted">No observations in this period.</p>
       ) : (
         <>
-          <KeyFigures figures={figures} />
+          <KeyFigures figures={figures} minimumStaffCodes={minimumStaffCodes} />
           {figures.mostErrorProne.length > 0 ? (
             <StepTable
               caption="The five most error-prone steps"
               steps={figures.mostErrorProne}
               ranked
+              minimumStaffCodes={minimumStaffCodes}
             />
           ) : (
             <p className="max-w-prose text-sm text-ink-muted">
@@ -188,9 +214,10 @@ export function ObservationFiguresPanel({
           {stepsBySequence(figures.steps).map((group) => (
             <StepTable
               key={group.sequenceKey}
-              caption={`Breaches per step: ${sequenceName(group.sequenceKey)}`}
+              caption={`Breaches per step: ${group.sequenceTitle}`}
               steps={group.steps}
               ranked={false}
+              minimumStaffCodes={minimumStaffCodes}
             />
           ))}
           <PerMonth perMonth={figures.perMonth} />
