@@ -1,15 +1,21 @@
 import { count, eq, sql } from "drizzle-orm";
+
+import { defaultSequences } from "@shared/observations/default-sequences";
 import { beforeAll, describe, expect, it } from "vitest";
 
 import {
   changeLog,
   correctiveActions,
   findings,
+  networks,
   observationBreaches,
   observations,
   observationSteps,
+  sequenceVersions,
   users,
 } from "../../server/db/schema/index";
+import { runDemoSteps } from "../../server/demo/run-demo-steps";
+import { demoStepList } from "../../server/demo/steps";
 import { purgeObservationDetail } from "../../server/modules/observations/observations.service";
 import { insertFloor, insertSpace } from "../factories/audits";
 import {
@@ -92,6 +98,26 @@ describe("observations of putting-on and removal", () => {
       .from(changeLog)
       .where(eq(changeLog.entityId, id));
     expect(logged!.n).toBe(1);
+  });
+
+  it("when the same observation arrives four times at once, then one reply is 201, the others 200, and it is stored once", async () => {
+    const space = await insertSpace(db(), floorA, "doffing_area");
+    const id = crypto.randomUUID();
+    const body = buildObservation(space.id, removal, {
+      breaches: { gown: [spaceBreach("item_dropped_or_wrong_container", "bin_full")] },
+    });
+    const replies = await Promise.all(
+      Array.from({ length: 4 }, () => as(auditorA).put(`/api/observations/${id}`).send(body)),
+    );
+    expect(replies.map((reply) => reply.status).sort()).toEqual([200, 200, 200, 201]);
+    for (const reply of replies) expect(reply.body).toEqual(replies[0]!.body);
+    expect(await countWhere(observations, id)).toBe(1);
+    expect(await countWhere(observationBreaches, id)).toBe(1);
+    const [actions] = await db()
+      .select({ n: count() })
+      .from(correctiveActions)
+      .where(eq(correctiveActions.spaceId, space.id));
+    expect(actions!.n).toBe(1);
   });
 
   it("when the same id comes with other content, then 409 and the first stays as it was", async () => {
@@ -396,6 +422,23 @@ describe("observation settings and retention", () => {
 });
 
 describe("sequences", () => {
+  it("when the demo data is loaded, then the demo network has Lintel's four default sequences, each published as version 1", async () => {
+    const { db: database, logger, storage } = testApp().deps;
+    await runDemoSteps(database, logger, demoStepList, { storage });
+    const rows = await database
+      .select({
+        key: sequenceVersions.key,
+        version: sequenceVersions.version,
+        status: sequenceVersions.status,
+      })
+      .from(sequenceVersions)
+      .innerJoin(networks, eq(networks.id, sequenceVersions.networkId))
+      .where(eq(networks.name, "Tamsin Bay Health"));
+    expect(rows.map((row) => `${row.key} v${row.version} ${row.status}`).sort()).toEqual(
+      defaultSequences.map((sequence) => `${sequence.key} v1 published`).sort(),
+    );
+  });
+
   it("when an auditor lists sequences, then Lintel's four defaults are published as version 1; a facilities lead is refused", async () => {
     const networkId = (await insertNetwork(db())).id;
     const siteId = (await insertSite(db(), networkId)).id;
