@@ -55,6 +55,9 @@ describe("the committee's observation figures", () => {
         name: "Breaches per step: Removing PPE, example 1 (gloves first)",
       }),
     ).toBeTruthy();
+    expect(section.textContent).toContain(
+      "They cover every donning zone, doffing area and anteroom, whatever zone type is chosen.",
+    );
     // The figures cover months only: the zone type of the readiness view is not sent.
     const asked = fetchStub.mock.calls
       .map(([input]) => new URL(String(input), "http://localhost"))

@@ -283,6 +283,9 @@ export function ObservationsSection({ period, siteId }: ObservationsSectionProps
           Each observation counts once per step: a step&apos;s breach rate is the share of
           observations with at least one breach there. Rates come with their 95% interval; small
           samples are flagged.
+          {period.zoneType
+            ? " They cover every donning zone, doffing area and anteroom, whatever zone type is chosen."
+            : ""}
         </p>
       </div>
       {figures.isPending ? (
