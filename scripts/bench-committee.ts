@@ -6,6 +6,7 @@ import path from "node:path";
 import { pathToFileURL } from "node:url";
 import zlib from "node:zlib";
 
+import type { SQL } from "drizzle-orm";
 import { PgDialect } from "drizzle-orm/pg-core";
 import pg from "pg";
 
@@ -16,10 +17,12 @@ import { connectDatabase, migrateDatabase } from "../server/db/client";
 import { parseEnv } from "../server/env";
 import {
   committeeQueries,
+  observationQueries,
   rebuildMonthStats,
   syncItemCategories,
   type Period,
 } from "../server/modules/committee/committee.repository";
+import { ensureDefaultSequences } from "../server/modules/observations/sequences.service";
 import { startServer } from "../server/server";
 import { prepareCluster, type Cluster } from "./lib/postgres";
 import { freePort } from "./lib/process";
@@ -28,7 +31,9 @@ import { startS3Fake } from "./lib/s3-fake";
 /**
  * The committee's comparison and trends at network scale: 40 sites × 60 spaces × weekly audits
  * for two years (about 250,000 audits, 24 answers each: 6 million answers), timed over HTTP beside
- * the same SQL run in psql, first with a tenth of the sites and then with all of them.
+ * the same SQL run in psql, first with a tenth of the sites and then with all of them. Observed
+ * putting-on and removal: one observation a month at every donning zone, doffing area and anteroom
+ * (45 a site) over the same two years, 40 staff codes a site (about 43,000 observations).
  */
 const sitesInAll = Number(process.env.BENCH_COMMITTEE_SITES ?? 40);
 const spacesPerSite = 60;
@@ -153,12 +158,58 @@ async function seedSites(
       where sp.site_id = any($1::uuid[])`,
     [ids],
   );
+  // One observation a month at each donning zone, doffing area and anteroom, of a published
+  // sequence of the right kind; glove and gown removal breached most; coaching after some breaches.
+  await client.query(
+    `insert into observations (id, site_id, space_id, sequence_version_id, observer_id, staff_code,
+                               staff_role, started_at, finished_at, outcome, breach_count,
+                               hand_hygiene_performed, hand_hygiene_expected, coaching_given, body_hash)
+     select gen_random_uuid(), sp.site_id, sp.id, v.id, $2,
+            'B' || (1000 + floor(random() * 40))::int, 'nurse', t.at - interval '8 minutes', t.at,
+            'clean_run', 0, 0, 0, false, md5(random()::text)
+       from spaces sp
+       cross join generate_series(0, $4::int - 1) m
+       cross join lateral (select now() - m * interval '30 days' - random() * interval '29 days' as at) t
+       cross join lateral (
+         select sv.id from sequence_versions sv
+          where sv.network_id = $3 and sv.status = 'published'
+            and sv.kind = (case when sp.zone_type = 'donning_zone' then 'putting_on' else 'removal' end)::sequence_kind
+            and t.at is not null
+          order by random() limit 1) v
+      where sp.site_id = any($1::uuid[]) and sp.zone_type in ('donning_zone', 'doffing_area', 'anteroom')`,
+    [ids, auditorId, networkId, Math.round(weeks / 4.33)],
+  );
+  await client.query(
+    `insert into observation_steps (observation_id, step_id, position, done, breached)
+     select o.id, ss.id, ss.position, true,
+            random() < (case when ss.key ~ '(glove|gown)' and not ss.hand_hygiene then 0.15 else 0.04 end)
+       from observations o join sequence_steps ss on ss.version_id = o.sequence_version_id
+      where o.site_id = any($1::uuid[])`,
+    [ids],
+  );
+  await client.query(
+    `update observations o
+        set breach_count = x.breached,
+            outcome = (case when x.breached > 0 then 'breaches_seen' else 'clean_run' end)::observation_outcome,
+            hand_hygiene_expected = x.expected, hand_hygiene_performed = x.performed,
+            coaching_given = x.breached > 0 and random() < 0.8
+       from (select os.observation_id, count(*) filter (where os.breached)::int as breached,
+                    count(*) filter (where ss.hand_hygiene)::int as expected,
+                    count(*) filter (where ss.hand_hygiene and not os.breached)::int as performed
+               from observation_steps os
+               join sequence_steps ss on ss.id = os.step_id
+               join observations o2 on o2.id = os.observation_id
+              where o2.site_id = any($1::uuid[])
+              group by os.observation_id) x
+      where x.observation_id = o.id`,
+    [ids],
+  );
   await client.query("analyze");
   return ids;
 }
 
 /** The SQL text with its parameters written in, as psql would be given it. */
-function literalSql(query: ReturnType<(typeof committeeQueries)[keyof typeof committeeQueries]>) {
+function literalSql(query: SQL) {
   const { sql, params } = new PgDialect().sqlToQuery(query);
   return sql.replace(/\$(\d+)/g, (_, n: string) => {
     const value = params[Number(n) - 1];
@@ -300,6 +351,9 @@ export async function benchCommittee(cluster: Cluster, s3Endpoint: string): Prom
       [people[0]!.id],
     );
     await seedChecklists(client, networkId);
+    const sequencesHandle = connectDatabase(url, { max: 1 });
+    await ensureDefaultSequences(sequencesHandle.db, networkId);
+    await sequencesHandle.close();
     const origin = server.url;
     const signIn = await fetch(`${origin}/api/auth/sign-in`, {
       method: "POST",
@@ -329,11 +383,18 @@ export async function benchCommittee(cluster: Cluster, s3Endpoint: string): Prom
       await syncItemCategories(handle.db);
       await rebuildMonthStats(handle.db, siteIds);
       await handle.close();
-      const { rows: counts } = await client.query<{ audits: number; answers: number }>(
-        "select (select count(*) from audits)::int as audits, (select count(*) from audit_answers)::int as answers",
+      const { rows: counts } = await client.query<{
+        audits: number;
+        answers: number;
+        observations: number;
+        steps: number;
+      }>(
+        `select (select count(*) from audits)::int as audits, (select count(*) from audit_answers)::int as answers,
+                (select count(*) from observations)::int as observations,
+                (select count(*) from observation_steps)::int as steps`,
       );
       console.log(
-        `  seeded ${siteIds.length} sites: ${counts[0]!.audits.toLocaleString("en-GB")} audits, ${counts[0]!.answers.toLocaleString("en-GB")} answers, monthly totals rebuilt (${((performance.now() - t0) / 1000).toFixed(0)} s)`,
+        `  seeded ${siteIds.length} sites: ${counts[0]!.audits.toLocaleString("en-GB")} audits, ${counts[0]!.answers.toLocaleString("en-GB")} answers, ${counts[0]!.observations.toLocaleString("en-GB")} observations (${counts[0]!.steps.toLocaleString("en-GB")} observed steps), monthly totals rebuilt (${((performance.now() - t0) / 1000).toFixed(0)} s)`,
       );
 
       const endpoints = {
@@ -349,6 +410,11 @@ export async function benchCommittee(cluster: Cluster, s3Endpoint: string): Prom
             committeeQueries.agingOverdue(siteIds),
             committeeQueries.closeTimes(siteIds, period),
           ],
+        },
+        // One statement: the readable sites and every observation figure's counts.
+        observations: {
+          url: `${origin}/api/committee/observations?${query}`,
+          sql: [observationQueries.figures(networkId, null, period)],
         },
       };
       const scale: ScaleResult = {

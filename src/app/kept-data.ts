@@ -18,7 +18,7 @@ import { floorsQueryOptions } from "@/features/floor-plans/api/get-floors";
 import { siteQueryOptions } from "@/features/sites/api/get-site";
 import { sitesQueryOptions } from "@/features/sites/api/get-sites";
 import { myDueQueryOptions } from "@/features/walkthroughs/api/get-my-due";
-import { sequencesQueryOptions } from "@/features/walkthroughs/api/get-sequences";
+import { sequencesQueryOptions } from "@/features/admin/api/get-sequences";
 import { siteScheduleQueryOptions } from "@/features/walkthroughs/api/get-site-schedule";
 import {
   hasKeptStorage,

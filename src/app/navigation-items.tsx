@@ -10,6 +10,7 @@ import {
   ChecklistIcon,
   CommitteeIcon,
   MailIcon,
+  ObservationIcon,
   PeopleIcon,
   SitesIcon,
 } from "@/components/ui/icons";
@@ -46,6 +47,15 @@ export const adminEntries: readonly AdminEntry[] = [
     description: "The questions each kind of space is audited against, and their revisions.",
     to: paths.checklists.getHref(),
     icon: <ChecklistIcon />,
+    permission: "manage:checklists:network",
+    onRail: true,
+  },
+  {
+    label: "Observation steps",
+    description:
+      "The putting-on and removal steps observers read aloud, and how long observation detail is kept.",
+    to: paths.sequences.getHref(),
+    icon: <ObservationIcon />,
     permission: "manage:checklists:network",
     onRail: true,
   },

@@ -161,6 +161,14 @@ export function createRoutes(queryClient: QueryClient): RouteObject[] {
               },
             },
             {
+              path: paths.sequences.path,
+              errorElement: <RouteError />,
+              lazy: async () => {
+                const { SequencesRoute, sequencesLoader } = await import("./routes/sequences");
+                return { Component: SequencesRoute, loader: sequencesLoader(queryClient) };
+              },
+            },
+            {
               path: paths.checklists.path,
               errorElement: <RouteError />,
               lazy: async () => {

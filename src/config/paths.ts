@@ -89,6 +89,10 @@ export const paths = {
     path: "/admin",
     getHref: () => "/admin",
   },
+  sequences: {
+    path: "/admin/sequences",
+    getHref: () => "/admin/sequences",
+  },
   checklists: {
     path: "/admin/checklists",
     getHref: () => "/admin/checklists",

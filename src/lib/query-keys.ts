@@ -62,12 +62,17 @@ export const queryKeys = {
     trends: (period: Omit<CommitteeQuery, "siteA" | "siteB">) =>
       ["committee", "trends", period] as const,
     comparison: (view: CommitteeQuery) => ["committee", "comparison", view] as const,
+    observations: (period: { from: string; to: string }) =>
+      ["committee", "observations", period] as const,
   },
   checklists: {
     list: ["checklists", "list"] as const,
   },
   sequences: {
     list: ["sequences", "list"] as const,
+  },
+  observationSettings: {
+    current: ["observation-settings", "current"] as const,
   },
   appConfigs: {
     current: ["app-configs", "current"] as const,

@@ -17,6 +17,7 @@ import {
   buildTrends,
   doffingSpace,
   wexleyRehab,
+  buildObservationFigures,
 } from "./support/committee-data";
 import { renderApp } from "./support/render-app";
 
@@ -39,6 +40,7 @@ function stubCommittee(
     "GET /api/auth/me": () => jsonResponse(committeeMember),
     "GET /api/committee/comparison": () => jsonResponse(comparison),
     "GET /api/committee/trends": () => jsonResponse(buildTrends()),
+    "GET /api/committee/observations": () => jsonResponse(buildObservationFigures()),
     ...replies,
   });
 }

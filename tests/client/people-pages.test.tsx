@@ -66,6 +66,7 @@ describe("who sees people and the mailbox", () => {
         "Admin",
         "People",
         "Checklists",
+        "Observation steps",
         "Demo e-mails",
         "Account",
       ]),
@@ -79,6 +80,7 @@ describe("who sees people and the mailbox", () => {
       expect(main.getAllByRole("link").map((link) => link.textContent)).toEqual([
         expect.stringMatching(/^People/),
         expect.stringMatching(/^Checklists/),
+        expect.stringMatching(/^Observation steps/),
         expect.stringMatching(/^Undelivered mail/),
         expect.stringMatching(/^Demo e-mails/),
       ]),
@@ -97,6 +99,7 @@ describe("who sees people and the mailbox", () => {
         "Admin",
         "People",
         "Checklists",
+        "Observation steps",
         "Account",
       ]),
     );

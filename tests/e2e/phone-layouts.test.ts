@@ -51,6 +51,8 @@ const roles: { email: string; screens: Screen[] }[] = [
       () => "/admin/people/invite",
       ({ personId }) => `/admin/people/${personId}`,
       () => "/admin/checklists",
+      () => "/admin/sequences",
+      () => "/admin/sequences?edit=standard-removal-1",
       () => "/admin/mail",
       () => "/admin/undelivered-mail",
     ],
@@ -358,6 +360,7 @@ describe("phone layouts", () => {
         "Committee",
         "People",
         "Checklists",
+        "Observation steps",
         "Demo e-mails",
         "Account",
       ]);

@@ -467,7 +467,7 @@ export const observationQueries = {
              count(distinct staff_code) filter (where expected > 0)::int as hh_staff_codes,
              count(*) filter (where expected > 0 and staff_code is null)::int as hh_without_code
         from obs group by site_id
-    ), step_names as (
+    ), step_names as materialized (
       -- Each step's words and place as in the newest version of its sequence that was observed.
       select distinct on (sv.key, ss.key) sv.key as sequence_key, sv.title as sequence_title,
              ss.key as step_key, ss.text as step_text, ss.position
@@ -476,16 +476,30 @@ export const observationQueries = {
        where sv.id in (select distinct sequence_version_id from obs)
        order by sv.key, ss.key, sv.version desc
     ), step_counts as (
-      select obs.site_id, sv.key as sequence_key, ss.key as step_key,
-             count(*)::int as observations,
-             count(*) filter (where os.breached)::int as breached,
-             count(distinct obs.staff_code)::int as staff_codes,
-             count(*) filter (where obs.staff_code is null)::int as without_code
+      -- Counted by step id first (no sort), then gathered under the sequence's and step's keys.
+      select obs.site_id, os.step_id, count(*)::int as observations,
+             count(*) filter (where os.breached)::int as breached
         from obs
         join observation_steps os on os.observation_id = obs.id
-        join sequence_steps ss on ss.id = os.step_id
-        join sequence_versions sv on sv.id = obs.sequence_version_id
-       group by obs.site_id, sv.key, ss.key
+       group by obs.site_id, os.step_id
+    ), step_totals as materialized (
+      select sc.site_id, sv.key as sequence_key, ss.key as step_key,
+             sum(sc.observations)::int as observations, sum(sc.breached)::int as breached
+        from step_counts sc
+        join sequence_steps ss on ss.id = sc.step_id
+        join sequence_versions sv on sv.id = ss.version_id
+       group by sc.site_id, sv.key, ss.key
+    ), step_people as materialized (
+      -- Who each step's figure describes: every observation answers every step of its version,
+      -- so a step's staff codes are those of the observations of the versions that have it.
+      select p.site_id, sv.key as sequence_key, ss.key as step_key,
+             count(distinct p.staff_code)::int as staff_codes, sum(p.without_code)::int as without_code
+        from (select site_id, sequence_version_id, staff_code,
+                     count(*) filter (where staff_code is null) as without_code
+                from obs group by site_id, sequence_version_id, staff_code) p
+        join sequence_versions sv on sv.id = p.sequence_version_id
+        join sequence_steps ss on ss.version_id = p.sequence_version_id
+       group by p.site_id, sv.key, ss.key
     ), months as (
       select site_id, month, count(*)::int as observations from obs group by site_id, month
     ), followed as (
@@ -525,8 +539,10 @@ export const observationQueries = {
                 'sequence_title', n.sequence_title, 'step_key', sc.step_key,
                 'step_text', n.step_text, 'position', n.position,
                 'observations', sc.observations, 'breached', sc.breached,
-                'staff_codes', sc.staff_codes, 'without_code', sc.without_code)), '[]')
-         from step_counts sc
+                'staff_codes', sp.staff_codes, 'without_code', sp.without_code)), '[]')
+         from step_totals sc
+         join step_people sp on sp.site_id = sc.site_id and sp.sequence_key = sc.sequence_key
+                            and sp.step_key = sc.step_key
          join step_names n on n.sequence_key = sc.sequence_key and n.step_key = sc.step_key) as steps,
       (select coalesce(json_agg(json_build_object(
                 'site_id', site_id, 'month', month, 'observations', observations)), '[]')

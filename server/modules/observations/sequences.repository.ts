@@ -45,15 +45,18 @@ export async function currentVersions(db: DbOrTx, networkId: string): Promise<Se
       asc(sequenceVersions.key),
       desc(sequenceVersions.version),
     );
-  const wanted: VersionRow[] = [];
-  const seenPublished = new Set<string>();
+  // Rows come oldest first, so each sequence keeps the place of its first version; the newest
+  // published version is the one with the highest number, whenever it was made.
+  const newestPublished = new Map<string, VersionRow>();
+  const drafts = new Map<string, VersionRow>();
   for (const row of rows) {
-    if (row.status === "draft") wanted.push(row);
-    else if (!seenPublished.has(row.key)) {
-      seenPublished.add(row.key);
-      wanted.push(row);
-    }
+    if (row.status === "draft") drafts.set(row.key, row);
+    else if ((newestPublished.get(row.key)?.version ?? -1) < row.version)
+      newestPublished.set(row.key, row);
   }
+  const wanted: VersionRow[] = [...new Set(rows.map((row) => row.key))].flatMap((key) =>
+    [newestPublished.get(key), drafts.get(key)].filter((row) => row !== undefined),
+  );
   if (wanted.length === 0) return [];
   const steps = await db
     .select()

@@ -3,6 +3,7 @@ import { useCallback, useEffect, useMemo, useRef } from "react";
 import { type LoaderFunctionArgs, useNavigation, useSearchParams } from "react-router-dom";
 
 import { comparisonQueryOptions } from "@/features/committee/api/get-comparison";
+import { observationFiguresQueryOptions } from "@/features/committee/api/get-observation-figures";
 import { trendsQueryOptions } from "@/features/committee/api/get-trends";
 import { CommitteeOverview } from "@/features/committee/components/committee-overview";
 import {
@@ -21,6 +22,7 @@ export function committeeLoader(queryClient: QueryClient) {
     if (Object.keys(viewErrors(view)).length === 0 && (await isSignedIn(queryClient))) {
       void queryClient.prefetchQuery(comparisonQueryOptions(view));
       void queryClient.prefetchQuery(trendsQueryOptions(periodOf(view)));
+      void queryClient.prefetchQuery(observationFiguresQueryOptions(periodOf(view)));
     }
     return null;
   };

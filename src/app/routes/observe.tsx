@@ -8,7 +8,7 @@ import { Alert } from "@/components/ui/alert";
 import { buttonStyles } from "@/components/ui/button";
 import { Spinner } from "@/components/ui/spinner";
 import { paths } from "@/config/paths";
-import { sequencesQueryOptions } from "@/features/walkthroughs/api/get-sequences";
+import { sequencesQueryOptions } from "@/features/admin/api/get-sequences";
 import { ObservationScreen } from "@/features/walkthroughs/components/observation-screen";
 import { auditDevice, hasOfflineStorage } from "@/features/walkthroughs/lib/audit-device";
 import { newObservationDraft } from "@/features/walkthroughs/lib/observation-flow";

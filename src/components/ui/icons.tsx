@@ -114,6 +114,17 @@ export function ChecklistIcon({ className }: IconProps) {
   );
 }
 
+/** An eye over numbered lines: the steps an observer reads aloud and watches. */
+export function ObservationIcon({ className }: IconProps) {
+  return (
+    <OutlineIcon className={className}>
+      <path d="M3 8c2.2-3.3 5.2-5 9-5s6.8 1.7 9 5c-2.2 3.3-5.2 5-9 5s-6.8-1.7-9-5Z" />
+      <circle cx="12" cy="8" r="2" />
+      <path d="M4 16.5h1.5M9 16.5h11M4 20.5h1.5M9 20.5h11" />
+    </OutlineIcon>
+  );
+}
+
 /** A camera: taking a photo of what the audit found. */
 export function CameraIcon({ className }: IconProps) {
   return (

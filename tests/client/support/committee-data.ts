@@ -5,6 +5,7 @@ import type {
   SiteDrillDown,
   TrendsResponse,
 } from "@shared/schemas/committee";
+import type { ObservationCommitteeResponse } from "@shared/schemas/observations";
 import type { Site } from "@shared/schemas/site";
 
 import { orchardHill, tamsinGeneral } from "./api-stub";
@@ -148,6 +149,83 @@ export function buildDrillDown(overrides: Partial<SiteDrillDown> = {}): SiteDril
         unfinishedActions: 2,
         overdueActions: 1,
       },
+    ],
+    ...overrides,
+  };
+}
+
+type ObservationFigures = ObservationCommitteeResponse["network"];
+
+function stepRate(
+  sequenceKey: string,
+  stepKey: string,
+  stepText: string,
+  breached: number,
+  n: number,
+) {
+  return {
+    sequenceKey,
+    sequenceTitle: "Removing PPE, example 1 (gloves first)",
+    stepKey,
+    stepText,
+    breached: proportionOf(breached, n),
+    suppressed: false,
+  };
+}
+
+/**
+ * The network: 40 removal observations; glove removal breached in 12 (30.0%), gown removal in 8,
+ * hand hygiene before leaving in 2; 31 of 40 with every hand-hygiene moment (77.5%), 110 of 120
+ * moments; 9 of 12 coached staff clean next time. Tamsin Bay General holds them all; Orchard Hill
+ * observed 3 staff members only, so its figures are suppressed.
+ */
+export function buildObservationFigures(
+  overrides: Partial<ObservationCommitteeResponse> = {},
+): ObservationCommitteeResponse {
+  const steps = [
+    stepRate("standard-removal-1", "remove-gloves", "Remove gloves", 12, 40),
+    stepRate("standard-removal-1", "remove-gown", "Remove gown", 8, 40),
+    stepRate(
+      "standard-removal-1",
+      "hand-hygiene-exit",
+      "Perform hand hygiene before leaving",
+      2,
+      40,
+    ),
+  ];
+  const network: ObservationFigures = {
+    observations: 40,
+    suppressed: false,
+    steps,
+    mostErrorProne: steps,
+    handHygieneAllMoments: { ...proportionOf(31, 40), suppressed: false },
+    handHygieneMomentRate: 110 / 120,
+    perMonth: [
+      { month: "2026-03", observations: 18 },
+      { month: "2026-04", observations: 22 },
+    ],
+    cleanAfterCoaching: { ...proportionOf(9, 12), suppressed: false },
+  };
+  const suppressed: ObservationFigures = {
+    observations: 4,
+    suppressed: true,
+    steps: [],
+    mostErrorProne: [],
+    handHygieneAllMoments: { ...proportionOf(0, 0), suppressed: true },
+    handHygieneMomentRate: null,
+    perMonth: [],
+    cleanAfterCoaching: { ...proportionOf(0, 0), suppressed: true },
+  };
+  return {
+    from: "2025-05",
+    to: "2026-04",
+    confidence: 0.95,
+    minimumRankedSample: 30,
+    minimumStaffCodes: 5,
+    network,
+    sites: [
+      { ...network, siteId: tamsinGeneral.id, siteName: tamsinGeneral.name },
+      { ...suppressed, siteId: orchardHill.id, siteName: orchardHill.name },
     ],
     ...overrides,
   };

@@ -2,7 +2,7 @@ import type { ChecklistDraftBody } from "@shared/schemas/checklists";
 import { quantities, responseKinds } from "@shared/schemas/checklists";
 import { severities } from "@shared/calc/verdict";
 import { type ZoneType, zoneTypeLabels } from "@shared/zones";
-import { type ComponentProps, useId, useState } from "react";
+import { useId, useState } from "react";
 import {
   type Control,
   type FieldErrors,
@@ -18,11 +18,11 @@ import { SelectField } from "@/components/ui/select-field";
 import { SpinnerGlyph } from "@/components/ui/spinner";
 import { TextAreaField } from "@/components/ui/text-area-field";
 import { TextField } from "@/components/ui/text-field";
-import { isApiError } from "@/lib/api-client";
 
 import { useDiscardChecklistDraft } from "../api/discard-checklist-draft";
 import { usePublishChecklist } from "../api/publish-checklist";
 import { useSaveChecklistDraft } from "../api/save-checklist-draft";
+import { Checkbox, EditorActions, problemText, ReorderButtons } from "./editor-parts";
 import {
   type DraftFormValues,
   draftResolver,
@@ -41,15 +41,6 @@ interface ItemFieldsProps {
   errors: FieldErrors<DraftFormValues>;
   onMove: (from: number, to: number) => void;
   onRetire: (index: number) => void;
-}
-
-function Checkbox({ label, ...props }: { label: string } & ComponentProps<"input">) {
-  return (
-    <label className="flex min-h-tap items-center gap-3 font-semibold">
-      <input type="checkbox" className="size-5 accent-brand-700" {...props} />
-      {label}
-    </label>
-  );
 }
 
 function ChoiceFields({
@@ -122,27 +113,14 @@ function ItemFields({
             Item {number}
             {itemKey ? null : <span className="ml-2 text-sm font-normal text-ink-muted">new</span>}
           </h3>
-          <div className="flex flex-wrap gap-1">
-            <Button
-              variant="quiet"
-              className="px-3"
-              disabled={index === 0}
-              onClick={() => onMove(index, index - 1)}
-            >
-              Move up <span className="sr-only">item {number}</span>
-            </Button>
-            <Button
-              variant="quiet"
-              className="px-3"
-              disabled={index === count - 1}
-              onClick={() => onMove(index, index + 1)}
-            >
-              Move down <span className="sr-only">item {number}</span>
-            </Button>
-            <Button variant="quiet" className="px-3" onClick={() => onRetire(index)}>
-              Retire <span className="sr-only">item {number}</span>
-            </Button>
-          </div>
+          <ReorderButtons
+            index={index}
+            count={count}
+            name={`item ${number}`}
+            removeLabel="Retire"
+            onMove={onMove}
+            onRemove={onRetire}
+          />
         </div>
         <TextAreaField
           label="Text"
@@ -210,14 +188,6 @@ function ItemFields({
       </fieldset>
     </li>
   );
-}
-
-function problemText(error: unknown): string {
-  if (isApiError(error)) {
-    const first = Object.values(error.fields)[0];
-    return first ? `${error.message} ${first}` : error.message;
-  }
-  return "That did not work. Please try again.";
 }
 
 export interface ChecklistEditorProps {
@@ -329,7 +299,7 @@ export function ChecklistEditor({
         </Alert>
       ) : null}
 
-      <div className="sticky bottom-16 z-10 -mx-4 flex flex-wrap gap-3 border-t border-surface-line bg-surface-sunken/95 px-4 py-3 backdrop-blur md:bottom-0">
+      <EditorActions>
         <Button type="submit" disabled={busy}>
           {save.isPending && !publish.isPending ? <SpinnerGlyph className="size-5" /> : null}
           Save draft
@@ -354,7 +324,7 @@ export function ChecklistEditor({
         <Button variant="quiet" disabled={busy} onClick={onCancel}>
           {isDirty ? "Leave without saving" : "Back to checklists"}
         </Button>
-      </div>
+      </EditorActions>
     </form>
   );
 }

@@ -10,6 +10,8 @@ import { type FieldErrors, type Resolver, set } from "react-hook-form";
 
 import { parseNumberText } from "@/lib/form-values";
 
+import { problemAt } from "./form-problems";
+
 type ResponseKind = (typeof responseKinds)[number];
 type Quantity = (typeof quantities)[number];
 
@@ -202,12 +204,3 @@ export const draftResolver: Resolver<DraftFormValues, unknown, ChecklistDraftBod
   if (parsed.success && problems.length === 0) return { values: parsed.data, errors: {} };
   return { values: {}, errors };
 };
-
-function problemAt(errors: object, path: string): boolean {
-  let node: unknown = errors;
-  for (const part of path.split(".")) {
-    if (node === null || typeof node !== "object") return false;
-    node = (node as Record<string, unknown>)[part];
-  }
-  return node !== undefined;
-}

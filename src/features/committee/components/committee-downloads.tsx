@@ -1,5 +1,6 @@
 import { downloadAudits } from "../api/download-audits";
 import { downloadComparison } from "../api/download-comparison";
+import { downloadObservations } from "../api/download-observations";
 import { downloadReport } from "../api/download-report";
 import type { CommitteeView } from "../lib/committee-view";
 import { DownloadButton } from "./download-button";
@@ -8,6 +9,7 @@ export const downloadLabels = {
   report: "Download the monthly report (PDF)",
   comparison: "Download the comparison (CSV)",
   audits: "Download the audits (CSV)",
+  observations: "Download the observation figures (CSV)",
 } as const;
 
 /** The exports of the view on screen: the same period, zone type and pair of sites. */
@@ -20,7 +22,7 @@ export function CommitteeDownloads({ view }: { view: CommitteeView }) {
       <h2 id="committee-downloads" className="text-lg font-semibold">
         Reports and exports
       </h2>
-      <div className="mt-3 grid gap-4 md:grid-cols-3">
+      <div className="mt-3 grid gap-4 md:grid-cols-2">
         <DownloadButton
           label={downloadLabels.report}
           what="the monthly report (PDF)"
@@ -37,6 +39,12 @@ export function CommitteeDownloads({ view }: { view: CommitteeView }) {
           what="the audits (CSV)"
           countsRows
           download={(options) => downloadAudits(view, options)}
+        />
+        <DownloadButton
+          label={downloadLabels.observations}
+          what="the observation figures (CSV)"
+          countsRows
+          download={(options) => downloadObservations(view, options)}
         />
       </div>
     </section>

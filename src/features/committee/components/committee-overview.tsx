@@ -20,6 +20,7 @@ import { CommitteeFilters } from "./committee-filters";
 import "./committee-print.css";
 import { ComparisonSection } from "./comparison-section";
 import { DifferencePanel } from "./difference-panel";
+import { ObservationsSection } from "./observations-section";
 import { PChart } from "./p-chart";
 
 export interface CommitteeOverviewProps {
@@ -106,6 +107,10 @@ export function CommitteeOverview({ view, onViewChange }: CommitteeOverviewProps
           ) : null}
         </>
       )}
+
+      {valid && comparison.data && comparison.data.sites.length > 0 ? (
+        <ObservationsSection period={period} />
+      ) : null}
 
       {valid ? (
         trends.isPending ? (

@@ -16,6 +16,7 @@ import { tableStyles } from "../lib/chart-style";
 import { intervalText, percentText, periodText } from "../lib/committee-format";
 import { type CommitteePeriod, viewErrors, viewToSearch } from "../lib/committee-view";
 import "./committee-print.css";
+import { ObservationsSection } from "./observations-section";
 
 type Space = SiteDrillDown["spaces"][number];
 
@@ -168,6 +169,7 @@ export function CommitteeSiteSpaces({ siteId, period }: CommitteeSiteSpacesProps
           ) : null}
         </>
       )}
+      {valid ? <ObservationsSection period={period} siteId={siteId} /> : null}
     </div>
   );
 }

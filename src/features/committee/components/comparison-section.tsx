@@ -10,6 +10,7 @@ import { cn } from "@/lib/cn";
 
 import { tableStyles } from "../lib/chart-style";
 import { intervalText, percentText } from "../lib/committee-format";
+import { ProportionFigure } from "./proportion-figure";
 import { ReadinessChart } from "./readiness-chart";
 
 export const smallSampleLabel = "Small sample — not ranked";
@@ -179,20 +180,10 @@ function CategoryTable({ comparison }: Pick<ComparisonSectionProps, "comparison"
                 const entry = site.categories.find((candidate) => candidate.category === category);
                 return (
                   <td key={site.siteId} className={tableStyles.number}>
-                    {entry ? (
-                      <>
-                        <span className="block font-semibold">{percentText(entry.rate)}</span>
-                        <span className="block whitespace-nowrap text-ink-muted">
-                          {intervalText(entry.interval)}
-                        </span>
-                        <span className="block text-ink-muted">
-                          {`n = ${entry.n.toLocaleString()}`}
-                          {entry.smallSample ? ", small sample" : ""}
-                        </span>
-                      </>
-                    ) : (
-                      <span className="text-ink-muted">No answers</span>
-                    )}
+                    <ProportionFigure
+                      proportion={entry ?? { n: 0, rate: null, interval: null, smallSample: false }}
+                      empty="No answers"
+                    />
                   </td>
                 );
               })}

@@ -4,7 +4,7 @@ import { queryOptions, useQuery } from "@tanstack/react-query";
 import { apiRequest } from "@/lib/api-client";
 import { queryKeys } from "@/lib/query-keys";
 
-/** The sequences for observing putting on and removal: each one's published version and draft. */
+/** Each sequence's published version and its draft, if one is being prepared. */
 export function getSequences({
   signal,
 }: { signal?: AbortSignal } = {}): Promise<SequencesResponse> {
