@@ -33,10 +33,7 @@ export interface SequenceFormValues {
 }
 
 // The observer's screen and the editor use the same words.
-export {
-  breachKindLabels,
-  sequenceKindLabels,
-} from "@/features/walkthroughs/lib/observation-words";
+export { breachKindLabels, sequenceKindLabels } from "@shared/observations/words";
 
 export { breachKinds };
 

@@ -36,7 +36,7 @@ import {
   sequenceKindLabels,
   spaceProblemLabels,
   staffRoleLabels,
-} from "../lib/observation-words";
+} from "@shared/observations/words";
 
 export interface ObservationRecorderProps {
   initial: ObservationDraft;

@@ -12,7 +12,7 @@ import {
   describeBreaches,
   observationOutcomeLabels,
   staffRoleLabels,
-} from "../lib/observation-words";
+} from "@shared/observations/words";
 import type { LocalObservation, QueuedChange } from "../lib/offline-store";
 import { ObservationRecorder } from "./observation-recorder";
 

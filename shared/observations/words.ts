@@ -6,7 +6,7 @@ import type {
   SequenceKind,
   SpaceProblem,
   StaffRole,
-} from "@shared/schemas/observations";
+} from "../schemas/observations";
 
 /** Lintel's words for what the observer records. */
 export const sequenceKindLabels: Record<SequenceKind, string> = {
