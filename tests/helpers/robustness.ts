@@ -253,7 +253,9 @@ export function paramVariants(
       if (!options.newIds.includes(`params.${name}`)) variants.push(at("unknown id", randomUUID()));
     } else {
       variants.push(at("with NUL", `${value}\u0000`, name));
-      variants.push(at("unknown", "nothing-like-this"));
+      // A key the caller names (a new sequence's) is made by the request, like a device id.
+      if (!options.newIds.includes(`params.${name}`))
+        variants.push(at("unknown", "nothing-like-this"));
     }
     variants.push(at("of 4000 characters", value.padEnd(4000, "a")));
     variants.push(at("as dot segments", "..%2F..%2Fetc"));

@@ -12,9 +12,12 @@ import {
   floors,
   networks,
   roleGrants,
+  sequenceVersions,
   sites,
   users,
 } from "../../server/db/schema/index";
+import { defaultSequences } from "@shared/observations/default-sequences";
+
 import { demoPassword, demoPeople } from "../../server/demo/people";
 import { runDemoSteps, type DemoStep } from "../../server/demo/run-demo-steps";
 import { demoStepList } from "../../server/demo/steps";
@@ -438,6 +441,23 @@ describe("demo data", () => {
     for (const row of space) expect(row.item_key).toBe(items[row.space_problem!]);
     expect(caused.rows.filter((row) => row.cause === "technique" && row.item_key !== null)).toEqual(
       [],
+    );
+  });
+
+  it("when the demo data is loaded, then the demo network has Lintel's four default sequences, each published as version 1", async () => {
+    const { db: database, logger, storage, env } = testApp().deps;
+    await runDemoSteps(database, logger, demoStepList, { storage, env });
+    const rows = await database
+      .select({
+        key: sequenceVersions.key,
+        version: sequenceVersions.version,
+        status: sequenceVersions.status,
+      })
+      .from(sequenceVersions)
+      .innerJoin(networks, eq(networks.id, sequenceVersions.networkId))
+      .where(eq(networks.name, "Tamsin Bay Health"));
+    expect(rows.map((row) => `${row.key} v${row.version} ${row.status}`).sort()).toEqual(
+      defaultSequences.map((sequence) => `${sequence.key} v1 published`).sort(),
     );
   });
 });

@@ -3,7 +3,9 @@ import type { z } from "zod";
 import { proofFieldsSchema } from "@shared/schemas/actions";
 import { auditPhotoFieldsSchema } from "@shared/schemas/audits";
 
+import { buildObservation, publishedSequence } from "../factories/observations";
 import { buildSite } from "../factories/records";
+import { api } from "../helpers/app";
 import { newId, worldPassword, type CallerName, type World } from "../helpers/robustness-world";
 
 /**
@@ -45,6 +47,27 @@ const square: [number, number][] = [
   [120, 120],
   [10, 120],
 ];
+
+async function freshSequenceDraft(w: World, key: string) {
+  const reply = await api(w.app.app, { cookie: await w.fresh.cookie("administrator (network)") })
+    .put(`/api/sequences/${key}/draft`)
+    .send({
+      title: "Our sequence",
+      kind: "removal",
+      steps: [{ text: "Gloves off", handHygiene: false, watchFor: [] }],
+    });
+  if (reply.status !== 200) throw new Error(`sequence draft: ${reply.status}`);
+}
+
+async function freshObservation(w: World): Promise<string> {
+  const id = newId();
+  const sequence = await publishedSequence(w.app.deps.db, w.networkId);
+  const reply = await api(w.app.app, { cookie: await w.fresh.cookie("auditor @A") })
+    .put(`/api/observations/${id}`)
+    .send(buildObservation((await w.fresh.space()).id, sequence));
+  if (reply.status !== 201) throw new Error(`observation: ${reply.status}`);
+  return id;
+}
 
 export const examples: Record<string, RouteExample> = {
   // Accounts and sign-in
@@ -288,6 +311,61 @@ export const examples: Record<string, RouteExample> = {
       await w.fresh.checklistDraft("doffing_area");
       return { params: { zoneType: "doffing_area" } };
     },
+  },
+
+  // Observations of putting-on and removal
+  "PUT /sequences/:key/draft": {
+    // A key the network does not have yet makes a new sequence.
+    newIds: ["params.key"],
+    control: () => ({
+      params: { key: "standard-removal-2" },
+      body: {
+        title: "Removing PPE, our order",
+        kind: "removal",
+        note: "Adapted for our wards",
+        steps: [
+          {
+            key: "gown-and-gloves",
+            text: "Gown and gloves off together",
+            handHygiene: false,
+            watchFor: ["out_of_order", "touched_face_or_clean_clothing"],
+            reference: "Common practice",
+          },
+          { text: "Hand hygiene", handHygiene: true, watchFor: ["hand_hygiene_missed"] },
+        ],
+      },
+    }),
+  },
+  "POST /sequences/:key/publish": {
+    async control(w) {
+      await freshSequenceDraft(w, "robust-publish");
+      return { params: { key: "robust-publish" } };
+    },
+  },
+  "DELETE /sequences/:key/draft": {
+    async control(w) {
+      await freshSequenceDraft(w, "robust-discard");
+      return { params: { key: "robust-discard" } };
+    },
+  },
+  "PUT /observations/:observationId": {
+    newIds: ["params.observationId"],
+    control: async (w) => {
+      const sequence = await publishedSequence(w.app.deps.db, w.networkId);
+      const body = buildObservation((await w.fresh.space()).id, sequence, {
+        coachingNote: "Showed the glove-in-glove way",
+      });
+      body.steps[0]!.breaches = [
+        { kind: "out_of_order", cause: "technique", spaceProblem: null, note: "Gown first" },
+      ];
+      return { params: { observationId: newId() }, body };
+    },
+  },
+  "PUT /observation-settings": {
+    control: () => ({ body: { retentionDays: 365 } }),
+  },
+  "GET /observations/:observationId": {
+    control: async (w) => ({ params: { observationId: await freshObservation(w) } }),
   },
 
   // Audits

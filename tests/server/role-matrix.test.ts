@@ -27,6 +27,8 @@ import {
   saveDraft as checklistSaveDraft,
 } from "../../server/modules/checklists/checklists.service";
 import { storeImage } from "../../server/lib/images";
+import { saveDraft as sequenceSaveDraft } from "../../server/modules/observations/sequences.service";
+import { buildObservation, publishedSequence } from "../factories/observations";
 import { restoreSite, retireSite } from "../../server/modules/floors/floors.retirement";
 import { apiRoutes } from "../../server/routes";
 import {
@@ -264,6 +266,20 @@ async function actionAtA(world: World, state: ActionState, withProof = false) {
 
 const leadsAtA: Caller[] = ["facilities lead @A"];
 const assigners: Caller[] = [...admins, "facilities lead @A"];
+
+/** An observation recorded at site A by its auditor, over HTTP. */
+async function observationAtA(world: World): Promise<string> {
+  const id = crypto.randomUUID();
+  const body = buildObservation(
+    (await spaceAtA(world)).id,
+    await publishedSequence(testApp().deps.db, world.networkId),
+  );
+  const reply = await api(undefined, { cookie: await sessionCookieFor(world.auditorA) })
+    .put(`/api/observations/${id}`)
+    .send(body);
+  if (reply.status !== 201) throw new Error(`observation: ${reply.status}`);
+  return id;
+}
 
 const samples: Record<string, Sample> = {
   "GET /sites/:siteId/actions": {
@@ -927,6 +943,94 @@ const samples: Record<string, Sample> = {
     ok: 200,
     allowed: admins,
     hidden: ["administrator @B"],
+  },
+  // Observations of putting-on and removal
+  "GET /sequences": {
+    prepare: () => ({ url: "/api/sequences" }),
+    ok: 200,
+    allowed: ["administrator (network)", "auditor @A", "auditor @B"],
+  },
+  "PUT /sequences/:key/draft": {
+    prepare: () => ({
+      url: "/api/sequences/standard-removal-2/draft",
+      body: {
+        title: "Removing PPE, our order",
+        kind: "removal",
+        steps: [{ text: "Gloves off", handHygiene: false, watchFor: ["out_of_order"] }],
+      },
+    }),
+    ok: 200,
+    allowed: ["administrator (network)"],
+  },
+  "POST /sequences/:key/publish": {
+    async prepare(world) {
+      await sequenceSaveDraft(
+        testApp().deps.db,
+        world.networkId,
+        "matrix-publish",
+        {
+          title: "Ours",
+          kind: "removal",
+          steps: [{ text: "Gloves", handHygiene: false, watchFor: [] }],
+        },
+        system,
+      );
+      return { url: "/api/sequences/matrix-publish/publish" };
+    },
+    ok: 200,
+    allowed: ["administrator (network)"],
+  },
+  "DELETE /sequences/:key/draft": {
+    async prepare(world) {
+      await sequenceSaveDraft(
+        testApp().deps.db,
+        world.networkId,
+        "matrix-discard",
+        {
+          title: "Ours",
+          kind: "removal",
+          steps: [{ text: "Gloves", handHygiene: false, watchFor: [] }],
+        },
+        system,
+      );
+      return { url: "/api/sequences/matrix-discard/draft" };
+    },
+    ok: 204,
+    allowed: ["administrator (network)"],
+  },
+  "PUT /observations/:observationId": {
+    prepare: async (w) => ({
+      url: `/api/observations/${crypto.randomUUID()}`,
+      body: buildObservation(
+        (await spaceAtA(w)).id,
+        await publishedSequence(testApp().deps.db, w.networkId),
+      ),
+    }),
+    ok: 201,
+    allowed: auditors,
+    hidden: notAtA,
+  },
+  "GET /observations/:observationId": {
+    prepare: async (w) => ({ url: `/api/observations/${await observationAtA(w)}` }),
+    ok: 200,
+    allowed: readers,
+    hidden: notAtA,
+  },
+  "GET /spaces/:spaceId/observations": {
+    prepare: async (w) => ({ url: `/api/spaces/${(await spaceAtA(w)).id}/observations` }),
+    ok: 200,
+    allowed: readers,
+    hidden: notAtA,
+  },
+  "GET /observation-settings": {
+    prepare: () => ({ url: "/api/observation-settings" }),
+    ok: 200,
+    allowed: ["administrator (network)"],
+  },
+  "PUT /observation-settings": {
+    prepare: () => ({ url: "/api/observation-settings", body: { retentionDays: 365 } }),
+    ok: 200,
+    allowed: ["administrator (network)"],
   },
 };
 

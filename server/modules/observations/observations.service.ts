@@ -222,12 +222,13 @@ export async function recordObservation(
   );
   const failed = await failedItemsFor(db, networkId, space.zoneType, problems, version.title);
 
-  const queued = await db.transaction(async (tx) => {
+  const stored = await db.transaction(async (tx) => {
     await repo.lockObservationId(tx, observationId);
+    // The same observation sent twice at once: the second waits here, then answers as a replay.
     const raced = await repo.findObservation(tx, observationId);
     if (raced) {
       replay(raced);
-      return 0;
+      return { created: false, queued: 0 };
     }
     await repo.insertObservation(tx, {
       id: observationId,
@@ -302,10 +303,10 @@ export async function recordObservation(
         steps: steps.length,
       },
     });
-    return queued;
+    return { created: true, queued };
   });
-  if (queued > 0) deps.notifyOutbox();
-  return { created: true, observation: await observationFor(db, auth, observationId) };
+  if (stored.queued > 0) deps.notifyOutbox();
+  return { created: stored.created, observation: await observationFor(db, auth, observationId) };
 }
 
 export async function observationSettingsOf(

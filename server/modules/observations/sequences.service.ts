@@ -21,6 +21,7 @@ import * as repo from "./sequences.repository";
 
 const system: Actor = { userId: null, requestId: null };
 
+/** Positions are 1-based: they are the step numbers the observer and the committee see. */
 function stepRow(step: DefaultSequenceStep | SequenceDraftBody["steps"][number], position: number) {
   return {
     key: step.key ?? `step-${randomUUID().slice(0, 8)}`,
@@ -58,7 +59,11 @@ export async function ensureDefaultSequences(
           note: sequence.note,
           publishedAt: new Date(),
         });
-        await repo.replaceSteps(tx, version.id, sequence.steps.map(stepRow));
+        await repo.replaceSteps(
+          tx,
+          version.id,
+          sequence.steps.map((step, index) => stepRow(step, index + 1)),
+        );
         await recordChange(tx, system, {
           action: "sequence.default_published",
           entity: "sequence",
@@ -135,7 +140,11 @@ export async function saveDraft(
       kind: body.kind,
       note: body.note ?? null,
     });
-    await repo.replaceSteps(tx, draft.id, body.steps.map(stepRow));
+    await repo.replaceSteps(
+      tx,
+      draft.id,
+      body.steps.map((step, index) => stepRow(step, index + 1)),
+    );
     await recordChange(tx, actor, {
       action: "sequence.draft_saved",
       entity: "sequence",
