@@ -457,6 +457,9 @@ export async function benchCommittee(cluster: Cluster, s3Endpoint: string): Prom
         };
       }
       results.push(scale);
+      // Idle through the next scale's minutes of seeding, the connection would be dropped under
+      // the agent: close it now, and the next scale opens a fresh one.
+      agent.destroy();
     }
 
     console.log(
