@@ -440,6 +440,10 @@ export async function benchCommittee(cluster: Cluster, s3Endpoint: string): Prom
         const literal = endpoint.sql.map(literalSql);
         for (let round = 0; round < rounds; round += 1) {
           const share = Math.ceil(calls / rounds);
+          // psql blocks this process, the server's too: a connection left idle past the server's
+          // keep-alive timeout would be closed just as the next call goes out. Untimed, reopen it.
+          agent.destroy();
+          await browserGet(endpoint.url, cookie, origin);
           http.push(...(await httpTimes(endpoint.url, cookie, origin, share)));
           psqlTimes(cluster, database, literal, share).forEach((times, index) =>
             statements[index]!.push(...times),
