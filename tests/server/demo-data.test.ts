@@ -26,13 +26,21 @@ import { api, testApp } from "../helpers/app";
 describe("demo data", () => {
   it("when the steps run twice (even at once), then each runs once and is recorded", async () => {
     const { db, logger, storage, env } = testApp().deps;
+    // Another test file may have run the demo steps on this database already (the committee
+    // report reads the demo network): those are recorded and must not run again.
+    const before = new Set((await db.select().from(demoSteps)).map((row) => row.id));
     const [first, second] = await Promise.all([
       runDemoSteps(db, logger, demoStepList, { storage, env }),
       runDemoSteps(db, logger, demoStepList, { storage, env }),
     ]);
     const third = await runDemoSteps(db, logger, demoStepList, { storage, env });
 
-    expect([...first, ...second].sort()).toEqual(demoStepList.map((step) => step.id).sort());
+    expect([...first, ...second].sort()).toEqual(
+      demoStepList
+        .map((step) => step.id)
+        .filter((id) => !before.has(id))
+        .sort(),
+    );
     expect(third).toEqual([]);
     const recorded = await db.select().from(demoSteps);
     expect(recorded.map((row) => row.id)).toEqual(
