@@ -213,6 +213,16 @@ describe("observing a removal on a phone that loses its connection half-way (390
     await expect
       .poll(() => committeeCounts(committee.page, "Wexley Rehabilitation Centre"))
       .toEqual({ network: before.network + 1, site: before.site + 1 });
+    // And on the committee's own screen: this month's row of the network's observations.
+    await committee.page.goto(`${baseUrl()}/committee`);
+    const perMonth = committee.page.getByRole("table", { name: "Observations per month" }).first();
+    await perMonth.waitFor();
+    await expect
+      .poll(() => perMonth.getByRole("row").last().getByRole("cell").last().textContent())
+      .toBe((before.network + 1).toLocaleString("en-US"));
+    await perMonth.scrollIntoViewIfNeeded();
+    if (shots)
+      await committee.page.screenshot({ path: path.join(shots, "committee-observations.png") });
 
     // 12 steps: 1 (from the due list) + 3 (sequence, role, "Check the area") + 4 (area check)
     // + 11 "Done" + 4 for the one breach + 2 (coaching, summary) + 1 "Finish".
