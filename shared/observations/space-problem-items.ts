@@ -1,4 +1,4 @@
-import type { SpaceProblem } from "../schemas/observations";
+import type { PrecheckKey, SpaceProblem } from "../schemas/observations";
 import { observedZoneTypes } from "../schemas/observations";
 
 type ObservedZoneType = (typeof observedZoneTypes)[number];
@@ -31,3 +31,13 @@ export function itemKeyForSpaceProblem(zoneType: string, problem: SpaceProblem):
   if (!(observedZoneTypes as readonly string[]).includes(zoneType)) return null;
   return spaceProblemItemKeys[zoneType as ObservedZoneType][problem] ?? null;
 }
+
+/**
+ * The area check before an observation asks about the same things a space-caused breach names:
+ * a failed check is a finding against the same checklist item of the space.
+ */
+export const precheckProblems: Record<PrecheckKey, SpaceProblem> = {
+  waste_not_overfull: "bin_full",
+  hand_rub_within_reach: "no_hand_rub_within_reach",
+  sides_marked: "no_clean_dirty_separation",
+};

@@ -310,6 +310,38 @@ describe("observations of putting-on and removal", () => {
     expect(auditFindings!.n).toBe(0);
   });
 
+  it("when the area check before the observation fails, then that is a finding against the same checklist item of the space, joined by a space-caused breach of the same kind", async () => {
+    const space = await insertSpace(db(), floorA, "doffing_area");
+    const body = buildObservation(space.id, removal, {
+      breaches: { gloves: [spaceBreach("item_dropped_or_wrong_container", "bin_full")] },
+    });
+    body.precheck = [
+      { key: "waste_not_overfull", ok: false },
+      { key: "hand_rub_within_reach", ok: false },
+      { key: "sides_marked", ok: true },
+    ];
+    const reply = await as(auditorA).put(`/api/observations/${crypto.randomUUID()}`).send(body);
+    expect(reply.status).toBe(201);
+    const opened = await db()
+      .select()
+      .from(correctiveActions)
+      .where(eq(correctiveActions.spaceId, space.id));
+    // The over-full bin was seen twice (area check and breach): one action for it.
+    expect(opened.map((a) => a.itemKey).sort()).toEqual(["doff.bins-fill", "doff.hand-rub-reach"]);
+    const idOf = (key: string) => opened.find((a) => a.itemKey === key)!.id;
+    expect(
+      [...reply.body.observation.findings].sort((a: { itemKey: string }, b: { itemKey: string }) =>
+        a.itemKey.localeCompare(b.itemKey),
+      ),
+    ).toEqual([
+      { itemKey: "doff.bins-fill", actionId: idOf("doff.bins-fill") },
+      { itemKey: "doff.hand-rub-reach", actionId: idOf("doff.hand-rub-reach") },
+    ]);
+    // Read back later, the findings are the same.
+    const read = await as(auditorA).get(`/api/observations/${reply.body.observation.id}`);
+    expect(read.body.observation.findings).toHaveLength(2);
+  });
+
   it("when a breach is the person's technique, then no corrective action is opened, whatever the kind", async () => {
     const space = await insertSpace(db(), floorA, "doffing_area");
     const reply = await as(auditorA)

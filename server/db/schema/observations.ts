@@ -122,8 +122,11 @@ export const observations = pgTable(
     handHygieneExpected: integer("hand_hygiene_expected").notNull(),
     coachingGiven: boolean("coaching_given").notNull(),
     coachingNote: text("coaching_note"),
-    /** The area check before the observation: [{ key, ok }]. Null once past retention. */
-    precheck: jsonb("precheck").$type<{ key: string; ok: boolean }[]>(),
+    /**
+     * The area check before the observation: [{ key, ok, actionId }], a failed check naming the
+     * corrective action it opened or joined. Null once past retention.
+     */
+    precheck: jsonb("precheck").$type<{ key: string; ok: boolean; actionId?: string | null }[]>(),
     /** The body as received, hashed: a replay with the same content is answered as the first. */
     bodyHash: varchar("body_hash", { length: 64 }).notNull(),
     detailRemovedAt: timestamp("detail_removed_at", { withTimezone: true }),

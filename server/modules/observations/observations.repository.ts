@@ -53,6 +53,15 @@ export async function insertObservation(db: DbOrTx, values: typeof observations.
   await db.insert(observations).values(values);
 }
 
+/** The area check as stored, once the failed checks know the actions they opened or joined. */
+export async function setPrecheck(
+  db: DbOrTx,
+  observationId: string,
+  precheck: NonNullable<(typeof observations.$inferInsert)["precheck"]>,
+) {
+  await db.update(observations).set({ precheck }).where(eq(observations.id, observationId));
+}
+
 export async function insertSteps(db: DbOrTx, rows: (typeof observationSteps.$inferInsert)[]) {
   if (rows.length > 0) await db.insert(observationSteps).values(rows);
 }

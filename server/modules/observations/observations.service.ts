@@ -2,13 +2,14 @@ import { createHash, randomUUID } from "node:crypto";
 
 import { observationOutcome } from "@shared/calc/observation-outcome";
 import { defaultChecklists } from "@shared/checklists/defaults";
-import { itemKeyForSpaceProblem } from "@shared/observations/space-problem-items";
+import { itemKeyForSpaceProblem, precheckProblems } from "@shared/observations/space-problem-items";
 import { can } from "@shared/permissions";
 import {
   observedZoneTypes,
   type Observation,
   type ObservationBody,
   type ObservationSettings,
+  type PrecheckKey,
   type SpaceProblem,
 } from "@shared/schemas/observations";
 import type { ZoneType } from "@shared/zones";
@@ -55,12 +56,22 @@ type Row = Awaited<ReturnType<typeof repo.observationRows>>[number];
 
 function toObservation(row: Row, auth: SignedIn): Observation {
   const o = row.observation;
-  const findings = row.findings.flatMap((finding) => {
+  // Failed area checks and space-caused breaches, each item once.
+  const found = new Map<string, string>();
+  for (const check of o.precheck ?? []) {
+    const itemKey =
+      !check.ok && check.actionId
+        ? itemKeyForSpaceProblem(row.zoneType, precheckProblems[check.key as PrecheckKey])
+        : null;
+    if (itemKey && check.actionId) found.set(itemKey, check.actionId);
+  }
+  for (const finding of row.findings) {
     const itemKey = finding.spaceProblem
       ? itemKeyForSpaceProblem(row.zoneType, finding.spaceProblem)
       : null;
-    return itemKey && finding.actionId ? [{ itemKey, actionId: finding.actionId }] : [];
-  });
+    if (itemKey && finding.actionId) found.set(itemKey, finding.actionId);
+  }
+  const findings = [...found].map(([itemKey, actionId]) => ({ itemKey, actionId }));
   return {
     id: o.id,
     siteId: o.siteId,
@@ -213,13 +224,15 @@ export async function recordObservation(
     );
 
   const result = observationOutcome(steps, body.steps);
-  const problems = new Set(
-    body.steps.flatMap((record) =>
+  // What the space lacked: the area check's failed items and the space-caused breaches.
+  const problems = new Set([
+    ...body.precheck.flatMap((check) => (check.ok ? [] : [precheckProblems[check.key]])),
+    ...body.steps.flatMap((record) =>
       record.breaches.flatMap((breach) =>
         breach.cause === "space" && breach.spaceProblem ? [breach.spaceProblem] : [],
       ),
     ),
-  );
+  ]);
   const failed = await failedItemsFor(db, networkId, space.zoneType, problems, version.title);
 
   const stored = await db.transaction(async (tx) => {
@@ -268,6 +281,19 @@ export async function recordObservation(
       actor,
       new Date(),
     );
+    const actionFor = (problem: SpaceProblem) => {
+      const key = itemKeyForSpaceProblem(space.zoneType, problem);
+      return key ? (actionIds.get(key) ?? null) : null;
+    };
+    if (body.precheck.some((check) => !check.ok))
+      await repo.setPrecheck(
+        tx,
+        observationId,
+        body.precheck.map((check) => ({
+          ...check,
+          actionId: check.ok ? null : actionFor(precheckProblems[check.key]),
+        })),
+      );
     await repo.insertBreaches(
       tx,
       body.steps.flatMap((record) =>
