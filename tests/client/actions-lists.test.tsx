@@ -178,7 +178,9 @@ describe("the site's action list", () => {
       `/api/sites/${tamsinGeneral.id}/actions/export?state=all&overdue=true`,
     );
     expect(router.state.location.search).toBe("?state=all&overdue=true");
-  });
+    // Eight interactions, each waiting on the router's loader: on a loaded two-core machine this
+    // took longer than the 5 s default while behaving correctly.
+  }, 15_000);
 
   it("when the site page opens, then it counts the open and overdue actions and links to the list", async () => {
     stubApi({
