@@ -108,10 +108,6 @@ export function CommitteeOverview({ view, onViewChange }: CommitteeOverviewProps
         </>
       )}
 
-      {valid && comparison.data && comparison.data.sites.length > 0 ? (
-        <ObservationsSection period={period} />
-      ) : null}
-
       {valid ? (
         trends.isPending ? (
           <Spinner label="Loading the trends…" className="py-8" />
@@ -163,6 +159,11 @@ export function CommitteeOverview({ view, onViewChange }: CommitteeOverviewProps
             </section>
           </>
         )
+      ) : null}
+
+      {/* Last, and only once everything above has its size, so nothing on screen moves later. */}
+      {valid && comparison.data && comparison.data.sites.length > 0 && !trends.isPending ? (
+        <ObservationsSection period={period} />
       ) : null}
     </div>
   );

@@ -169,7 +169,8 @@ export function CommitteeSiteSpaces({ siteId, period }: CommitteeSiteSpacesProps
           ) : null}
         </>
       )}
-      {valid ? <ObservationsSection period={period} siteId={siteId} /> : null}
+      {/* Below the spaces, and only once they are shown, so nothing above it moves later. */}
+      {valid && !site.isPending ? <ObservationsSection period={period} siteId={siteId} /> : null}
     </div>
   );
 }
