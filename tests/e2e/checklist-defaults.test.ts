@@ -1,29 +1,11 @@
-import { mkdirSync } from "node:fs";
-import path from "node:path";
-
 import pg from "pg";
-import type { Browser, Page } from "playwright-core";
+import type { Browser } from "playwright-core";
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
 
 import { baseUrl, launchBrowser, phonePage, signIn } from "../helpers/browser";
+import { networkWithAdministrator, pageWidth, shot } from "../helpers/screens";
 
 const password = "lintel-demo-2026";
-
-/** Saves a full-page picture when LINTEL_SHOT_DIR names a folder (for reviewing screens by eye). */
-async function shot(page: Page, name: string) {
-  const dir = process.env.LINTEL_SHOT_DIR;
-  if (!dir) return;
-  mkdirSync(dir, { recursive: true });
-  await page.screenshot({ path: path.join(dir, `${name}.png`), fullPage: true });
-}
-
-async function pageWidth(page: Page) {
-  return page.evaluate(
-    () =>
-      (globalThis as unknown as { document: { documentElement: { scrollWidth: number } } }).document
-        .documentElement.scrollWidth,
-  );
-}
 
 describe("the checklists page on a phone (390×844)", () => {
   let browser: Browser;
@@ -41,21 +23,7 @@ describe("the checklists page on a phone (390×844)", () => {
   it("when the network's own doffing checklist meets a newer default, then the administrator reads that it waits as a draft beside theirs", async () => {
     // A network whose administrator published its own doffing checklist before version 2 of the
     // defaults existed: its version 1, published by a person, with no record of a default revision.
-    const email = `admin-${crypto.randomUUID().slice(0, 8)}@example.org`;
-    const { rows } = await db.query<{ network_id: string; user_id: string }>(
-      `with n as (insert into networks (name) values ($1) returning id),
-            u as (insert into users (network_id, email, display_name, password_hash)
-                  select n.id, $2, 'Rowan Hale',
-                         (select password_hash from users where email = 'admin@example.org')
-                    from n returning id, network_id)
-       select network_id, id as user_id from u`,
-      [`Harbour Health ${email}`, email],
-    );
-    const { network_id: networkId, user_id: userId } = rows[0]!;
-    await db.query(
-      `insert into role_grants (user_id, role, site_id) values ($1, 'administrator', null)`,
-      [userId],
-    );
+    const { networkId, userId, email } = await networkWithAdministrator(db);
     const own = await db.query<{ id: string }>(
       `insert into checklist_versions (network_id, zone_type, version, status, title, published_at, published_by)
        values ($1, 'doffing_area', 1, 'published', 'Doffing area, our version', now(), $2) returning id`,
@@ -88,7 +56,7 @@ describe("the checklists page on a phone (390×844)", () => {
         .count(),
     ).resolves.toBe(0);
     expect(await pageWidth(admin.page)).toBeLessThanOrEqual(390);
-    await shot(admin.page, "checklists-admin-offer");
+    await shot(admin.page, "checklists-admin-offer", { fullPage: true });
 
     // The isolation room's items show their sources or "Common practice".
     const room = admin.page.locator("section", {
@@ -100,7 +68,7 @@ describe("the checklists page on a phone (390×844)", () => {
       .waitFor();
     expect(await room.getByText("Reference: Common practice").count()).toBeGreaterThan(3);
     expect(await pageWidth(admin.page)).toBeLessThanOrEqual(390);
-    await shot(admin.page, "checklists-admin-room-items");
+    await shot(admin.page, "checklists-admin-room-items", { fullPage: true });
     expect(admin.problems).toEqual([]);
   });
 });

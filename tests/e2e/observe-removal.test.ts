@@ -5,15 +5,12 @@ import { afterAll, beforeAll, describe, expect, it } from "vitest";
 
 import { baseUrl, launchBrowser, phonePage, signIn } from "../helpers/browser";
 import { keptOnPhone } from "../helpers/kept";
+import { shot } from "../helpers/screens";
 
 const password = "lintel-demo-2026";
 const shots = process.env.LINTEL_SHOTS_DIR;
 // The enhanced ensemble's removal: 12 steps, Lintel's draft from common practice.
 const enhancedRemoval = /Removing PPE, enhanced ensemble/;
-
-async function shot(page: Page, name: string) {
-  if (shots) await page.screenshot({ path: path.join(shots, `${name}.png`), fullPage: true });
-}
 
 /** Nothing on the page is wider than the phone. */
 async function fitsThePhone(page: Page) {
@@ -84,7 +81,7 @@ describe("observing a removal on a phone that loses its connection half-way (390
       .getByRole("link", { name: "Observe putting on or removal" })
       .waitFor();
     await fitsThePhone(page);
-    await shot(page, "observe-0-due-list-auditor");
+    await shot(page, "observe-0-due-list-auditor", { fullPage: true });
     // From the due list's entry for the doffing area (the first tap of the observation).
     await tap(
       page
@@ -102,12 +99,12 @@ describe("observing a removal on a phone that loses its connection half-way (390
     );
     await page.getByText("never a name", { exact: false }).waitFor();
     await fitsThePhone(page);
-    await shot(page, "observe-1-setup-auditor");
+    await shot(page, "observe-1-setup-auditor", { fullPage: true });
 
     await tap(sequences.filter({ hasText: enhancedRemoval }));
     await type(page.getByLabel("Staff code"), "rn-4471");
     await tap(page.getByRole("group", { name: "Role" }).getByRole("button", { name: "Nurse" }));
-    await shot(page, "observe-1-setup-filled-auditor");
+    await shot(page, "observe-1-setup-filled-auditor", { fullPage: true });
     await tap(page.getByRole("button", { name: "Check the area" }));
 
     await page.getByRole("heading", { level: 2, name: "Check the area first" }).waitFor();
@@ -119,7 +116,7 @@ describe("observing a removal on a phone that loses its connection half-way (390
       await tap(page.getByRole("group", { name: check }).getByRole("button", { name: "Yes" }));
     }
     await fitsThePhone(page);
-    await shot(page, "observe-2-area-check-auditor");
+    await shot(page, "observe-2-area-check-auditor", { fullPage: true });
     await tap(page.getByRole("button", { name: "Start the steps" }));
 
     const total = 12;
@@ -127,14 +124,14 @@ describe("observing a removal on a phone that loses its connection half-way (390
       await page.getByText(`Step ${step} of ${total}`, { exact: true }).waitFor();
       if (step === 1) {
         await fitsThePhone(page);
-        await shot(page, "observe-3-step-auditor");
+        await shot(page, "observe-3-step-auditor", { fullPage: true });
       }
       if (step === 6) {
         // Half-way the connection goes: the browser is offline and the API cannot be reached.
         await context.setOffline(true);
         await context.route("**/api/**", (route) => route.abort());
         await page.getByText(/^Offline — /).waitFor();
-        await shot(page, "observe-3-step-offline-auditor");
+        await shot(page, "observe-3-step-offline-auditor", { fullPage: true });
       }
       if (step === 8) {
         // Outer gloves went into the wrong container: the person's technique.
@@ -152,7 +149,7 @@ describe("observing a removal on a phone that loses its connection half-way (390
         );
         await page.getByLabel("Note (optional)").fill("Gloves into the linen bag");
         await fitsThePhone(page);
-        await shot(page, "observe-4-breach-auditor");
+        await shot(page, "observe-4-breach-auditor", { fullPage: true });
         await tap(page.getByRole("button", { name: "Record breach" }));
         continue;
       }
@@ -166,26 +163,26 @@ describe("observing a removal on a phone that loses its connection half-way (390
     );
     await page.getByLabel("What was coached (optional)").fill("Showed where the waste bin is");
     await fitsThePhone(page);
-    await shot(page, "observe-5-coaching-auditor");
+    await shot(page, "observe-5-coaching-auditor", { fullPage: true });
     await tap(page.getByRole("button", { name: "See the summary" }));
 
     await page.getByRole("heading", { level: 2, name: "Summary" }).waitFor();
     await page.getByText("Breaches seen — 1 breach, at step 8").waitFor();
     await fitsThePhone(page);
-    await shot(page, "observe-6-summary-auditor");
+    await shot(page, "observe-6-summary-auditor", { fullPage: true });
     await tap(page.getByRole("button", { name: "Finish" }));
 
     await page.getByText("Saved on this phone only", { exact: true }).waitFor();
     await page.getByText("Breaches seen — 1 breach, at step 8").waitFor();
     await fitsThePhone(page);
-    await shot(page, "observe-7-finished-offline-auditor");
+    await shot(page, "observe-7-finished-offline-auditor", { fullPage: true });
 
     // Back online: the phone sends what it kept, by itself.
     await context.unroute("**/api/**");
     await context.setOffline(false);
     await page.getByText("Arrived in Lintel", { exact: true }).waitFor({ timeout: 30_000 });
     await page.getByText("All changes arrived in Lintel").waitFor({ timeout: 15_000 });
-    await shot(page, "observe-8-arrived-auditor");
+    await shot(page, "observe-8-arrived-auditor", { fullPage: true });
 
     const detail = await page.request.get(`${baseUrl()}/api/observations/${observationId}`);
     expect(detail.status()).toBe(200);
@@ -261,7 +258,7 @@ describe("observing a removal on a phone that loses its connection half-way (390
     await page.getByText("What are you here to do?").waitFor();
     await page.getByRole("button", { name: "Audit this space" }).waitFor();
     await fitsThePhone(page);
-    await shot(page, "observe-0-qr-choice-auditor");
+    await shot(page, "observe-0-qr-choice-auditor", { fullPage: true });
     await page.getByRole("link", { name: "Observe putting on or removal" }).click();
     await page.getByRole("heading", { level: 2, name: "Sequence" }).waitFor();
     await page.getByRole("heading", { level: 1, name: "Doffing area 2" }).waitFor();

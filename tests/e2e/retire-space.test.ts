@@ -1,29 +1,11 @@
-import { mkdirSync } from "node:fs";
-import path from "node:path";
-
-import type { Browser, Page } from "playwright-core";
+import type { Browser } from "playwright-core";
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
 
 import { baseUrl, launchBrowser, phonePage, signIn } from "../helpers/browser";
+import { pageWidth, shot } from "../helpers/screens";
 
 const password = "lintel-demo-2026";
 const bay = "Temporary doffing bay (No. C1)";
-
-/** Saves a full-page picture when LINTEL_SHOT_DIR names a folder (for reviewing screens by eye). */
-async function shot(page: Page, name: string) {
-  const dir = process.env.LINTEL_SHOT_DIR;
-  if (!dir) return;
-  mkdirSync(dir, { recursive: true });
-  await page.screenshot({ path: path.join(dir, `${name}.png`), fullPage: false });
-}
-
-async function pageWidth(page: Page) {
-  return page.evaluate(
-    () =>
-      (globalThis as unknown as { document: { documentElement: { scrollWidth: number } } }).document
-        .documentElement.scrollWidth,
-  );
-}
 
 describe("retiring a space on a phone (390×844)", () => {
   let browser: Browser;

@@ -1,29 +1,11 @@
-import { mkdirSync } from "node:fs";
-import path from "node:path";
-
 import pg from "pg";
-import type { Browser, Page } from "playwright-core";
+import type { Browser } from "playwright-core";
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
 
 import { baseUrl, launchBrowser, phonePage, signIn } from "../helpers/browser";
+import { networkWithAdministrator, pageWidth, shot } from "../helpers/screens";
 
 const password = "lintel-demo-2026";
-
-/** Saves a picture when LINTEL_SHOT_DIR names a folder (for reviewing screens by eye). */
-async function shot(page: Page, name: string) {
-  const dir = process.env.LINTEL_SHOT_DIR;
-  if (!dir) return;
-  mkdirSync(dir, { recursive: true });
-  await page.screenshot({ path: path.join(dir, `${name}.png`) });
-}
-
-async function pageWidth(page: Page) {
-  return page.evaluate(
-    () =>
-      (globalThis as unknown as { document: { documentElement: { scrollWidth: number } } }).document
-        .documentElement.scrollWidth,
-  );
-}
 
 describe("the observation steps page on a phone (390×844)", () => {
   let browser: Browser;
@@ -40,21 +22,7 @@ describe("the observation steps page on a phone (390×844)", () => {
 
   it("when an administrator rewords a removal step and confirms publishing, then version 2 carries it and version 1 stays as it was", async () => {
     // A network of its own, so the demo network's sequences stay as other tests expect them.
-    const email = `admin-${crypto.randomUUID().slice(0, 8)}@example.org`;
-    const { rows } = await db.query<{ network_id: string; user_id: string }>(
-      `with n as (insert into networks (name) values ($1) returning id),
-            u as (insert into users (network_id, email, display_name, password_hash)
-                  select n.id, $2, 'Rowan Hale',
-                         (select password_hash from users where email = 'admin@example.org')
-                    from n returning id, network_id)
-       select network_id, id as user_id from u`,
-      [`Harbour Health ${email}`, email],
-    );
-    const { network_id: networkId, user_id: userId } = rows[0]!;
-    await db.query(
-      `insert into role_grants (user_id, role, site_id) values ($1, 'administrator', null)`,
-      [userId],
-    );
+    const { networkId, email } = await networkWithAdministrator(db);
 
     const admin = await phonePage(browser);
     await signIn(admin.page, email, password);
