@@ -130,7 +130,8 @@ export type PressureNow =
   | "excursion";
 
 export interface PressureAnalysis {
-  monitorId: string;
+  /** Null when there are no readings to name it. */
+  monitorId: string | null;
   excursions: PressureExcursion[];
   silences: SilentPeriod[];
   /** The current "no readings" alarm: since the last reading (or since watching began). */
@@ -285,7 +286,7 @@ export function analysePressure(
 ): PressureAnalysis {
   const nowMs = now.getTime();
   if (!Number.isFinite(nowMs)) throw new RangeError("The clock must be a valid time.");
-  const monitorId = assertOneMonitor(readings) ?? "";
+  const monitorId = assertOneMonitor(readings);
   const known = orderReadings(readings).filter((reading) => reading.measuredAt.getTime() <= nowMs);
   const stretches = stretchesOf(known, nowMs, policy);
 
@@ -327,7 +328,7 @@ export function analysePressure(
       status = nowMs < joinBy || waiting ? "closing" : "closed";
     }
     return {
-      monitorId,
+      monitorId: first.out[0]!.monitorId,
       start: new Date(startMs),
       alarmAt: new Date(first.alarmAt!),
       end: last.end === null ? null : new Date(last.end),

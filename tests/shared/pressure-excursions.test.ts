@@ -345,6 +345,8 @@ describe("gaps and a monitor that stops", () => {
     const silent = analysePressure([], at(600), defaultExcursionPolicy, options);
     expect(silent.now).toBe("no_readings");
     expect(silent.noReadingsSince).toEqual(at(0));
+    expect(silent.monitorId).toBeNull();
+    expect(silent.lastReading).toBeNull();
   });
 });
 
