@@ -3,13 +3,13 @@ import { describe, expect, it } from "vitest";
 import {
   futureReadingProblem,
   monitorIdFromTopic,
-  parsePressureCsv,
   parsePressureMessage,
   pressureInPascals,
   pressureReadingBatchSchema,
   pressureTopic,
   pressureTopicFilter,
 } from "@shared/schemas/pressure-readings";
+import { parsePressureCsv } from "@shared/schemas/pressure-readings-csv";
 
 const topic = "lintel/pressure/AIIR-204";
 const message = (body: Record<string, unknown>) => JSON.stringify(body);
