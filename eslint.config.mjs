@@ -156,6 +156,24 @@ export default tseslint.config(
     rules: { "no-restricted-properties": "off" },
   },
   {
+    // The CSV parser needs Node's Buffer: CSV uploads are read on the server only.
+    files: ["src/**/*.{ts,tsx}"],
+    rules: {
+      "no-restricted-imports": [
+        "error",
+        {
+          paths: [{ name: "csv-parse/sync", message: "CSV is parsed on the server." }],
+          patterns: [
+            {
+              group: ["**/schemas/pressure-readings-csv"],
+              message: "CSV is parsed on the server; the client uses pressure-readings.ts.",
+            },
+          ],
+        },
+      ],
+    },
+  },
+  {
     files: ["src/**/*.{ts,tsx}", "tests/client/**/*.{ts,tsx}"],
     plugins: { "react-hooks": reactHooks },
     languageOptions: { globals: { ...globals.browser } },

@@ -5,6 +5,13 @@ declare module "jstat" {
       inv(p: number, mean: number, sd: number): number;
       cdf(x: number, mean: number, sd: number): number;
     };
+    chisquare: {
+      inv(p: number, dof: number): number;
+      cdf(x: number, dof: number): number;
+    };
+    poisson: {
+      cdf(k: number, lambda: number): number;
+    };
     binomial: {
       cdf(k: number, n: number, p: number): number;
       pdf(k: number, n: number, p: number): number;
