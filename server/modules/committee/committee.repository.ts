@@ -451,22 +451,30 @@ export const observationQueries = {
          ${onlyIds === null ? sql`` : sql`and id = any(${siteArray(onlyIds)})`}
     ), obs as (
       select o.id, o.site_id, o.staff_code, o.finished_at, o.outcome, o.coaching_given,
-             o.hand_hygiene_performed as performed, o.hand_hygiene_expected as expected,
+             o.breach_count, o.hand_hygiene_performed as performed,
+             o.hand_hygiene_expected as expected,
              o.sequence_version_id,
              to_char(o.finished_at at time zone r.time_zone, 'YYYY-MM') as month
         from readable r
         join observations o on o.site_id = r.id and o.finished_at >= r.starts and o.finished_at < r.ends
     ), totals as (
-      select site_id, count(*)::int as observations,
-             count(distinct staff_code)::int as staff_codes,
-             count(*) filter (where staff_code is null)::int as without_code,
-             count(*) filter (where expected > 0)::int as hh_observations,
-             count(*) filter (where expected > 0 and performed >= expected)::int as hh_all,
-             coalesce(sum(performed) filter (where expected > 0), 0)::int as hh_performed,
-             coalesce(sum(expected), 0)::int as hh_expected,
-             count(distinct staff_code) filter (where expected > 0)::int as hh_staff_codes,
-             count(*) filter (where expected > 0 and staff_code is null)::int as hh_without_code
-        from obs group by site_id
+      -- Distinct staff codes counted as groups (one hashing pass) rather than sorted per site.
+      select site_id, sum(observations)::int as observations,
+             count(staff_code)::int as staff_codes,
+             coalesce(sum(observations) filter (where staff_code is null), 0)::int as without_code,
+             sum(hh_observations)::int as hh_observations,
+             sum(hh_all)::int as hh_all,
+             sum(hh_performed)::int as hh_performed,
+             sum(hh_expected)::int as hh_expected,
+             count(staff_code) filter (where hh_observations > 0)::int as hh_staff_codes,
+             coalesce(sum(hh_observations) filter (where staff_code is null), 0)::int as hh_without_code
+        from (select site_id, staff_code, count(*) as observations,
+                     count(*) filter (where expected > 0) as hh_observations,
+                     count(*) filter (where expected > 0 and performed >= expected) as hh_all,
+                     coalesce(sum(performed) filter (where expected > 0), 0) as hh_performed,
+                     coalesce(sum(expected), 0) as hh_expected
+                from obs group by site_id, staff_code) per_code
+       group by site_id
     ), step_names as materialized (
       -- Each step's words and place as in the newest version of its sequence that was observed.
       select distinct on (sv.key, ss.key) sv.key as sequence_key, sv.title as sequence_title,
@@ -476,12 +484,19 @@ export const observationQueries = {
        where sv.id in (select distinct sequence_version_id from obs)
        order by sv.key, ss.key, sv.version desc
     ), step_counts as (
-      -- Counted by step id first (no sort), then gathered under the sequence's and step's keys.
-      select obs.site_id, os.step_id, count(*)::int as observations,
-             count(*) filter (where os.breached)::int as breached
-        from obs
-        join observation_steps os on os.observation_id = obs.id
-       group by obs.site_id, os.step_id
+      -- Every observation answers every step of its version (an observation missing one is
+      -- refused), so a step's observations are its version's; only breached steps are read one by
+      -- one, and only for the observations with a breach.
+      select v.site_id, ss.id as step_id, v.observations, coalesce(b.breached, 0) as breached
+        from (select site_id, sequence_version_id, count(*)::int as observations
+                from obs group by site_id, sequence_version_id) v
+        join sequence_steps ss on ss.version_id = v.sequence_version_id
+        left join (select obs.site_id, os.step_id, count(*)::int as breached
+                     from obs
+                     join observation_steps os on os.observation_id = obs.id and os.breached
+                    where obs.breach_count > 0
+                    group by obs.site_id, os.step_id) b
+               on b.site_id = v.site_id and b.step_id = ss.id
     ), step_totals as materialized (
       select sc.site_id, sv.key as sequence_key, ss.key as step_key,
              sum(sc.observations)::int as observations, sum(sc.breached)::int as breached
@@ -491,15 +506,19 @@ export const observationQueries = {
        group by sc.site_id, sv.key, ss.key
     ), step_people as materialized (
       -- Who each step's figure describes: every observation answers every step of its version,
-      -- so a step's staff codes are those of the observations of the versions that have it.
-      select p.site_id, sv.key as sequence_key, ss.key as step_key,
-             count(distinct p.staff_code)::int as staff_codes, sum(p.without_code)::int as without_code
-        from (select site_id, sequence_version_id, staff_code,
-                     count(*) filter (where staff_code is null) as without_code
-                from obs group by site_id, sequence_version_id, staff_code) p
-        join sequence_versions sv on sv.id = p.sequence_version_id
-        join sequence_steps ss on ss.version_id = p.sequence_version_id
-       group by p.site_id, sv.key, ss.key
+      -- so a step's staff codes are those of the observations of the versions that have it
+      -- (grouped by code first, then counted: no sort of every code at every step).
+      select site_id, sequence_key, step_key,
+             count(staff_code)::int as staff_codes, sum(without_code)::int as without_code
+        from (select p.site_id, sv.key as sequence_key, ss.key as step_key, p.staff_code,
+                     sum(p.without_code) as without_code
+                from (select site_id, sequence_version_id, staff_code,
+                             count(*) filter (where staff_code is null) as without_code
+                        from obs group by site_id, sequence_version_id, staff_code) p
+                join sequence_versions sv on sv.id = p.sequence_version_id
+                join sequence_steps ss on ss.version_id = p.sequence_version_id
+               group by p.site_id, sv.key, ss.key, p.staff_code) per_code
+       group by site_id, sequence_key, step_key
     ), months as (
       select site_id, month, count(*)::int as observations from obs group by site_id, month
     ), followed as (
