@@ -164,10 +164,12 @@ export default defineConfig({
         codeSplitting: {
           groups: [
             { name: "main", tags: ["$initial"], priority: 10 },
-            // The form and mutation pieces every editing screen shares, as one file, not four.
+            // The rest of the validation library, which every screen's replies are read with.
+            { name: "schemas", test: /node_modules[\\/]zod[\\/]/, priority: 6 },
+            // The form and mutation pieces the editing screens share, as one file, not three.
             {
               name: "forms",
-              test: /node_modules[\\/](react-hook-form|@hookform|zod|@tanstack[\\/]query-core[\\/]build[\\/]modern[\\/]mutation|@tanstack[\\/]react-query[\\/]build[\\/]modern[\\/](useMutation|mutationOptions))/,
+              test: /node_modules[\\/](react-hook-form|@hookform|@tanstack[\\/]query-core[\\/]build[\\/]modern[\\/]mutation|@tanstack[\\/]react-query[\\/]build[\\/]modern[\\/](useMutation|mutationOptions))/,
               priority: 5,
             },
           ],

@@ -104,6 +104,9 @@ async function measurePage(
     });
 
     const page = await context.newPage();
+    // With the timeline, the page's own console lines too (marks left while looking into a page).
+    if (process.env.BENCH_PHONE_TIMELINE)
+      page.on("console", (message) => console.log(`  console: ${message.text()}`));
     const cdp = await context.newCDPSession(page);
     await cdp.send("Network.enable");
     await cdp.send("Network.emulateNetworkConditions", {

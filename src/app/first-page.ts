@@ -9,14 +9,13 @@ const firstPages: [pattern: RegExp, load: () => Promise<unknown>][] = [
   [new RegExp(`^${paths.signIn.path}/?$`), () => import("./routes/sign-in")],
   [/^\/$/, () => import("./routes/home")],
   [
-    // A QR code's link: it starts the audit and moves on to the audit screen at once.
+    // A QR code's link: it starts the audit and moves on to the audit screen at once. The start
+    // comes first, so the audit reaches Lintel while the audit screen's own code is on its way.
     /^\/spaces\/[^/]+\/audit\/?$/,
     () =>
-      Promise.all([
-        import("./routes/audit-layout"),
-        import("./routes/start-audit"),
-        import("./routes/audit"),
-      ]),
+      Promise.all([import("./routes/audit-layout"), import("./routes/start-audit")]).then(
+        () => import("./routes/audit"),
+      ),
   ],
   [
     /^\/audits\/[^/]+\/?$/,
