@@ -520,8 +520,11 @@ export async function benchCommittee(cluster: Cluster, s3Endpoint: string): Prom
     const [small, large] = results as [ScaleResult, ScaleResult];
     for (const name of Object.keys(large.endpoints)) {
       const growth = large.endpoints[name]!.p95 / small.endpoints[name]!.p95;
+      // The comparison and trends read monthly totals, so they should grow far slower than the
+      // data; the observations are counted one by one in the period, so theirs grows with it.
+      const target = name === "observations" ? "grows with the observations" : "target ≤ 3×";
       console.log(
-        `  ${name}: ${(large.audits / small.audits).toFixed(1)}× the data → ${growth.toFixed(2)}× the p95 (target ≤ 3×); p95 ${large.endpoints[name]!.p95.toFixed(1)} ms (target ≤ 300 ms)`,
+        `  ${name}: ${(large.audits / small.audits).toFixed(1)}× the data → ${growth.toFixed(2)}× the p95 (${target}); p95 ${large.endpoints[name]!.p95.toFixed(1)} ms (target ≤ 300 ms)`,
       );
     }
     console.log(
