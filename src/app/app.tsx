@@ -17,7 +17,7 @@ function createAppState() {
   void queryClient.prefetchQuery(meQueryOptions());
   // Then the opened page's own files: asked second, so the phone's few connections carry the
   // question of who is signed in before a screen's dozen files.
-  preloadFirstPage(window.location.pathname);
+  preloadFirstPage(window.location.pathname, queryClient);
   const router: AppRouter = createBrowserRouter(createRoutes(queryClient));
   return { queryClient, router };
 }

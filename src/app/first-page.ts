@@ -1,3 +1,5 @@
+import type { QueryClient } from "@tanstack/react-query";
+
 import { paths } from "@/config/paths";
 
 /**
@@ -9,13 +11,14 @@ const firstPages: [pattern: RegExp, load: () => Promise<unknown>][] = [
   [new RegExp(`^${paths.signIn.path}/?$`), () => import("./routes/sign-in")],
   [/^\/$/, () => import("./routes/home")],
   [
-    // A QR code's link: it starts the audit and moves on to the audit screen at once. The start
-    // comes first, so the audit reaches Lintel while the audit screen's own code is on its way.
+    // A QR code's link: it starts the audit and moves on to the audit screen at once.
     /^\/spaces\/[^/]+\/audit\/?$/,
     () =>
-      Promise.all([import("./routes/audit-layout"), import("./routes/start-audit")]).then(
-        () => import("./routes/audit"),
-      ),
+      Promise.all([
+        import("./routes/audit-layout"),
+        import("./routes/start-audit"),
+        import("./routes/audit"),
+      ]),
   ],
   [
     /^\/audits\/[^/]+\/?$/,
@@ -23,7 +26,17 @@ const firstPages: [pattern: RegExp, load: () => Promise<unknown>][] = [
   ],
 ];
 
-export function preloadFirstPage(pathname: string): void {
+/** A QR code's link: `/spaces/<id>/audit`. */
+const qrStart = /^\/spaces\/([^/]+)\/audit\/?$/;
+
+export function preloadFirstPage(pathname: string, queryClient: QueryClient): void {
+  // First the data a QR code's audit starts from: its questions go out as soon as their small
+  // file is in, while the screens' code is still arriving.
+  const spaceId = qrStart.exec(pathname)?.[1];
+  if (spaceId)
+    import("./qr-start-data")
+      .then((module) => module.askForQrStartData(queryClient, decodeURIComponent(spaceId)))
+      .catch(() => undefined);
   const match = firstPages.find(([pattern]) => pattern.test(pathname));
   // A failed download is retried, and reported, by the router when it needs the page.
   if (match) match[1]().catch(() => undefined);

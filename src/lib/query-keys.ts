@@ -29,6 +29,8 @@ export const queryKeys = {
     detail: (floorId: string) => ["floors", "detail", floorId] as const,
     list: (siteId: string) => ["floors", "list", siteId] as const,
     retired: (siteId: string) => ["floors", "retired", siteId] as const,
+    /** The floor a space is on, asked by the space's id (a QR code's start); kept as that floor. */
+    ofSpace: (spaceId: string) => ["floors", "of-space", spaceId] as const,
   },
   audits: {
     detail: (auditId: string) => ["audits", "detail", auditId] as const,

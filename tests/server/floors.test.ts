@@ -68,6 +68,30 @@ describe("floors, spaces and fixtures", () => {
     expect(plan.status).toBe(200);
   });
 
+  it("when an auditor opens a space's QR code, then the space's floor comes whole from the space's id, and an unknown space is 404", async () => {
+    const floor = await newFloor("Level 3");
+    const made = async (name: string) =>
+      (
+        await as(admin)
+          .post(`/api/floors/${floor.id}/spaces`)
+          .send({ zoneType: "anteroom", name, polygon: room })
+      ).body.space;
+    const [first, second] = [await made("Anteroom 3.1"), await made("Anteroom 3.2")];
+
+    const fromSpace = await as(auditor).get(`/api/spaces/${second.id}/floor`);
+    expect(fromSpace.status).toBe(200);
+    // The same answer as the floor's own address: the phone keeps it under that floor.
+    const fromFloor = await as(auditor).get(`/api/floors/${floor.id}`);
+    expect(fromSpace.body).toEqual(fromFloor.body);
+    expect(fromSpace.body.floor.id).toBe(floor.id);
+    expect(fromSpace.body.spaces.map((space: { id: string }) => space.id).sort()).toEqual(
+      [first.id, second.id].sort(),
+    );
+
+    const unknown = await as(auditor).get(`/api/spaces/${crypto.randomUUID()}/floor`);
+    expect(unknown.status).toBe(404);
+  });
+
   it("when the scale is set from two points 250 units apart that are 5 m apart, then it is 0.02 m per unit", async () => {
     const floor = await newFloor("Scaled");
     const response = await as(admin)

@@ -559,6 +559,12 @@ const samples: Record<string, Sample> = {
     allowed: readers,
     hidden: notAtA,
   },
+  "GET /spaces/:spaceId/floor": {
+    prepare: async (w) => ({ url: `/api/spaces/${(await spaceAtA(w)).id}/floor` }),
+    ok: 200,
+    allowed: readers,
+    hidden: notAtA,
+  },
   "PATCH /spaces/:spaceId/cadence": {
     prepare: async (w) => ({
       url: `/api/spaces/${(await spaceAtA(w)).id}/cadence`,

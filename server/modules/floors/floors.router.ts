@@ -58,6 +58,17 @@ export const floorRoutes = [
     },
   }),
   defineRoute({
+    method: "get",
+    path: "/spaces/:spaceId/floor",
+    summary:
+      "The floor a space is on, with its suites, spaces and fixtures (for a QR code's start)",
+    access: space("read:site:site"),
+    params: spaceParamsSchema,
+    async handle({ res, deps, params }) {
+      res.json(await floors.floorOfSpace(deps.db, params.spaceId));
+    },
+  }),
+  defineRoute({
     method: "patch",
     path: "/floors/:floorId",
     summary: "Rename or renumber a floor",

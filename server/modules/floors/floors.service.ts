@@ -43,6 +43,18 @@ export async function floorDetail(db: Database, floorId: string): Promise<FloorD
   return { floor: repo.toFloor(row), ...(await repo.floorContents(db, floorId)) };
 }
 
+/**
+ * The floor a space is on, with everything on it: a QR code names only the space, and the phone
+ * starts its audit from the space's facts while the audit screen's own code is still on its way.
+ */
+export async function floorOfSpace(db: Database, spaceId: string): Promise<FloorDetail> {
+  const space = await repo.findSpace(db, spaceId);
+  if (!space) throw notFound("That space");
+  // A retired space is not on the floor it returns: the phone then waits for Lintel's answer to
+  // the audit itself, which says why it cannot start.
+  return floorDetail(db, space.floorId);
+}
+
 export function createFloor(
   db: Database,
   siteId: string,

@@ -11,7 +11,11 @@ import { Spinner } from "@/components/ui/spinner";
 import { paths } from "@/config/paths";
 import { checklistsQueryOptions } from "@/features/admin/api/get-checklists";
 import { meQueryOptions } from "@/features/auth/api/get-me";
-import { cachedSpace, cachedSpaceName } from "@/features/floor-plans/api/get-floor";
+import {
+  cachedSpace,
+  cachedSpaceName,
+  floorOfSpaceQueryOptions,
+} from "@/features/floor-plans/api/get-floor";
 import { scheduledSpaceName } from "@/features/walkthroughs/api/get-site-schedule";
 import { StartAudit } from "@/features/walkthroughs/components/start-audit";
 import { isObservedZone } from "@/features/walkthroughs/lib/observation-flow";
@@ -29,16 +33,40 @@ function knownSpaceName(queryClient: QueryClient, spaceId: string): string | nul
 }
 
 const freshChecklistWaitMs = 3_000;
+/** A copy Lintel sent this recently counts as fresh (one asked for as the app started, say). */
+const justSentMs = 10_000;
+
+/** Resolves with undefined when Lintel takes longer than the phone should wait. */
+const withinWait = <T,>(answer: Promise<T>): Promise<T | undefined> =>
+  Promise.race([
+    answer,
+    new Promise<undefined>((resolve) => setTimeout(() => resolve(undefined), freshChecklistWaitMs)),
+  ]).catch(() => undefined);
 
 /** The published checklists: fresh when Lintel answers quickly, else as the phone keeps them. */
 async function checklistsNow(queryClient: QueryClient): Promise<ChecklistsResponse | undefined> {
   const kept = () => queryClient.getQueryData(checklistsQueryOptions().queryKey);
   if (!onlineManager.isOnline()) return kept();
-  const fresh = queryClient.fetchQuery({ ...checklistsQueryOptions(), staleTime: 0, retry: false });
-  const late = new Promise<undefined>((resolve) =>
-    setTimeout(() => resolve(undefined), freshChecklistWaitMs),
+  const fresh = queryClient.fetchQuery({
+    ...checklistsQueryOptions(),
+    staleTime: justSentMs,
+    retry: false,
+  });
+  return (await withinWait(fresh)) ?? kept();
+}
+
+/**
+ * The space with its floor: as the phone keeps it, or else (a QR code opened before any list)
+ * from Lintel when it answers quickly, so the audit starts from it rather than waiting on Lintel
+ * to start the audit itself.
+ */
+async function spaceNow(queryClient: QueryClient, spaceId: string) {
+  const kept = cachedSpace(queryClient, spaceId);
+  if (kept || !onlineManager.isOnline()) return kept;
+  await withinWait(
+    queryClient.fetchQuery({ ...floorOfSpaceQueryOptions(queryClient, spaceId), retry: false }),
   );
-  return (await Promise.race([fresh, late]).catch(() => undefined)) ?? kept();
+  return cachedSpace(queryClient, spaceId);
 }
 
 /**
@@ -53,10 +81,19 @@ async function preparedAudit(
   now: Date,
 ): Promise<AuditDetail | null> {
   await restoreKept(queryClient);
-  const me = queryClient.getQueryData(meQueryOptions().queryKey);
-  const found = cachedSpace(queryClient, spaceId);
-  if (!me || !found) return null;
-  const checklist = (await checklistsNow(queryClient))?.checklists.find(
+  // Asked as the app started; on a cold phone its answer may still be on the way.
+  const me =
+    queryClient.getQueryData(meQueryOptions().queryKey) ??
+    (onlineManager.isOnline()
+      ? await withinWait(queryClient.ensureQueryData(meQueryOptions()))
+      : undefined);
+  if (!me) return null;
+  const [found, checklists] = await Promise.all([
+    spaceNow(queryClient, spaceId),
+    checklistsNow(queryClient),
+  ]);
+  if (!found) return null;
+  const checklist = checklists?.checklists.find(
     (entry) => entry.zoneType === found.space.zoneType,
   )?.published;
   if (!checklist) return null;

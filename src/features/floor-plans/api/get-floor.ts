@@ -22,6 +22,24 @@ export function floorQueryOptions(floorId: string) {
   });
 }
 
+/**
+ * The floor a space is on, asked by the space's id: a QR code names only the space. The answer is
+ * kept under the floor's own key, where the floor's screen and `cachedSpace` find it.
+ */
+export function floorOfSpaceQueryOptions(queryClient: QueryClient, spaceId: string) {
+  return queryOptions({
+    queryKey: queryKeys.floors.ofSpace(spaceId),
+    queryFn: async ({ signal }) => {
+      const detail = await apiRequest(`/api/spaces/${encodeURIComponent(spaceId)}/floor`, {
+        schema: floorDetailResponseSchema,
+        signal,
+      });
+      queryClient.setQueryData(floorQueryOptions(detail.floor.id).queryKey, detail);
+      return detail.floor.id;
+    },
+  });
+}
+
 export function useFloor(floorId: string) {
   return useQuery(floorQueryOptions(floorId));
 }
