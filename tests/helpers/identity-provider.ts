@@ -105,10 +105,7 @@ class Browser {
   async fetch(url: string, init: RequestInit = {}): Promise<Response> {
     const headers = new Headers(init.headers);
     if (this.jar.size > 0)
-      headers.set(
-        "Cookie",
-        [...this.jar].map(([name, value]) => `${name}=${value}`).join("; "),
-      );
+      headers.set("Cookie", [...this.jar].map(([name, value]) => `${name}=${value}`).join("; "));
     const res = await fetch(url, { ...init, headers, redirect: "manual" });
     for (const line of res.headers.getSetCookie()) {
       const [pair] = line.split(";");
@@ -190,6 +187,8 @@ export function finishAtLintel(trip: { callback: string; attemptCookie: string }
 /** The session cookie from a successful callback (or null). */
 export function sessionCookieOf(res: { headers: Record<string, unknown> }): string | null {
   const lines = ([] as string[]).concat((res.headers["set-cookie"] as string[] | undefined) ?? []);
-  const line = lines.find((l) => l.startsWith("lintel_session=") && !l.startsWith("lintel_session=;"));
+  const line = lines.find(
+    (l) => l.startsWith("lintel_session=") && !l.startsWith("lintel_session=;"),
+  );
   return line ? line.split(";")[0]! : null;
 }

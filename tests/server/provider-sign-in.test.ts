@@ -36,12 +36,17 @@ describe("sign-in through the network's identity provider", () => {
     expect(me.body.user.id).toBe(world.user.id);
 
     const { db } = testApp().deps;
-    const links = await db.select().from(identityLinks).where(eq(identityLinks.userId, world.user.id));
+    const links = await db
+      .select()
+      .from(identityLinks)
+      .where(eq(identityLinks.userId, world.user.id));
     expect(links.map((l) => l.subject)).toEqual([world.sub]);
     const log = await db
       .select()
       .from(changeLog)
-      .where(and(eq(changeLog.entityId, world.user.id), eq(changeLog.action, "user.signed_in_provider")));
+      .where(
+        and(eq(changeLog.entityId, world.user.id), eq(changeLog.action, "user.signed_in_provider")),
+      );
     expect(log).toHaveLength(1);
     expect(log[0]!.reason).toBe("signed in through Test Health");
     const rows = await db.select().from(sessions).where(eq(sessions.userId, world.user.id));
