@@ -401,6 +401,35 @@ describe("two networks", () => {
     }
   });
 
+  it("when the first network has an account at the second network's domain, then the second network's provider still cannot sign into it", async () => {
+    const second = await startTestProvider();
+    try {
+      const networkB = await insertNetwork(db());
+      const domainB = uniqueDomain();
+      await configureProvider(networkB.id, second, { domains: [domainB] });
+      // Network A (no provider of its own needed) has a person whose address is at B's domain.
+      const networkA = await insertNetwork(db());
+      const contractor = await insertUser(db(), networkA.id, {
+        email: `contractor@${domainB}`,
+        password: "a-long-test-password-1",
+      });
+      second.addPerson({
+        sub: "contractor",
+        email: contractor.email,
+        name: "Contractor",
+        emailVerified: true,
+      });
+      expectProblem(
+        await finishAtLintel(await signInAtProvider(contractor.email, "contractor")),
+        "unknown",
+      );
+      expect(await sessionsOf(contractor.id)).toEqual([]);
+      expect(await linksOf(contractor.id)).toEqual([]);
+    } finally {
+      await second.stop();
+    }
+  });
+
   it("when the second network keeps a placeholder for the first network's address, then its provider signs in neither", async () => {
     const first = await providerWorld(provider);
     const network = await insertNetwork(db());
