@@ -6,6 +6,7 @@ import type { DatabaseHandle } from "./db/client";
 import type { Env } from "./env";
 import type { AppDeps } from "./lib/routes";
 import type { Storage } from "./lib/storage";
+import { createProviderClient } from "./modules/identity/identity.oidc";
 import { siteIdIfExists } from "./modules/sites/sites.service";
 
 /** Wires the app's collaborators from configuration and a database handle. */
@@ -24,7 +25,9 @@ export function buildDeps(
     sessions: createSessionStore(database.db, {
       days: env.LINTEL_SESSION_DAYS,
       secure: env.publicUrl.protocol === "https:",
+      providerHours: env.LINTEL_OIDC_SESSION_HOURS,
     }),
+    identityProviders: createProviderClient({ allowLoopback: env.NODE_ENV !== "production" }),
     signInLimiter: createSignInLimiter(database.pool, {
       perAccount: env.LINTEL_LOGIN_LIMIT_ACCOUNT,
       perAddress: env.LINTEL_LOGIN_LIMIT_ADDRESS,

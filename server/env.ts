@@ -52,6 +52,18 @@ const envSchema = z.object({
   S3_SECRET_ACCESS_KEY: z.string().default("S3RVER"),
   /** Path-style addressing (bucket in the path), which most S3-compatible stores need. */
   S3_FORCE_PATH_STYLE: z.enum(["true", "false"]).default("true"),
+  /**
+   * Key that seals identity-provider client secrets at rest (AES-256-GCM): 32 random bytes in
+   * base64 (`openssl rand -base64 32`). Required in production; elsewhere a fixed development key.
+   */
+  LINTEL_SECRET_KEY: z
+    .string()
+    .refine((value) => Buffer.from(value, "base64").length === 32, {
+      message: "LINTEL_SECRET_KEY must be 32 random bytes in base64 (openssl rand -base64 32)",
+    })
+    .optional(),
+  /** Longest a session begun through an identity provider lasts; it is never extended. */
+  LINTEL_OIDC_SESSION_HOURS: positiveInt(12),
   /** Folder holding the built client; empty means API only. */
   LINTEL_CLIENT_DIR: z.string().optional(),
 });
@@ -60,7 +72,10 @@ const envSchema = z.object({
 // that runs on Node 20, so the warning is noise here.
 process.env.AWS_SDK_JS_NODE_VERSION_SUPPORT_WARNING_DISABLED ??= "true";
 
-export type Env = z.infer<typeof envSchema> & { publicUrl: URL };
+export type Env = z.infer<typeof envSchema> & { publicUrl: URL; secretKey: Buffer };
+
+/** Used only outside production when LINTEL_SECRET_KEY is not set (demo and tests). */
+const developmentSecretKey = Buffer.alloc(32, "lintel-development-key-not-secret");
 
 /** Every variable the settings parser reads (the README's configuration table names each). */
 export const settingNames = Object.keys(envSchema.shape);
@@ -74,5 +89,13 @@ export function parseEnv(source: NodeJS.ProcessEnv = process.env): Env {
   const env = result.data;
   const fallbackHost = env.HOST === "0.0.0.0" || env.HOST === "::" ? "127.0.0.1" : env.HOST;
   const publicUrl = new URL(env.LINTEL_PUBLIC_URL ?? `http://${fallbackHost}:${env.PORT}`);
-  return { ...env, publicUrl };
+  if (!env.LINTEL_SECRET_KEY && env.NODE_ENV === "production") {
+    throw new Error(
+      "Lintel cannot start: invalid configuration\n  LINTEL_SECRET_KEY: required in production (openssl rand -base64 32)",
+    );
+  }
+  const secretKey = env.LINTEL_SECRET_KEY
+    ? Buffer.from(env.LINTEL_SECRET_KEY, "base64")
+    : developmentSecretKey;
+  return { ...env, publicUrl, secretKey };
 }

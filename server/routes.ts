@@ -5,6 +5,7 @@ import { auditRoutes } from "./modules/audits/audits.router";
 import { committeeRoutes } from "./modules/committee/committee.router";
 import { checklistRoutes } from "./modules/checklists/checklists.router";
 import { floorRoutes } from "./modules/floors/floors.router";
+import { identityRoutes } from "./modules/identity/identity.router";
 import { imageRoutes } from "./modules/images/images.router";
 import { devMailboxRoutes } from "./modules/dev-mailbox/dev-mailbox.router";
 import { healthRoutes } from "./modules/health/health.router";
@@ -18,6 +19,7 @@ export const apiRoutes = [
   ...healthRoutes,
   ...devMailboxRoutes,
   ...authRoutes,
+  ...identityRoutes,
   ...accountRoutes,
   ...siteRoutes,
   ...peopleRoutes,

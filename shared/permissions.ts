@@ -23,6 +23,8 @@ export const permissions = [
   "verify:action:site",
   /** Who owns an action: administrators, and facilities leads handing over to a colleague. */
   "assign:action:site",
+  /** The network's identity provider (single sign-on) settings. */
+  "manage:identity-provider:network",
 ] as const;
 export type Permission = (typeof permissions)[number];
 
@@ -38,6 +40,7 @@ export const rolePermissions: Record<Role, readonly Permission[]> = {
     "upload:image:site",
     "manage:checklists:network",
     "assign:action:site",
+    "manage:identity-provider:network",
   ],
   auditor: ["read:site:site", "upload:image:site", "conduct:audit:site", "verify:action:site"],
   facilities_lead: [

@@ -1,7 +1,7 @@
 import { randomUUID } from "node:crypto";
 
 import { DrizzlePostgreSQLAdapter } from "@lucia-auth/adapter-drizzle";
-import { eq, sql } from "drizzle-orm";
+import { and, eq, isNull, sql } from "drizzle-orm";
 import { Lucia, TimeSpan, type Adapter, type DatabaseSession, type DatabaseUser } from "lucia";
 
 import type { RoleGrant } from "@shared/roles";
@@ -28,8 +28,12 @@ interface UserAttributes {
  * counts on the very next request. Writes (new session, extension, sign-out) go through the
  * library's own Drizzle adapter.
  */
-function sessionAdapter(db: Database): Adapter {
+function sessionAdapter(db: Database, options: { providerHours?: number }): Adapter {
+  const providerHours = options.providerHours ?? 12;
   const writes = new DrizzlePostgreSQLAdapter(db, sessions, users);
+  // Sessions begun through an identity provider are never extended: the library asks to extend
+  // any session past half its life, and the read just before says which ones not to.
+  const notExtended = new Set<string>();
   const grants = sql<RoleGrant[]>`coalesce((
       select json_agg(json_build_object('role', ${roleGrants.role}, 'siteId', ${roleGrants.siteId})
                       order by ${roleGrants.role}, ${roleGrants.siteId})
@@ -43,6 +47,7 @@ function sessionAdapter(db: Database): Adapter {
       displayName: users.displayName,
       networkId: users.networkId,
       deactivatedAt: users.deactivatedAt,
+      providerId: sessions.providerId,
       grants,
     })
     .from(sessions)
@@ -54,8 +59,14 @@ function sessionAdapter(db: Database): Adapter {
     async getSessionAndUser(sessionId): Promise<[DatabaseSession | null, DatabaseUser | null]> {
       const [row] = await sessionWithPerson.execute({ sessionId });
       if (!row) return [null, null];
+      if (row.providerId !== null) notExtended.add(row.sessionId);
       return [
-        { id: row.sessionId, userId: row.userId, expiresAt: row.expiresAt, attributes: {} },
+        {
+          id: row.sessionId,
+          userId: row.userId,
+          expiresAt: row.expiresAt,
+          attributes: { providerId: row.providerId },
+        },
         {
           id: row.userId,
           attributes: {
@@ -69,22 +80,41 @@ function sessionAdapter(db: Database): Adapter {
       ];
     },
     getUserSessions: (userId) => writes.getUserSessions(userId),
-    setSession: (session) => writes.setSession(session),
-    updateSessionExpiration: (sessionId, expiresAt) =>
-      writes.updateSessionExpiration(sessionId, expiresAt),
-    deleteSession: (sessionId) => writes.deleteSession(sessionId),
+    async setSession(session) {
+      const providerId = (session.attributes as { providerId?: string | null }).providerId ?? null;
+      const cap = new Date(Date.now() + providerHours * 60 * 60 * 1000);
+      await db.insert(sessions).values({
+        id: session.id,
+        userId: session.userId,
+        providerId,
+        expiresAt: providerId !== null && cap < session.expiresAt ? cap : session.expiresAt,
+      });
+    },
+    async updateSessionExpiration(sessionId, expiresAt) {
+      if (notExtended.delete(sessionId)) return;
+      // A provider's session read by a concurrent request: the guard keeps it unextended.
+      await db
+        .update(sessions)
+        .set({ expiresAt })
+        .where(and(eq(sessions.id, sessionId), isNull(sessions.providerId)));
+    },
+    deleteSession: (sessionId) => {
+      notExtended.delete(sessionId);
+      return writes.deleteSession(sessionId);
+    },
     deleteUserSessions: (userId) => writes.deleteUserSessions(userId),
     deleteExpiredSessions: () => writes.deleteExpiredSessions(),
   };
 }
 
-function createLucia(db: Database, options: { days: number; secure: boolean }) {
-  return new Lucia(sessionAdapter(db), {
+function createLucia(db: Database, options: SessionOptions) {
+  return new Lucia(sessionAdapter(db, options), {
     sessionExpiresIn: new TimeSpan(options.days, "d"),
     sessionCookie: {
       name: "lintel_session",
       attributes: { secure: options.secure, sameSite: "lax", path: "/" },
     },
+    getSessionAttributes: (row) => ({ providerId: row.providerId }),
     getUserAttributes: (row) => ({
       email: row.email,
       name: row.displayName,
@@ -99,6 +129,7 @@ declare module "lucia" {
   interface Register {
     Lucia: ReturnType<typeof createLucia>;
     DatabaseUserAttributes: UserAttributes;
+    DatabaseSessionAttributes: { providerId: string | null };
   }
 }
 
@@ -120,15 +151,32 @@ export interface SessionCheck {
 
 export type SessionStore = ReturnType<typeof createSessionStore>;
 
-export function createSessionStore(db: Database, options: { days: number; secure: boolean }) {
+interface SessionOptions {
+  days: number;
+  secure: boolean;
+  /** Longest a session begun through an identity provider lasts (never extended); 12 unless given. */
+  providerHours?: number;
+}
+
+export function createSessionStore(db: Database, options: SessionOptions) {
   const lucia = createLucia(db, options);
 
   return {
     cookieName: lucia.sessionCookieName,
 
-    /** Starts a session and returns the Set-Cookie value. */
-    async create(userId: string): Promise<{ sessionId: string; setCookie: string }> {
-      const session = await lucia.createSession(userId, {}, { sessionId: randomUUID() });
+    /**
+     * Starts a session and returns the Set-Cookie value. Begun through an identity provider, it
+     * lasts at most the provider hours and is never extended.
+     */
+    async create(
+      userId: string,
+      options: { providerId?: string } = {},
+    ): Promise<{ sessionId: string; setCookie: string }> {
+      const session = await lucia.createSession(
+        userId,
+        { providerId: options.providerId ?? null },
+        { sessionId: randomUUID() },
+      );
       return {
         sessionId: session.id,
         setCookie: lucia.createSessionCookie(session.id).serialize(),
@@ -157,7 +205,10 @@ export function createSessionStore(db: Database, options: { days: number; secure
         user: { id: user.id, email: user.email, name: user.name, networkId: user.networkId },
         sessionId: session.id,
         grants: user.grants,
-        setCookie: session.fresh ? lucia.createSessionCookie(session.id).serialize() : null,
+        setCookie:
+          session.fresh && session.providerId === null
+            ? lucia.createSessionCookie(session.id).serialize()
+            : null,
       };
     },
 

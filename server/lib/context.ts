@@ -7,6 +7,7 @@ import type { SessionStore, SessionUser } from "../auth/sessions";
 import type { Database } from "../db/client";
 import type { Env } from "../env";
 import type { Actor } from "./change-log";
+import type { ProviderClient } from "../modules/identity/identity.oidc";
 import type { Storage } from "./storage";
 
 // What services are given: the app's dependencies, who is asking and who acts. No HTTP types
@@ -20,6 +21,8 @@ export interface AppDeps {
   signInLimiter: SignInLimiter;
   resetLimiter: ResetLimiter;
   storage: Storage;
+  /** Talks to the networks' identity providers (OpenID Connect); public addresses only. */
+  identityProviders: ProviderClient;
   /** Whether the site exists and belongs to the network (every site-scoped route asks this). */
   siteInNetwork: (siteId: string, networkId: string) => Promise<boolean>;
   /** Tells the e-mail worker that new mail is waiting (after the transaction commits). */

@@ -170,6 +170,7 @@ describe("when PostgreSQL goes away", () => {
       env: {
         PATH: process.env.PATH,
         NODE_ENV: "production",
+        LINTEL_SECRET_KEY: Buffer.alloc(32, 7).toString("base64"),
         DATABASE_URL: url,
         HOST: "127.0.0.1",
         PORT: String(port),

@@ -14,3 +14,4 @@ export * from "./checklists";
 export * from "./actions";
 export * from "./committee";
 export * from "./observations";
+export * from "./identity-providers";

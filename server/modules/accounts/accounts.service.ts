@@ -11,6 +11,7 @@ import { recordChange, type Actor } from "../../lib/change-log";
 import type { AppDeps, SignedIn } from "../../lib/context";
 import { enqueueMail } from "../../outbox/outbox.repository";
 import { loadGrants } from "../auth/auth.service";
+import { assertPasswordAllowed } from "../identity/identity.service";
 import { passwordResetMail } from "./accounts.emails";
 import * as repo from "./accounts.repository";
 
@@ -91,6 +92,7 @@ async function setPasswordThroughLink(
 ): Promise<{ me: MeResponse; setCookie: string }> {
   const what = purpose === "invitation" ? "invitation" : "reset";
   const preview = assertUsable(await repo.findToken(deps.db, hashToken(token), purpose), what);
+  await assertPasswordAllowed(deps, preview.email, "password");
   assertAcceptablePassword(password, { email: preview.email, name: preview.name }, "password");
   const passwordHash = await hashPassword(password);
 
@@ -145,6 +147,7 @@ export async function requestPasswordReset(
   clientAddress: string,
   requestId: string,
 ): Promise<void> {
+  await assertPasswordAllowed(deps, email, "email");
   if (!(await deps.resetLimiter.allow(email, clientAddress))) return;
   const queued = await deps.db.transaction(async (tx) => {
     const person = await repo.findActiveUserByEmail(tx, email);

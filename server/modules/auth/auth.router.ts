@@ -1,6 +1,7 @@
 import { signInBodySchema } from "@shared/schemas/auth";
 
 import { defineRoute } from "../../lib/routes";
+import { signOut } from "../identity/identity.service";
 import { signIn } from "./auth.service";
 
 export const authRoutes = [
@@ -18,11 +19,13 @@ export const authRoutes = [
   defineRoute({
     method: "post",
     path: "/auth/sign-out",
-    summary: "End the current session",
+    summary: "End the current session (and say where to end the provider's, if begun there)",
     access: { kind: "signed-in" },
     async handle({ res, deps, auth }) {
-      const blank = await deps.sessions.end(auth.sessionId);
-      res.append("Set-Cookie", blank).status(204).end();
+      const ended = await signOut(deps, auth);
+      res.append("Set-Cookie", ended.setCookie);
+      if (!ended.providerSession) res.status(204).end();
+      else res.status(200).json({ providerSignOutUrl: ended.providerSignOutUrl });
     },
   }),
   defineRoute({

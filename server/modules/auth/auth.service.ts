@@ -3,6 +3,7 @@ import type { MeResponse, SignInBody } from "@shared/schemas/auth";
 import { verifyPassword } from "../../auth/password";
 import { AppError } from "../../lib/app-error";
 import type { AppDeps } from "../../lib/context";
+import { assertPasswordAllowed } from "../identity/identity.service";
 import { findUserForSignIn, listGrants } from "./auth.repository";
 
 const invalidCredentials = () =>
@@ -18,6 +19,7 @@ export async function signIn(
   input: SignInBody,
   clientAddress: string,
 ): Promise<{ me: MeResponse; setCookie: string }> {
+  await assertPasswordAllowed(deps, input.email, "email");
   await deps.signInLimiter.assertAllowed(input.email, clientAddress);
 
   const candidate = await findUserForSignIn(deps.db, input.email);

@@ -6,6 +6,7 @@ import type { Person } from "@shared/schemas/people";
 import type { DbOrTx } from "../../db/client";
 import {
   accountWithAddress,
+  identityLinks,
   networks,
   roleGrants,
   sites,
@@ -26,7 +27,8 @@ const personColumns = {
   id: users.id,
   email: users.email,
   name: users.displayName,
-  hasPassword: sql<boolean>`${users.passwordHash} is not null`,
+  // Joined: a password set, or a first sign-in through the network's identity provider.
+  hasPassword: sql<boolean>`(${users.passwordHash} is not null or exists (select 1 from ${identityLinks} where ${identityLinks.userId} = ${users.id}))`,
   deactivatedAt: users.deactivatedAt,
   createdAt: users.createdAt,
 };
