@@ -32,11 +32,8 @@ export interface AdminEntry {
   alsoActiveOn?: readonly string[];
 }
 
-/**
- * The network's identity provider is the network-wide administrator's: a network-scoped permission
- * that only their role holds.
- */
-export const signInSettingsPermission: Permission = "create:site:network";
+/** The network's identity provider is the network-wide administrator's to set. */
+export const signInSettingsPermission: Permission = "manage:identity-provider:network";
 
 /** The administrator's rarer pages: one "Admin" entry in the phone's bar, listed in the rail. */
 export const adminEntries: readonly AdminEntry[] = [

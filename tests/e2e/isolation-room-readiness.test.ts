@@ -3,7 +3,7 @@ import { mkdirSync } from "node:fs";
 import type { Browser } from "playwright-core";
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
 
-import { baseUrl, launchBrowser, phonePage, signIn } from "../helpers/browser";
+import { launchBrowser, phonePage, signIn } from "../helpers/browser";
 
 const shots = process.env.LINTEL_SHOTS_DIR;
 
