@@ -1,13 +1,20 @@
-import {
-  type SignInMethodBody,
-  type SignInMethodResponse,
-  signInMethodResponseSchema,
-} from "@shared/schemas/identity-provider";
+import type { SignInMethodBody, SignInMethodResponse } from "@shared/schemas/identity-provider";
 import { mutationOptions, useMutation } from "@tanstack/react-query";
+import { z } from "zod";
 
 import { apiRequest } from "@/lib/api-client";
 
 import { endPendingSignOut } from "./get-me";
+
+/**
+ * The contract's reply, read with the validation the sign-in page already loads: the contract's
+ * own module would be one more file on the page every phone opens first. The type ties it to the
+ * contract (`signInMethodResponseSchema`).
+ */
+const methodReplySchema = z.object({
+  password: z.boolean(),
+  provider: z.object({ name: z.string(), startUrl: z.string() }).nullable(),
+}) satisfies z.ZodType<SignInMethodResponse>;
 
 /**
  * How this address signs in: through its network's provider, with a password, or both. Decided by
@@ -19,7 +26,7 @@ export async function getSignInMethod(body: SignInMethodBody): Promise<SignInMet
   return apiRequest("/api/auth/sign-in/method", {
     method: "POST",
     body,
-    schema: signInMethodResponseSchema,
+    schema: methodReplySchema,
   });
 }
 

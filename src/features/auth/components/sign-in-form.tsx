@@ -1,9 +1,6 @@
 import { zodResolver } from "@hookform/resolvers/zod";
 import { type MeResponse, signInBodySchema } from "@shared/schemas/auth";
-import {
-  type SignInMethodResponse,
-  signInMethodBodySchema,
-} from "@shared/schemas/identity-provider";
+import type { SignInMethodResponse } from "@shared/schemas/identity-provider";
 import { useEffect, useRef, useState } from "react";
 import { type Resolver, useForm } from "react-hook-form";
 
@@ -28,7 +25,8 @@ interface SignInValues {
 
 const fieldNames = ["email", "password"] as const;
 
-const checkAddress = zodResolver(signInMethodBodySchema);
+// The method's body is the address alone, checked as the contract's `signInMethodBodySchema` does.
+const checkAddress = zodResolver(signInBodySchema.pick({ email: true }));
 const checkPassword = zodResolver(signInBodySchema);
 
 /** Before the method is known, the address alone is checked. */
