@@ -1,10 +1,11 @@
 import path from "node:path";
 
-import { demoPassword, demoPeople, demoSites } from "../server/demo/people";
+import { demoNetworkName, demoPassword, demoPeople, demoSites } from "../server/demo/people";
 import { roleLabels } from "../shared/roles";
 import { parseEnv } from "../server/env";
 import { startServer, type RunningServer } from "../server/server";
 import { buildClient, projectRoot } from "./lib/client-build";
+import { startDemoIdentityProvider } from "./lib/identity-provider";
 import { startMailCatcher, type MailCatcher } from "./lib/mail-catcher";
 import { startS3Fake, type S3Fake } from "./lib/s3-fake";
 import { chooseClusterFolder, prepareCluster, type Cluster } from "./lib/postgres";
@@ -85,11 +86,23 @@ async function main() {
 
     const clientDir = path.join(projectRoot, "dist", "client");
     console.log("Building the app…");
+    // The client build sets NODE_ENV=production in this process; the server keeps what was given.
+    const nodeEnv = process.env.NODE_ENV;
     await buildClient(clientDir);
+    if (nodeEnv === undefined) delete process.env.NODE_ENV;
+    else process.env.NODE_ENV = nodeEnv;
     process.env.LINTEL_CLIENT_DIR ??= clientDir;
 
     const env = parseEnv();
-    server = await startServer(env, { mailCatcherDir });
+    server = await startServer(env, {
+      mailCatcherDir,
+      // A local identity provider for the demo network (never in production; see server.ts).
+      demoIdentityProvider: (publicUrl) =>
+        startDemoIdentityProvider({
+          publicUrl,
+          port: Number(process.env.LINTEL_OIDC_DEMO_PORT ?? 54331),
+        }),
+    });
     console.log(`\nLintel is ready: ${server.url}`);
     if (env.HOST === "0.0.0.0") console.log("Listening on every network interface (HOST=0.0.0.0).");
     if (env.LINTEL_DEMO === "1") {
@@ -101,6 +114,11 @@ async function main() {
         );
         console.log(`  ${person.email.padEnd(32)} ${role}: ${where.join(", ")}`);
       }
+    }
+    if (server.demoIssuer) {
+      console.log(
+        `\nDemo identity provider (not a real one) on ${server.demoIssuer}: enter a demo address on the sign-in page and choose "Sign in with ${demoNetworkName}".`,
+      );
     }
     console.log("\nPress Ctrl-C to stop.");
   } catch (error) {

@@ -3,7 +3,8 @@ import { createServer } from "node:http";
 
 import { createApp } from "./app";
 import { connectDatabase, migrateDatabase } from "./db/client";
-import { runDemoSteps } from "./demo/run-demo-steps";
+import { followDemoIssuer, realIssuerConfigured } from "./demo/identity-provider";
+import { runDemoSteps, type DemoIdentityProvider } from "./demo/run-demo-steps";
 import { demoStepList } from "./demo/steps";
 import { buildDeps } from "./deps";
 import type { Env } from "./env";
@@ -18,12 +19,21 @@ import { createOutboxWorker } from "./outbox/outbox-worker";
 
 export interface RunningServer {
   url: string;
+  /** The local demo identity provider's issuer, when one runs. */
+  demoIssuer: string | null;
   close: () => Promise<void>;
 }
 
 export interface StartOptions {
   /** Given only by a process that runs the local mail catcher: its inbox becomes the demo mailbox. */
   mailCatcherDir?: string;
+  /**
+   * Starts the local demo identity provider (`npm start`, the browser tests). Called only with
+   * demo data, outside production, and when no network points at a real issuer.
+   */
+  demoIdentityProvider?: (
+    publicUrl: URL,
+  ) => Promise<DemoIdentityProvider & { stop: () => Promise<void> }>;
 }
 
 /** Migrates, loads demo data when asked, and listens. `close` stops accepting and drains. */
@@ -47,8 +57,27 @@ export async function startServer(env: Env, options: StartOptions = {}): Promise
   await purge();
   const reconcileTimer = setInterval(() => void reconcile().then(purge), 10 * 60 * 1000);
   reconcileTimer.unref();
+  let localProvider: (DemoIdentityProvider & { stop: () => Promise<void> }) | null = null;
+  if (
+    options.demoIdentityProvider &&
+    env.LINTEL_DEMO === "1" &&
+    env.NODE_ENV !== "production" &&
+    !(await realIssuerConfigured(database.db))
+  ) {
+    try {
+      localProvider = await options.demoIdentityProvider(env.publicUrl);
+      await followDemoIssuer(database.db, localProvider);
+      logger.info({ issuer: localProvider.issuer }, "demo identity provider is listening");
+    } catch (err) {
+      logger.warn({ err }, "the demo identity provider could not start; password sign-in only");
+    }
+  }
   if (env.LINTEL_DEMO === "1")
-    await runDemoSteps(database.db, logger, demoStepList, { storage, env });
+    await runDemoSteps(database.db, logger, demoStepList, {
+      storage,
+      env,
+      identityProvider: localProvider,
+    });
   await prepareMonthStats(database.db);
 
   const mailer = createMailer(env);
@@ -95,6 +124,7 @@ export async function startServer(env: Env, options: StartOptions = {}): Promise
 
   return {
     url,
+    demoIssuer: localProvider?.issuer ?? null,
     async close() {
       await new Promise<void>((resolve) => {
         server.close(() => resolve());
@@ -105,6 +135,7 @@ export async function startServer(env: Env, options: StartOptions = {}): Promise
       await worker?.stop();
       mailer.close();
       storage.close();
+      await localProvider?.stop();
       await database.close();
     },
   };

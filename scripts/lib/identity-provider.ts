@@ -2,6 +2,7 @@ import { generateKeyPairSync, randomBytes, randomUUID } from "node:crypto";
 import { createServer, type IncomingMessage, type ServerResponse } from "node:http";
 import type { AddressInfo } from "node:net";
 
+import { demoNetworkName, demoPeople } from "../../server/demo/people";
 import Provider, { type Adapter, type AdapterPayload, type Configuration } from "oidc-provider";
 
 /**
@@ -373,4 +374,33 @@ export async function startLocalIdentityProvider(
     },
     start,
   };
+}
+
+/** The demo network's provider: every demo person, one client for the Lintel at `publicUrl`. */
+export async function startDemoIdentityProvider(options: {
+  publicUrl: URL;
+  port?: number;
+}): Promise<LocalIdentityProvider & { clientId: string; clientSecret: string }> {
+  // Loopback only, and known to anyone reading this file: it protects nothing but the demo.
+  const clientId = "lintel-demo";
+  const clientSecret = "lintel-demo-client-secret";
+  const provider = await startLocalIdentityProvider({
+    title: `${demoNetworkName} (demo identity provider)`,
+    people: demoPeople.map((person) => ({
+      sub: `demo-${person.email.split("@")[0]!.replace(/[^a-z0-9]+/g, "-")}`,
+      email: person.email,
+      name: person.name,
+      emailVerified: true,
+    })),
+    clients: [
+      {
+        clientId,
+        clientSecret,
+        redirectUris: [new URL("/api/auth/provider/callback", options.publicUrl).toString()],
+        postLogoutRedirectUris: [new URL("/sign-in", options.publicUrl).toString()],
+      },
+    ],
+    port: options.port,
+  });
+  return Object.assign(provider, { clientId, clientSecret });
 }

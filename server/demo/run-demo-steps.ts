@@ -10,6 +10,14 @@ export interface DemoContext {
   storage: Storage;
   /** For the links in any notice a demo finding queues, as the app's own would carry. */
   env: Env;
+  /** The local demo identity provider, when this process started one. */
+  identityProvider?: DemoIdentityProvider | null;
+}
+
+export interface DemoIdentityProvider {
+  issuer: string;
+  clientId: string;
+  clientSecret: string;
 }
 
 export interface DemoStep {

@@ -10,6 +10,7 @@ import { ensureDefaultSequences } from "../modules/observations/sequences.servic
 import { createDemoAuditHistory } from "./audit-history";
 import { createDemoCorrectiveActions } from "./corrective-actions";
 import { createDemoObservationHistory } from "./observation-history";
+import { createDemoIdentityProvider } from "./identity-provider";
 import { createDemoFloor, type DemoFloorPlan } from "./floor-plans";
 import { demoNetworkName, demoPassword, demoPeople, demoSites, type DemoSiteKey } from "./people";
 import type { Tx } from "../db/client";
@@ -230,6 +231,17 @@ const observationHistory: DemoStep = {
   },
 };
 
+const demoIdentityProvider: DemoStep = {
+  id: "2026-12-03-demo-identity-provider",
+  description: "Tamsin Bay Health's own (local, demo) identity provider for example.org",
+  async run(tx, context) {
+    const demo = await findDemoSites(tx);
+    const local = context.identityProvider;
+    if (!demo || !local) return;
+    await createDemoIdentityProvider(tx, context.env, demo.networkId, local);
+  },
+};
+
 /** In release order; append new steps, never reorder or rename released ones. */
 export const demoStepList: DemoStep[] = [
   networkSitesPeople,
@@ -239,4 +251,5 @@ export const demoStepList: DemoStep[] = [
   checklistDefaultsV2,
   sequenceDefaults,
   observationHistory,
+  demoIdentityProvider,
 ];

@@ -3,6 +3,7 @@ import os from "node:os";
 import path from "node:path";
 
 import { ensureChromium } from "../../scripts/lib/chromium";
+import { startDemoIdentityProvider } from "../../scripts/lib/identity-provider";
 import { startMailCatcher } from "../../scripts/lib/mail-catcher";
 import { startS3Fake } from "../../scripts/lib/s3-fake";
 import { buildClient } from "../../scripts/lib/client-build";
@@ -41,7 +42,10 @@ export default async function setup() {
       LINTEL_ACTION_NOTICE_MS: "300",
       S3_ENDPOINT: s3.endpoint,
     }),
-    { mailCatcherDir: mailboxDir },
+    {
+      mailCatcherDir: mailboxDir,
+      demoIdentityProvider: (publicUrl) => startDemoIdentityProvider({ publicUrl }),
+    },
   );
   process.env.LINTEL_E2E_URL = server.url;
   process.env.LINTEL_E2E_CHROMIUM = chromium;
