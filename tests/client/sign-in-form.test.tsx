@@ -131,6 +131,8 @@ describe("SignInForm: the address first", () => {
 
     const link = await screen.findByRole("link", { name: "Sign in with Tamsin Bay Health" });
     expect(link.getAttribute("href")).toBe(startUrl);
+    // The organisation's sign-in takes focus: no keyboard opens over it.
+    await vi.waitFor(() => expect(document.activeElement).toBe(link));
     expect(screen.getByLabelText("Password")).toBeTruthy();
     expect(screen.getByRole("button", { name: "Sign in" })).toBeTruthy();
     expect(screen.getByRole("link", { name: "Forgot your password?" })).toBeTruthy();

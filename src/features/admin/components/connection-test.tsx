@@ -50,7 +50,7 @@ export function ConnectionTest() {
         <div role="status" className="flex flex-col gap-3">
           <p className="font-semibold">
             {test.data.ok
-              ? "The connection works: people can sign in through this provider."
+              ? "The connection works."
               : "The connection does not work yet: see the step that failed."}
           </p>
           <ol className="flex flex-col gap-2">

@@ -74,10 +74,12 @@ export function SignInForm({ next, forgotPasswordHref, onSuccess }: SignInFormPr
     defaultValues: { email: "", password: "" },
   });
 
+  // The organisation's own sign-in first; on a phone, focusing the password would also cover it
+  // with the keyboard.
   useEffect(() => {
     if (!method) return;
-    if (method.password) setFocus("password");
-    else providerLink.current?.focus();
+    if (method.provider) providerLink.current?.focus();
+    else if (method.password) setFocus("password");
   }, [method, setFocus]);
 
   const showFieldErrors = (error: unknown) => {
