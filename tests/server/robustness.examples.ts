@@ -6,6 +6,7 @@ import { auditPhotoFieldsSchema } from "@shared/schemas/audits";
 import { buildObservation, publishedSequence } from "../factories/observations";
 import { buildSite } from "../factories/records";
 import { api } from "../helpers/app";
+import { uniqueDomain } from "../helpers/identity-provider";
 import { newId, worldPassword, type CallerName, type World } from "../helpers/robustness-world";
 
 /**
@@ -28,6 +29,11 @@ export interface RouteExample {
    * valid there, so the walk does not expect an unknown id to be refused.
    */
   newIds?: string[];
+  /**
+   * A read route the browser navigates to, answering with a redirect: every request, however
+   * malformed, must get a 4xx or a 302 to `/sign-in/problem` (and no session), never a 2xx or 5xx.
+   */
+  redirectsToProblem?: boolean;
 }
 
 export interface ExampleRequest {
@@ -69,6 +75,17 @@ async function freshObservation(w: World): Promise<string> {
   return id;
 }
 
+/** Settings any network may store: nothing listens at that issuer, and the domain is fresh. */
+const providerSettings = () => ({
+  name: "Ward Health",
+  issuerUrl: "http://127.0.0.1:9",
+  clientId: "ward-client",
+  clientSecret: "ward-secret",
+  domains: [uniqueDomain()],
+  passwordAllowed: true,
+  assumeVerifiedEmail: false,
+});
+
 export const examples: Record<string, RouteExample> = {
   // Accounts and sign-in
   "POST /auth/sign-in": {
@@ -100,6 +117,36 @@ export const examples: Record<string, RouteExample> = {
         params: { token: await w.fresh.link(person.id, "password_reset") },
         body: { password: "a fresh passphrase after reset" },
       };
+    },
+  },
+  // Single sign-on: the e-mail-first question, the redirects, and the administrator's settings.
+  "POST /auth/sign-in/method": {
+    as: "nobody",
+    control: async (w) => ({ body: { email: (await w.fresh.person()).email } }),
+  },
+  "GET /auth/provider/start": {
+    as: "nobody",
+    redirectsToProblem: true,
+    control: () => ({ query: { email: "someone@example.org", next: "/committee" } }),
+  },
+  "GET /auth/provider/callback": {
+    as: "nobody",
+    redirectsToProblem: true,
+    control: () => ({ query: { state: "not-a-sign-in", code: "not-a-code" } }),
+  },
+  "PUT /admin/identity-provider": {
+    control: () => ({ body: providerSettings() }),
+  },
+  "DELETE /admin/identity-provider": { control: () => ({}) },
+  "POST /admin/identity-provider/test": {
+    async control(w) {
+      const reply = await api(w.app.app, {
+        cookie: await w.fresh.cookie("administrator (network)"),
+      })
+        .put("/api/admin/identity-provider")
+        .send(providerSettings());
+      if (reply.status !== 200) throw new Error(`provider settings: ${reply.status}`);
+      return {};
     },
   },
   "PATCH /auth/me": { control: () => ({ body: { name: "Imogen Hale" } }) },

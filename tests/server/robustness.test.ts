@@ -275,6 +275,27 @@ describe("robustness: every route against malformed input", () => {
       const problems: string[] = [];
       const baseline = await send(route, cookie, { params, query: queryText(query) });
       count(readTally, baseline.status);
+      if (example?.redirectsToProblem) {
+        // A browser navigation that answers with a redirect (the provider sign-in): whatever the
+        // query, it is refused with a 4xx or sent to the problem page, never signed in, never 5xx.
+        const judgeRedirect = (label: string, response: typeof baseline) => {
+          if (response.status >= 400 && response.status < 500) return;
+          const location = String(response.headers.location ?? "");
+          if (response.status !== 302 || !location.startsWith("/sign-in/problem?"))
+            problems.push(`${label}: ${response.status} ${location}`);
+          if (/lintel_session=[^;]/.test(String(response.headers["set-cookie"] ?? "")))
+            problems.push(`${label}: a session cookie`);
+        };
+        judgeRedirect("the plain request", baseline);
+        for (const variant of queryVariants) {
+          const response = await send(route, cookie, { params, query: queryText(variant.query) });
+          count(readTally, response.status);
+          judgeRedirect(variant.label, response);
+        }
+        readTally.routes += 1;
+        expect(problems).toEqual([]);
+        return;
+      }
       if (example ? baseline.status >= 300 : baseline.status >= 500)
         problems.push(
           `the plain request got ${baseline.status} ${JSON.stringify(baseline.body).slice(0, 200)}`,

@@ -18,6 +18,7 @@ import {
   checklistVersions,
   fixtures,
   floors,
+  identityProviders,
   outbox,
   spaces,
   users,
@@ -40,6 +41,7 @@ import {
 } from "../factories/records";
 import { api, createTestApp, testApp, type TestApp } from "../helpers/app";
 import { issueTestLink } from "../helpers/links";
+import { configureProvider, uniqueDomain } from "../helpers/identity-provider";
 import { jpegWithGps, pngPlan } from "../factories/images";
 import { sessionCookieFor, signInAs } from "../helpers/auth";
 
@@ -114,6 +116,17 @@ interface Sample {
 }
 
 const admins: Caller[] = ["administrator (network)", "administrator @A"];
+
+/** Provider settings any network may store (nothing listens at that issuer). */
+const matrixProviderBody = () => ({
+  name: "Matrix Health",
+  issuerUrl: "http://127.0.0.1:9",
+  clientId: "matrix-client",
+  clientSecret: "matrix-secret",
+  domains: [uniqueDomain()],
+  passwordAllowed: true,
+  assumeVerifiedEmail: false,
+});
 const notAtA: Caller[] = everyone.filter((caller) => !atA.includes(caller));
 
 /** A person holding a role at site A, optionally invited-only or deactivated. */
@@ -783,6 +796,60 @@ const samples: Record<string, Sample> = {
     allowed: everyone,
   },
   "GET /auth/me": { prepare: () => ({ url: "/api/auth/me" }), ok: 200, allowed: everyone },
+  "POST /auth/sign-in/method": {
+    prepare: (world) => ({ url: "/api/auth/sign-in/method", body: { email: world.signInEmail } }),
+    ok: 200,
+    allowed: everyone,
+  },
+  // Both answer the browser with a redirect: to the provider, or to the page saying why not.
+  "GET /auth/provider/start": {
+    prepare: (world) => ({
+      url: `/api/auth/provider/start?email=${encodeURIComponent(world.signInEmail)}`,
+    }),
+    ok: 302,
+    allowed: everyone,
+  },
+  "GET /auth/provider/callback": {
+    prepare: () => ({ url: "/api/auth/provider/callback?state=matrix&code=matrix" }),
+    ok: 302,
+    allowed: everyone,
+  },
+  "GET /admin/identity-provider": {
+    prepare: () => ({ url: "/api/admin/identity-provider" }),
+    ok: 200,
+    allowed: ["administrator (network)"],
+  },
+  "PUT /admin/identity-provider": {
+    prepare: () => ({ url: "/api/admin/identity-provider", body: matrixProviderBody() }),
+    ok: 200,
+    allowed: ["administrator (network)"],
+  },
+  "DELETE /admin/identity-provider": {
+    prepare: () => ({ url: "/api/admin/identity-provider" }),
+    ok: 204,
+    allowed: ["administrator (network)"],
+  },
+  "POST /admin/identity-provider/test": {
+    async prepare(world) {
+      const { db } = testApp().deps;
+      const [stored] = await db
+        .select({ id: identityProviders.id })
+        .from(identityProviders)
+        .where(eq(identityProviders.networkId, world.networkId));
+      if (!stored) {
+        // Nothing listens there: the test answers 200 with the discovery step failed.
+        await configureProvider(
+          world.networkId,
+          { issuer: "http://127.0.0.1:9", clientId: "matrix", clientSecret: "matrix-secret" },
+          { domains: [uniqueDomain()] },
+        );
+      }
+      return { url: "/api/admin/identity-provider/test" };
+    },
+    ok: 200,
+    allowed: ["administrator (network)"],
+  },
+
   "PATCH /auth/me": {
     prepare: () => ({ url: "/api/auth/me", body: { name: "Renamed In Matrix" } }),
     ok: 200,

@@ -28,7 +28,8 @@ const personColumns = {
   email: users.email,
   name: users.displayName,
   // Joined: a password set, or a first sign-in through the network's identity provider.
-  hasPassword: sql<boolean>`(${users.passwordHash} is not null or exists (select 1 from ${identityLinks} where ${identityLinks.userId} = ${users.id}))`,
+  // Qualified by hand: Drizzle leaves column names bare in a one-table select.
+  hasPassword: sql<boolean>`("users"."password_hash" is not null or exists (select 1 from ${identityLinks} where "identity_links"."user_id" = "users"."id"))`,
   deactivatedAt: users.deactivatedAt,
   createdAt: users.createdAt,
 };
