@@ -1,6 +1,15 @@
-import { signOutResponseSchema } from "@shared/schemas/identity-provider";
+import type { SignOutResponse } from "@shared/schemas/identity-provider";
+import { z } from "zod";
 
 import { fetchFromApi, readApiError } from "@/lib/api-client";
+
+/**
+ * The contract's `signOutResponseSchema`, written here: the contract's module would be one more
+ * file for the account page, which a phone also fetches ahead to work offline.
+ */
+const signOutReplySchema = z.object({
+  providerSignOutUrl: z.string().nullable(),
+}) satisfies z.ZodType<SignOutResponse>;
 
 export interface SignOutAnswer {
   /** Where to end the provider's session too (RP-initiated logout); null for a password session. */
@@ -32,6 +41,6 @@ export async function signOut(): Promise<SignOutAnswer> {
   if (response.status === 204) return { providerSignOutUrl: null };
   // Lintel's session has ended either way: an unreadable reply only loses the provider's step.
   const body: unknown = await response.json().catch(() => undefined);
-  const parsed = signOutResponseSchema.safeParse(body);
+  const parsed = signOutReplySchema.safeParse(body);
   return { providerSignOutUrl: parsed.success ? webAddress(parsed.data.providerSignOutUrl) : null };
 }
