@@ -99,7 +99,7 @@ export async function providerWorld(
 }
 
 /** Follows the provider's redirects with a cookie jar of its own, as a browser would. */
-class Browser {
+export class Browser {
   private readonly jar = new Map<string, string>();
 
   async fetch(url: string, init: RequestInit = {}): Promise<Response> {
@@ -151,13 +151,26 @@ export async function signInAtProvider(
     options.attemptCookie ??
     "";
   const browser = options.browser ?? new Browser();
+  const back = await followProvider(location, sub, testOrigin, browser);
+  return { callback: back.slice(testOrigin.length), attemptCookie, browser };
+}
+
+/**
+ * Walks the browser through the provider from its authorization URL: picks the person whose
+ * subject is `sub` on its page (or a person by e-mail, or cancels) and returns the first URL
+ * under `lintelOrigin` it is sent back to.
+ */
+export async function followProvider(
+  location: string,
+  sub: string | "cancel" | { email: string },
+  lintelOrigin: string,
+  browser: Browser = new Browser(),
+): Promise<string> {
   const origin = new URL(location).origin;
   let next = location;
   let posted = false;
   for (let hop = 0; hop < 12; hop += 1) {
-    if (next.startsWith(testOrigin)) {
-      return { callback: next.slice(testOrigin.length), attemptCookie, browser };
-    }
+    if (next.startsWith(lintelOrigin)) return next;
     const res = await browser.fetch(next);
     if (res.status >= 300 && res.status < 400) {
       next = new URL(res.headers.get("location")!, next).toString();
@@ -168,7 +181,12 @@ export async function signInAtProvider(
     if (res.status !== 200 || !action || posted)
       throw new Error(`the provider answered ${res.status} at ${next}`);
     posted = true;
-    const body = sub === "cancel" ? "cancel=1" : `sub=${encodeURIComponent(sub)}`;
+    let body = "cancel=1";
+    if (typeof sub === "object") {
+      const found = new RegExp(`value="([^"]+)">[^<]*<span>${sub.email}</span>`).exec(html);
+      if (!found) throw new Error(`${sub.email} is not on the provider's page`);
+      body = `sub=${encodeURIComponent(found[1]!)}`;
+    } else if (sub !== "cancel") body = `sub=${encodeURIComponent(sub)}`;
     const answer = await browser.fetch(new URL(action, origin).toString(), {
       method: "POST",
       headers: { "Content-Type": "application/x-www-form-urlencoded" },
