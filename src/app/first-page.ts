@@ -9,6 +9,8 @@ import { paths } from "@/config/paths";
  */
 const firstPages: [pattern: RegExp, load: () => Promise<unknown>][] = [
   [new RegExp(`^${paths.signIn.path}/?$`), () => import("./routes/sign-in")],
+  // Where the server sends a provider sign-in that ended without a session.
+  [new RegExp(`^${paths.signInProblem.path}/?$`), () => import("./routes/sign-in-problem")],
   [/^\/$/, () => import("./routes/home")],
   [
     // A QR code's link: it starts the audit and moves on to the audit screen at once.

@@ -9,6 +9,7 @@ import {
   AdminIcon,
   ChecklistIcon,
   CommitteeIcon,
+  KeyIcon,
   MailIcon,
   ObservationIcon,
   PeopleIcon,
@@ -30,6 +31,9 @@ export interface AdminEntry {
   onRail: boolean;
   alsoActiveOn?: readonly string[];
 }
+
+/** The network's identity provider is the network-wide administrator's to set. */
+export const signInSettingsPermission: Permission = "manage:identity-provider:network";
 
 /** The administrator's rarer pages: one "Admin" entry in the phone's bar, listed in the rail. */
 export const adminEntries: readonly AdminEntry[] = [
@@ -58,6 +62,15 @@ export const adminEntries: readonly AdminEntry[] = [
     icon: <ObservationIcon />,
     permission: "manage:checklists:network",
     onRail: true,
+  },
+  {
+    label: "Sign-in",
+    description:
+      "Let people sign in with your organisation's own account (identity provider), and whether passwords stay allowed.",
+    to: paths.signInSettings.getHref(),
+    icon: <KeyIcon />,
+    permission: signInSettingsPermission,
+    onRail: false,
   },
   {
     label: "Undelivered mail",

@@ -28,6 +28,13 @@ export function createRoutes(queryClient: QueryClient): RouteObject[] {
           },
         },
         {
+          path: paths.signInProblem.path,
+          lazy: async () => {
+            const { SignInProblemRoute } = await import("./routes/sign-in-problem");
+            return { Component: SignInProblemRoute };
+          },
+        },
+        {
           path: paths.welcome.path,
           lazy: async () => {
             const { WelcomeRoute, welcomeLoader } = await import("./routes/welcome");
@@ -223,6 +230,18 @@ export function createRoutes(queryClient: QueryClient): RouteObject[] {
               lazy: async () => {
                 const { MailboxRoute, mailboxLoader } = await import("./routes/mailbox");
                 return { Component: MailboxRoute, loader: mailboxLoader(queryClient) };
+              },
+            },
+            {
+              path: paths.signInSettings.path,
+              errorElement: <RouteError />,
+              lazy: async () => {
+                const { SignInSettingsRoute, signInSettingsLoader } =
+                  await import("./routes/sign-in-settings");
+                return {
+                  Component: SignInSettingsRoute,
+                  loader: signInSettingsLoader(queryClient),
+                };
               },
             },
             {

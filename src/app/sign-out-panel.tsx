@@ -8,8 +8,10 @@ import { ConfirmStep } from "@/components/ui/confirm-step";
 import { SpinnerGlyph } from "@/components/ui/spinner";
 import { paths } from "@/config/paths";
 import type { UnsentWork } from "@/features/walkthroughs/lib/offline-store";
+import { leaveAppFor } from "@/lib/leave-app";
 
 import { signOutOfPhone, type UnsentChoice, unsentWorkOnPhone } from "./sign-out";
+import { holdSignedOutNotice, type SignedOutNotice } from "./signed-out-notice";
 
 /** "2 audits with 14 changes", in words, and the observations not yet in Lintel. */
 export function describeUnsent({ audits, observations, changes }: UnsentWork): string {
@@ -30,10 +32,6 @@ export function unsentIsOne({ audits, observations }: UnsentWork): boolean {
   return audits + observations === 1;
 }
 
-export interface SignedOutNotice {
-  signedOut: { kept: boolean; reachedLintel: boolean };
-}
-
 type Step =
   | { kind: "idle" }
   | { kind: "choose"; work: UnsentWork }
@@ -47,6 +45,7 @@ export function SignOutPanel() {
   const queryClient = useQueryClient();
   const navigate = useNavigate();
   const [step, setStep] = useState<Step>({ kind: "idle" });
+  const [leaving, setLeaving] = useState(false);
   const discardButton = useRef<HTMLButtonElement>(null);
 
   // Both work with no signal: the choice is about this phone, and the sign-out finishes here.
@@ -54,10 +53,18 @@ export function SignOutPanel() {
     networkMode: "always",
     mutationFn: ({ choice }: { choice: UnsentChoice; hadWork: boolean }) =>
       signOutOfPhone(queryClient, choice),
-    onSuccess: ({ reachedLintel }, { choice, hadWork }) => {
+    onSuccess: ({ reachedLintel, providerSignOutUrl }, { choice, hadWork }) => {
       const state: SignedOutNotice = {
         signedOut: { kept: choice === "keep" && hadWork, reachedLintel },
       };
+      if (providerSignOutUrl) {
+        // Signed in through the network's provider: end that session too. The provider sends the
+        // browser back to sign-in, where the notice is shown.
+        holdSignedOutNotice(state);
+        setLeaving(true);
+        leaveAppFor(providerSignOutUrl);
+        return;
+      }
       void navigate(paths.signIn.getHref(), { replace: true, state });
     },
   });
@@ -72,7 +79,7 @@ export function SignOutPanel() {
     // The phone's store could not be read: say so rather than lose anything silently.
   });
 
-  const busy = signOut.isPending || checking.isPending;
+  const busy = signOut.isPending || checking.isPending || leaving;
 
   return (
     <>
@@ -114,7 +121,7 @@ export function SignOutPanel() {
                 aria-busy={busy || undefined}
                 onClick={() => signOut.mutate({ choice: "keep", hadWork: true })}
               >
-                {signOut.isPending ? <SpinnerGlyph className="size-5" /> : null}
+                {signOut.isPending || leaving ? <SpinnerGlyph className="size-5" /> : null}
                 Keep it and send it when I sign in here again
               </Button>
               <p className="text-sm text-ink-muted">
@@ -138,7 +145,7 @@ export function SignOutPanel() {
               title={`Discard ${describeUnsent(step.work)}?`}
               confirmLabel="Discard and sign out"
               cancelLabel="Go back"
-              pending={signOut.isPending}
+              pending={signOut.isPending || leaving}
               returnFocusRef={discardButton}
               onConfirm={() => signOut.mutate({ choice: "discard", hadWork: true })}
               onCancel={() => setStep({ kind: "choose", work: step.work })}

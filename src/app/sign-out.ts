@@ -25,6 +25,8 @@ export type UnsentChoice = "keep" | "discard";
 export interface SignedOut {
   /** False when Lintel could not be reached: the session there ends at the next connection. */
   reachedLintel: boolean;
+  /** The identity provider's page that ends its session too, when the session began there. */
+  providerSignOutUrl: string | null;
 }
 
 /**
@@ -42,8 +44,9 @@ export async function signOutOfPhone(
   await module.closeAuditDevice();
 
   let reachedLintel = true;
+  let providerSignOutUrl: string | null = null;
   try {
-    await signOut();
+    ({ providerSignOutUrl } = await signOut());
     setSignOutPending(false);
   } catch (error) {
     // The session is already over (401): as good as signed out. Otherwise try again later.
@@ -65,5 +68,5 @@ export async function signOutOfPhone(
   queryClient.removeQueries({
     predicate: (query) => query.queryKey[0] !== queryKeys.sessions.me[0],
   });
-  return { reachedLintel };
+  return { reachedLintel, providerSignOutUrl };
 }

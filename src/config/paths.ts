@@ -16,6 +16,10 @@ export const paths = {
       return safe && safe !== "/" ? `/sign-in?next=${encodeURIComponent(safe)}` : "/sign-in";
     },
   },
+  signInProblem: {
+    path: "/sign-in/problem",
+    getHref: () => "/sign-in/problem",
+  },
   newSite: {
     path: "/sites/new",
     getHref: () => "/sites/new",
@@ -120,6 +124,10 @@ export const paths = {
   undeliveredMail: {
     path: "/admin/undelivered-mail",
     getHref: () => "/admin/undelivered-mail",
+  },
+  signInSettings: {
+    path: "/admin/sign-in",
+    getHref: () => "/admin/sign-in",
   },
   welcome: {
     path: "/welcome/:token",

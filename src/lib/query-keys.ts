@@ -85,6 +85,10 @@ export const queryKeys = {
   undeliveredMails: {
     list: ["undelivered-mails", "list"] as const,
   },
+  identityProviders: {
+    /** The network's provider settings and the addresses to register at the provider. */
+    current: ["identity-providers", "current"] as const,
+  },
   people: {
     list: ["people", "list"] as const,
     detail: (userId: string) => ["people", "detail", userId] as const,

@@ -21,6 +21,8 @@ const signedInAsAuditor = {
   "GET /api/sites": () => jsonResponse({ sites: [tamsinGeneral, orchardHill] }),
 };
 
+const passwordOnly = { password: true, provider: null };
+
 function currentUrl(router: ReturnType<typeof renderApp>["router"]): string {
   const { pathname, search } = router.state.location;
   return `${pathname}${search}`;
@@ -41,12 +43,14 @@ describe("signing in", () => {
     stubApi({
       ...signedInAsAuditor,
       "GET /api/auth/me": signedOutReply,
+      "POST /api/auth/sign-in/method": () => jsonResponse(passwordOnly),
       "POST /api/auth/sign-in": () => jsonResponse(auditor),
     });
     const { router, user } = renderApp("/sign-in?next=%2Faccount");
 
     await user.type(await screen.findByLabelText("E-mail"), "rowan.ellery@example.org");
-    await user.type(screen.getByLabelText("Password"), "correct horse");
+    await user.click(screen.getByRole("button", { name: "Continue" }));
+    await user.type(await screen.findByLabelText("Password"), "correct horse");
     await user.click(screen.getByRole("button", { name: "Sign in" }));
 
     expect(await screen.findByRole("heading", { level: 1, name: "Account" })).toBeTruthy();
@@ -57,12 +61,14 @@ describe("signing in", () => {
     stubApi({
       ...signedInAsAuditor,
       "GET /api/auth/me": signedOutReply,
+      "POST /api/auth/sign-in/method": () => jsonResponse(passwordOnly),
       "POST /api/auth/sign-in": () => jsonResponse(auditor),
     });
     const { router, user } = renderApp("/sign-in?next=%2F%2Felsewhere.example%2Fphish");
 
     await user.type(await screen.findByLabelText("E-mail"), "rowan.ellery@example.org");
-    await user.type(screen.getByLabelText("Password"), "correct horse");
+    await user.click(screen.getByRole("button", { name: "Continue" }));
+    await user.type(await screen.findByLabelText("Password"), "correct horse");
     await user.click(screen.getByRole("button", { name: "Sign in" }));
 
     expect(await screen.findByRole("heading", { level: 1, name: "My sites" })).toBeTruthy();

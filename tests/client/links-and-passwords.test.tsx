@@ -125,13 +125,41 @@ describe("welcome page", () => {
 });
 
 describe("forgotten and reset passwords", () => {
-  it("when the sign-in page opens, then it offers a way to reset a forgotten password", async () => {
-    stubApi({ "GET /api/auth/me": signedOutReply });
-    renderApp("/sign-in");
+  it("when the address may sign in with a password, then the sign-in page offers a way to reset a forgotten one", async () => {
+    stubApi({
+      "GET /api/auth/me": signedOutReply,
+      "POST /api/auth/sign-in/method": () => jsonResponse({ password: true, provider: null }),
+    });
+    const { user } = renderApp("/sign-in");
+
+    await user.type(await screen.findByLabelText("E-mail"), "priya.nair@example.org");
+    expect(screen.queryByRole("link", { name: "Forgot your password?" })).toBeNull();
+    await user.click(screen.getByRole("button", { name: "Continue" }));
 
     expect(
       (await screen.findByRole("link", { name: "Forgot your password?" })).getAttribute("href"),
     ).toBe("/forgot-password");
+  });
+
+  it("when the address signs in only through its provider, then no password or reset is offered", async () => {
+    stubApi({
+      "GET /api/auth/me": signedOutReply,
+      "POST /api/auth/sign-in/method": () =>
+        jsonResponse({
+          password: false,
+          provider: { name: "Tamsin Bay Health", startUrl: "/api/auth/provider/start?network=x" },
+        }),
+    });
+    const { user } = renderApp("/sign-in");
+
+    await user.type(await screen.findByLabelText("E-mail"), "priya.nair@tamsinbay.example");
+    await user.click(screen.getByRole("button", { name: "Continue" }));
+
+    expect(
+      await screen.findByRole("link", { name: "Sign in with Tamsin Bay Health" }),
+    ).toBeTruthy();
+    expect(screen.queryByLabelText("Password")).toBeNull();
+    expect(screen.queryByRole("link", { name: "Forgot your password?" })).toBeNull();
   });
 
   it("when a reset link is asked for, then the server's answer is shown", async () => {

@@ -81,6 +81,7 @@ describe("who sees people and the mailbox", () => {
         expect.stringMatching(/^People/),
         expect.stringMatching(/^Checklists/),
         expect.stringMatching(/^Observation steps/),
+        expect.stringMatching(/^Sign-in/),
         expect.stringMatching(/^Undelivered mail/),
         expect.stringMatching(/^Demo e-mails/),
       ]),

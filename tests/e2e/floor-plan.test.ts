@@ -4,7 +4,7 @@ import { afterAll, beforeAll, describe, expect, it } from "vitest";
 
 import { distanceMetres, formatLength } from "@shared/calc/plan-geometry";
 
-import { baseUrl, launchBrowser, phonePage } from "../helpers/browser";
+import { baseUrl, launchBrowser, phonePage, signIn } from "../helpers/browser";
 
 const planWidth = 1200;
 const planHeight = 800;
@@ -56,10 +56,7 @@ describe("drawing on a floor plan on a phone (390×844)", () => {
 
   it("when an administrator uploads a plan, draws a doffing area and places hand-rub stations 1 m apart, then the spacing flag shows", async () => {
     const { page, problems } = await phonePage(browser);
-    await page.goto(`${baseUrl()}/sign-in`);
-    await page.getByLabel("E-mail").fill("admin@example.org");
-    await page.getByLabel("Password").fill("lintel-demo-2026");
-    await page.getByRole("button", { name: "Sign in" }).click();
+    await signIn(page, "admin@example.org", "lintel-demo-2026");
     await page.getByRole("heading", { level: 1, name: "My sites" }).waitFor();
 
     // A new floor at Wexley.

@@ -3,7 +3,7 @@ import { mkdirSync } from "node:fs";
 import type { Browser } from "playwright-core";
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
 
-import { baseUrl, launchBrowser, phonePage } from "../helpers/browser";
+import { launchBrowser, phonePage, signIn } from "../helpers/browser";
 
 const shots = process.env.LINTEL_SHOTS_DIR;
 
@@ -20,10 +20,7 @@ describe("an isolation room whose airflow nobody confirmed (390×844)", () => {
 
   it("when the auditor marks the pressure and the visual test not applicable, then the result says hold until fixed: inward airflow not confirmed", async () => {
     const { page, problems } = await phonePage(browser);
-    await page.goto(`${baseUrl()}/sign-in`);
-    await page.getByLabel("E-mail").fill("auditor@example.org");
-    await page.getByLabel("Password").fill("lintel-demo-2026");
-    await page.getByRole("button", { name: "Sign in" }).click();
+    await signIn(page, "auditor@example.org", "lintel-demo-2026");
     await page.getByRole("heading", { level: 1, name: "My sites" }).waitFor();
     await page
       .getByRole("list", { name: "Sites" })

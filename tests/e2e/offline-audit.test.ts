@@ -2,7 +2,7 @@ import sharp from "sharp";
 import type { Browser } from "playwright-core";
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
 
-import { baseUrl, launchBrowser, phonePage } from "../helpers/browser";
+import { baseUrl, launchBrowser, phonePage, signIn } from "../helpers/browser";
 import { answerDoffingItem } from "../helpers/doffing-steps";
 
 describe("an audit on a phone that loses its connection half-way (390×844)", () => {
@@ -17,10 +17,7 @@ describe("an audit on a phone that loses its connection half-way (390×844)", ()
   it("when the auditor finishes offline and reconnects, then the audit arrives once with its photo and says hold until fixed", async () => {
     const { page, problems } = await phonePage(browser);
     const context = page.context();
-    await page.goto(`${baseUrl()}/sign-in`);
-    await page.getByLabel("E-mail").fill("auditor@example.org");
-    await page.getByLabel("Password").fill("lintel-demo-2026");
-    await page.getByRole("button", { name: "Sign in" }).click();
+    await signIn(page, "auditor@example.org", "lintel-demo-2026");
     await page.getByRole("heading", { level: 1, name: "My sites" }).waitFor();
 
     // The site itself, not a fix to verify there that the home page may also list.

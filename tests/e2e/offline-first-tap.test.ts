@@ -4,7 +4,7 @@ import { afterAll, beforeAll, describe, expect, it } from "vitest";
 
 import type { ChecklistItem } from "@shared/schemas/checklists";
 
-import { baseUrl, launchBrowser, phonePage } from "../helpers/browser";
+import { baseUrl, launchBrowser, phonePage, signIn } from "../helpers/browser";
 import { answerDoffingItem } from "../helpers/doffing-steps";
 import { waitForKept } from "../helpers/kept";
 
@@ -26,10 +26,10 @@ async function republishDoffingChecklist(): Promise<Published> {
     extraHTTPHeaders: { Origin: new URL(baseUrl()).origin },
   });
   try {
-    const signIn = await admin.post("/api/auth/sign-in", {
+    const signedIn = await admin.post("/api/auth/sign-in", {
       data: { email: "admin@example.org", password },
     });
-    expect(signIn.status()).toBe(200);
+    expect(signedIn.status()).toBe(200);
     const { checklists } = await (await admin.get("/api/checklists")).json();
     const current = checklists.find(
       (entry: { zoneType: string }) => entry.zoneType === "doffing_area",
@@ -71,10 +71,7 @@ describe("an audit begun with no signal at all (390×844)", () => {
   it("when the auditor signed in once and then has no signal, then they open the due list, start an audit of a space never opened, finish it with a failed item and a photo, and on reconnecting it arrives once with the checklist version it began with", async () => {
     const { page, problems } = await phonePage(browser);
     const context = page.context();
-    await page.goto(`${baseUrl()}/sign-in`);
-    await page.getByLabel("E-mail").fill("auditor@example.org");
-    await page.getByLabel("Password").fill(password);
-    await page.getByRole("button", { name: "Sign in" }).click();
+    await signIn(page, "auditor@example.org", password);
     await page.getByRole("heading", { level: 1, name: "My sites" }).waitFor();
 
     const kept = await waitForKept(page);

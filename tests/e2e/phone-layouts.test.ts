@@ -53,6 +53,7 @@ const roles: { email: string; screens: Screen[] }[] = [
       () => "/admin/checklists",
       () => "/admin/sequences",
       () => "/admin/sequences?edit=standard-removal-1",
+      () => "/admin/sign-in",
       () => "/admin/mail",
       () => "/admin/undelivered-mail",
     ],

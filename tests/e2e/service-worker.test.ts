@@ -113,7 +113,7 @@ describe("the service worker on a phone (390×844)", () => {
     const { page, problems } = await phonePage(browser);
     try {
       await page.goto(`${baseUrl()}/sign-in`);
-      await page.getByRole("button", { name: "Sign in" }).waitFor();
+      await page.getByRole("button", { name: "Continue" }).waitFor();
       await workerInCharge(page);
       const firstWorker = await page.evaluate(
         () => navigator.serviceWorker.controller?.scriptURL ?? null,
@@ -154,7 +154,7 @@ describe("the service worker on a phone (390×844)", () => {
         page.waitForEvent("load", { timeout: 30_000 }),
         banner.getByRole("button", { name: "Reload" }).click(),
       ]);
-      await page.getByRole("button", { name: "Sign in" }).waitFor();
+      await page.getByRole("button", { name: "Continue" }).waitFor();
       await expect
         .poll(
           () =>

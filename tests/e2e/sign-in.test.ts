@@ -1,7 +1,7 @@
 import type { Browser } from "playwright-core";
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
 
-import { baseUrl, launchBrowser, phonePage } from "../helpers/browser";
+import { baseUrl, launchBrowser, phonePage, signIn } from "../helpers/browser";
 
 describe("signing in on a phone (390×844)", () => {
   let browser: Browser;
@@ -17,9 +17,7 @@ describe("signing in on a phone (390×844)", () => {
     await page.goto(`${baseUrl()}/`);
     await page.waitForURL(/\/sign-in/);
 
-    await page.getByLabel("E-mail").fill("admin@example.org");
-    await page.getByLabel("Password").fill("lintel-demo-2026");
-    await page.getByRole("button", { name: "Sign in" }).click();
+    await signIn(page, "admin@example.org", "lintel-demo-2026", false);
 
     await page.getByRole("heading", { level: 1, name: "My sites" }).waitFor();
     expect(new URL(page.url()).pathname).toBe("/");
@@ -41,10 +39,7 @@ describe("signing in on a phone (390×844)", () => {
 
   it("when a signed-in person opens sign-in with a next that collapses to another host, then they stay in the app", async () => {
     const { page, problems } = await phonePage(browser);
-    await page.goto(`${baseUrl()}/sign-in`);
-    await page.getByLabel("E-mail").fill("admin@example.org");
-    await page.getByLabel("Password").fill("lintel-demo-2026");
-    await page.getByRole("button", { name: "Sign in" }).click();
+    await signIn(page, "admin@example.org", "lintel-demo-2026");
     await page.getByRole("heading", { level: 1, name: "My sites" }).waitFor();
     const origin = new URL(baseUrl()).origin;
 
@@ -65,10 +60,7 @@ describe("signing in on a phone (390×844)", () => {
 
   it("when the password is wrong, then an error is shown and the person stays on the sign-in page", async () => {
     const { page, problems } = await phonePage(browser);
-    await page.goto(`${baseUrl()}/sign-in`);
-    await page.getByLabel("E-mail").fill("admin@example.org");
-    await page.getByLabel("Password").fill("not-the-password");
-    await page.getByRole("button", { name: "Sign in" }).click();
+    await signIn(page, "admin@example.org", "not-the-password");
 
     const alert = page.getByRole("alert");
     await alert.waitFor();
@@ -80,10 +72,7 @@ describe("signing in on a phone (390×844)", () => {
 
   it("when an auditor of one site signs in, then only that site is listed, and signing out returns to sign-in", async () => {
     const { page, problems } = await phonePage(browser);
-    await page.goto(`${baseUrl()}/sign-in`);
-    await page.getByLabel("E-mail").fill("auditor2@example.org");
-    await page.getByLabel("Password").fill("lintel-demo-2026");
-    await page.getByRole("button", { name: "Sign in" }).click();
+    await signIn(page, "auditor2@example.org", "lintel-demo-2026");
     await page.getByRole("heading", { level: 1, name: "My sites" }).waitFor();
     await page.getByText("Orchard Hill Community Hospital").first().waitFor();
     expect(await page.getByText("Tamsin Bay General Hospital").count()).toBe(0);

@@ -69,10 +69,14 @@ export async function receivedMail(
   }
 }
 
-/** Fills in the sign-in page: opened first, unless a link has just led there (`goTo` false). */
+/**
+ * Signs in with a password on the sign-in page: opened first, unless a link has just led there
+ * (`goTo` false). The page asks for the address first ("Continue"), then offers the password.
+ */
 export async function signIn(page: Page, email: string, password: string, goTo = true) {
   if (goTo) await page.goto(`${baseUrl()}/sign-in`);
   await page.getByLabel("E-mail").fill(email);
+  await page.getByRole("button", { name: "Continue" }).click();
   await page.getByLabel("Password").fill(password);
-  await page.getByRole("button", { name: "Sign in" }).click();
+  await page.getByRole("button", { name: "Sign in", exact: true }).click();
 }

@@ -2,6 +2,7 @@ import type { QueryClient } from "@tanstack/react-query";
 import {
   type LoaderFunctionArgs,
   redirect,
+  useLoaderData,
   useLocation,
   useNavigate,
   useSearchParams,
@@ -10,12 +11,11 @@ import {
 import { StandaloneLayout } from "@/components/layouts/standalone-layout";
 import { Alert } from "@/components/ui/alert";
 import { Card } from "@/components/ui/card";
-import { TextLink } from "@/components/ui/text-link";
 import { paths, safeNextPath } from "@/config/paths";
 import { SignInForm } from "@/features/auth/components/sign-in-form";
 
 import { isSignedIn } from "../session";
-import type { SignedOutNotice } from "../sign-out-panel";
+import { type SignedOutNotice, takeHeldSignedOutNotice } from "../signed-out-notice";
 
 function SignedOutAlert({ notice }: { notice: SignedOutNotice["signedOut"] }) {
   if (!notice.kept && notice.reachedLintel) return null;
@@ -39,10 +39,12 @@ function SignedOutAlert({ notice }: { notice: SignedOutNotice["signedOut"] }) {
 
 export function signInLoader(queryClient: QueryClient) {
   return async ({ request }: LoaderFunctionArgs) => {
+    // Back from the provider's sign-out page: the notice waited in this tab meanwhile.
+    const held = takeHeldSignedOutNotice();
     if (await isSignedIn(queryClient)) {
       throw redirect(safeNextPath(new URL(request.url).searchParams.get("next")));
     }
-    return null;
+    return { held };
   };
 }
 
@@ -50,7 +52,9 @@ export function SignInRoute() {
   const navigate = useNavigate();
   const [searchParams] = useSearchParams();
   const next = safeNextPath(searchParams.get("next"));
-  const notice = (useLocation().state as Partial<SignedOutNotice> | null)?.signedOut;
+  const { held } = useLoaderData<{ held: SignedOutNotice | null }>();
+  const notice =
+    (useLocation().state as Partial<SignedOutNotice> | null)?.signedOut ?? held?.signedOut;
 
   return (
     <StandaloneLayout>
@@ -61,10 +65,11 @@ export function SignInRoute() {
         <p className="mt-2 mb-6 text-ink-muted">
           Readiness checks for isolation rooms, anterooms, donning zones and doffing areas.
         </p>
-        <SignInForm onSuccess={() => void navigate(next, { replace: true })} />
-        <p className="mt-5 text-center">
-          <TextLink to={paths.forgotPassword.getHref()}>Forgot your password?</TextLink>
-        </p>
+        <SignInForm
+          next={next}
+          forgotPasswordHref={paths.forgotPassword.getHref()}
+          onSuccess={() => void navigate(next, { replace: true })}
+        />
       </Card>
       <p className="mt-6 text-center text-sm text-ink-muted">
         No account yet? Your infection prevention programme lead can add you.

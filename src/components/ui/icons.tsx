@@ -171,3 +171,13 @@ export function AdminIcon({ className }: IconProps) {
     </OutlineIcon>
   );
 }
+
+/** A key: how people sign in (the network's identity provider, passwords). */
+export function KeyIcon({ className }: IconProps) {
+  return (
+    <OutlineIcon className={className}>
+      <circle cx="8" cy="15" r="4.5" />
+      <path d="M11.2 11.8 20 3M16.5 6.5l2.5 2.5M14 9l2 2" />
+    </OutlineIcon>
+  );
+}
