@@ -113,6 +113,7 @@ function page(title: string, heading: string, body: string): string {
   return `<!doctype html>
 <html lang="en"><head><meta charset="utf-8">
 <meta name="viewport" content="width=device-width, initial-scale=1">
+<link rel="icon" href="data:,">
 <title>${escapeHtml(heading)} · ${escapeHtml(title)} (demo)</title>
 <style>
 body{font-family:system-ui,sans-serif;margin:0;padding:16px;background:#f4f1ea;color:#1d232a;max-width:480px;margin-inline:auto}

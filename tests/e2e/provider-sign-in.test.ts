@@ -1,37 +1,10 @@
-import { mkdirSync } from "node:fs";
-import path from "node:path";
-
 import type { Browser, Page } from "playwright-core";
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
 
-import { baseUrl, launchBrowser, phoneContext } from "../helpers/browser";
+import { baseUrl, launchBrowser, phonePage } from "../helpers/browser";
+import { shot } from "../helpers/screens";
 
 const providerName = "Tamsin Bay Health";
-const shots = process.env.LINTEL_SHOTS_DIR;
-
-async function shot(page: Page, name: string) {
-  if (!shots) return;
-  mkdirSync(shots, { recursive: true });
-  await page.screenshot({ path: path.join(shots, `${name}.png`) });
-}
-
-/**
- * A phone page that notes console errors and page errors, as `phonePage` does, except the demo
- * provider's missing favicon: its pages are the provider's, and a browser asks every origin for one.
- */
-async function phonePage(browser: Browser): Promise<{ page: Page; problems: string[] }> {
-  const problems: string[] = [];
-  const context = await phoneContext(browser, undefined, []);
-  context.on("console", (message) => {
-    if (message.type() !== "error" || /status of 401/.test(message.text())) return;
-    const where = message.location().url;
-    if (/^http:\/\/127\.0\.0\.1:\d+\/favicon\.ico$/.test(where) && !where.startsWith(baseUrl()))
-      return;
-    problems.push(`${where}: ${message.text()}`);
-  });
-  context.on("weberror", (error) => problems.push(error.error().message));
-  return { page: await context.newPage(), problems };
-}
 
 /** The sign-in page's first step: the address, then Continue. */
 async function continueWith(page: Page, email: string) {
