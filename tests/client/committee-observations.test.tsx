@@ -4,7 +4,13 @@ import { afterEach, describe, expect, it, vi } from "vitest";
 import { observationsExportPath } from "@/features/committee/api/download-observations";
 
 import { committeeMember } from "./support/action-data";
-import { jsonResponse, orchardHill, stubApi, tamsinGeneral } from "./support/api-stub";
+import {
+  errorResponse,
+  jsonResponse,
+  orchardHill,
+  stubApi,
+  tamsinGeneral,
+} from "./support/api-stub";
 import {
   buildComparison,
   buildDrillDown,
@@ -143,6 +149,19 @@ describe("the committee's observation figures", () => {
     ).toBeTruthy();
     expect(within(section).queryByLabelText("Show the figures of")).toBeNull();
     expect(section.textContent).not.toContain("All sites together");
+  });
+
+  it("when a site's page names a site the person may not read, then it says so and shows no observation figures beneath", async () => {
+    stubApi({
+      "GET /api/auth/me": () => jsonResponse(committeeMember),
+      "GET /api/committee/observations": () => jsonResponse(buildObservationFigures()),
+      [`GET /api/committee/sites/${orchardHill.id}`]: () =>
+        errorResponse(404, "not_found", "That was not found."),
+    });
+    renderApp(`/committee/sites/${orchardHill.id}?${period}`);
+
+    await screen.findByText("We could not load the spaces");
+    expect(screen.queryByRole("region", { name: "Observed putting-on and removal" })).toBeNull();
   });
 
   it("when the observation figures are downloaded, then the CSV is asked for the months on screen only", async () => {

@@ -169,8 +169,9 @@ export function CommitteeSiteSpaces({ siteId, period }: CommitteeSiteSpacesProps
           ) : null}
         </>
       )}
-      {/* Below the spaces, and only once they are shown, so nothing above it moves later. */}
-      {valid && !site.isPending ? <ObservationsSection period={period} siteId={siteId} /> : null}
+      {/* Below the spaces, once they are shown (so nothing above it moves later), and only for
+          a site the person may read. */}
+      {valid && site.isSuccess ? <ObservationsSection period={period} siteId={siteId} /> : null}
     </div>
   );
 }
