@@ -265,7 +265,10 @@ function mainChunkSizes(clientDir: string) {
   };
 }
 
-/** A space the demo auditor may audit: the first one on the first floor of their first site. */
+/**
+ * A space the demo auditor may audit: the first isolation room on the first floor of their first
+ * site.
+ */
 async function demoSpace(origin: string): Promise<string> {
   const signIn = await fetch(`${origin}/api/auth/sign-in`, {
     method: "POST",
@@ -277,8 +280,12 @@ async function demoSpace(origin: string): Promise<string> {
     (await (await fetch(`${origin}${route}`, { headers })).json()) as T;
   const { sites } = await json<{ sites: { id: string }[] }>("/api/sites");
   const { floors } = await json<{ floors: { id: string }[] }>(`/api/sites/${sites[0]!.id}/floors`);
-  const floor = await json<{ spaces: { id: string }[] }>(`/api/floors/${floors[0]!.id}`);
-  return floor.spaces[0]!.id;
+  const floor = await json<{ spaces: { id: string; zoneType: string }[] }>(
+    `/api/floors/${floors[0]!.id}`,
+  );
+  // An isolation room: its QR link goes straight to the audit (at a donning zone, doffing area or
+  // anteroom it first asks whether to audit or to observe).
+  return floor.spaces.find((space) => space.zoneType === "isolation_room")!.id;
 }
 
 /**

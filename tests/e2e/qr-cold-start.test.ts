@@ -80,4 +80,45 @@ describe("a space's QR code on a phone that keeps nothing yet (390×844)", () =>
     }
     expect(problems).toEqual([]);
   });
+
+  it("when the QR code of a doffing area is opened on a phone that keeps nothing, then it asks whether to audit the space or observe, as it does on a phone that keeps the floor", async () => {
+    const db = new pg.Client({ connectionString: process.env.LINTEL_E2E_DATABASE_URL });
+    await db.connect();
+    let space: { id: string; name: string };
+    try {
+      const { rows } = await db.query<{ id: string; name: string }>(`
+        select sp.id, sp.name from spaces sp
+          join floors f on f.id = sp.floor_id
+          join sites s on s.id = f.site_id
+         where s.name = 'Tamsin Bay General Hospital' and sp.retired_at is null
+           and sp.zone_type = 'doffing_area'
+         order by sp.name limit 1`);
+      space = rows[0]!;
+    } finally {
+      await db.end();
+    }
+
+    const problems: string[] = [];
+    const signedIn = await phoneContext(browser, undefined, problems);
+    try {
+      const first = await signedIn.newPage();
+      await signIn(first, "auditor@example.org", password);
+      await first.getByRole("heading", { level: 1, name: "My sites" }).waitFor();
+      const context = await phoneContext(browser, undefined, problems, signedIn);
+      try {
+        const page = await context.newPage();
+        await page.goto(`${baseUrl()}/spaces/${space.id}/audit`);
+        await page.getByText("What are you here to do?").waitFor();
+        await page.getByRole("heading", { level: 1, name: space.name }).waitFor();
+        await page.getByRole("button", { name: "Audit this space" }).waitFor();
+        await page.getByRole("link", { name: "Observe putting on or removal" }).waitFor();
+        await shot(page, "auditor-qr-cold-start-doffing-choice");
+      } finally {
+        await context.close();
+      }
+    } finally {
+      await signedIn.close();
+    }
+    expect(problems).toEqual([]);
+  });
 });

@@ -155,9 +155,15 @@ function useChoice(spaceId: string): [Choice, () => void, string | null] {
   useEffect(() => {
     if (choice !== "deciding") return;
     let live = true;
-    void restoreKept(queryClient).then(() => {
+    void restoreKept(queryClient).then(async () => {
+      // A phone that keeps nothing of the space asks Lintel (briefly), so the choice does not
+      // depend on which answer came first.
+      const found = knownSpace(queryClient, spaceId) ?? (await spaceNow(queryClient, spaceId));
       if (!live) return;
-      const space = knownSpace(queryClient, spaceId);
+      const space =
+        found && "space" in found
+          ? { name: found.space.name, zoneType: found.space.zoneType }
+          : found;
       setName(space?.name ?? null);
       setChoice(isObservedZone(space?.zoneType) ? "ask" : "audit");
     });
