@@ -5,7 +5,7 @@ import type { Browser, Locator, Page } from "playwright-core";
 import sharp from "sharp";
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
 
-import { baseUrl, launchBrowser, phonePage, signIn } from "../helpers/browser";
+import { baseUrl, launchBrowser, phonePage, signIn, openSiteDueList } from "../helpers/browser";
 
 const password = "lintel-demo-2026";
 const planWidth = 1200;
@@ -73,15 +73,7 @@ describe("isolation-room air on a phone (390×844)", () => {
     const { page, problems } = await phonePage(browser);
     await signIn(page, "auditor@example.org", password);
     await page.getByRole("heading", { level: 1, name: "My sites" }).waitFor();
-    await page
-      .getByRole("list", { name: "Sites" })
-      .getByRole("link", { name: /Orchard Hill Community Hospital/ })
-      .first()
-      .click();
-    await page
-      .getByRole("link", { name: /All spaces and due dates|every other space/ })
-      .first()
-      .click();
+    await openSiteDueList(page, /Orchard Hill Community Hospital/);
     await page
       .getByRole("listitem", { name: "Isolation room 11", exact: true })
       .getByRole("link", { name: "Start audit" })

@@ -3,7 +3,7 @@ import { mkdirSync } from "node:fs";
 import type { Browser } from "playwright-core";
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
 
-import { launchBrowser, phonePage, signIn } from "../helpers/browser";
+import { launchBrowser, phonePage, signIn, openSiteDueList } from "../helpers/browser";
 
 const shots = process.env.LINTEL_SHOTS_DIR;
 
@@ -22,15 +22,7 @@ describe("an isolation room whose airflow nobody confirmed (390×844)", () => {
     const { page, problems } = await phonePage(browser);
     await signIn(page, "auditor@example.org", "lintel-demo-2026");
     await page.getByRole("heading", { level: 1, name: "My sites" }).waitFor();
-    await page
-      .getByRole("list", { name: "Sites" })
-      .getByRole("link", { name: /Wexley Rehabilitation Centre/ })
-      .first()
-      .click();
-    await page
-      .getByRole("link", { name: /All spaces and due dates|every other space/ })
-      .first()
-      .click();
+    await openSiteDueList(page, /Wexley Rehabilitation Centre/);
     await page
       .getByRole("listitem", { name: "Isolation room 1", exact: true })
       .getByRole("link", { name: "Start audit" })

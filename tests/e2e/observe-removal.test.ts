@@ -3,7 +3,7 @@ import path from "node:path";
 import type { Browser, Locator, Page } from "playwright-core";
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
 
-import { baseUrl, launchBrowser, phonePage, signIn } from "../helpers/browser";
+import { baseUrl, launchBrowser, phonePage, signIn, openSiteDueList } from "../helpers/browser";
 import { keptOnPhone } from "../helpers/kept";
 import { shot } from "../helpers/screens";
 
@@ -67,15 +67,7 @@ describe("observing a removal on a phone that loses its connection half-way (390
 
     await signIn(page, "auditor@example.org", password);
     await page.getByRole("heading", { level: 1, name: "My sites" }).waitFor();
-    await page
-      .getByRole("list", { name: "Sites" })
-      .getByRole("link", { name: /Wexley Rehabilitation Centre/ })
-      .first()
-      .click();
-    await page
-      .getByRole("link", { name: /All spaces and due dates|every other space/ })
-      .first()
-      .click();
+    await openSiteDueList(page, /Wexley Rehabilitation Centre/);
     await page
       .getByRole("listitem", { name: "Doffing area 1", exact: true })
       .getByRole("link", { name: "Observe putting on or removal" })

@@ -2,7 +2,7 @@ import sharp from "sharp";
 import type { Browser } from "playwright-core";
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
 
-import { baseUrl, launchBrowser, phonePage, signIn } from "../helpers/browser";
+import { baseUrl, launchBrowser, phonePage, signIn, openSiteDueList } from "../helpers/browser";
 import { answerDoffingItem } from "../helpers/doffing-steps";
 
 describe("an audit on a phone that loses its connection half-way (390×844)", () => {
@@ -20,16 +20,7 @@ describe("an audit on a phone that loses its connection half-way (390×844)", ()
     await signIn(page, "auditor@example.org", "lintel-demo-2026");
     await page.getByRole("heading", { level: 1, name: "My sites" }).waitFor();
 
-    // The site itself, not a fix to verify there that the home page may also list.
-    await page
-      .getByRole("list", { name: "Sites" })
-      .getByRole("link", { name: /Wexley Rehabilitation Centre/ })
-      .first()
-      .click();
-    await page
-      .getByRole("link", { name: /All spaces and due dates|every other space/ })
-      .first()
-      .click();
+    await openSiteDueList(page, /Wexley Rehabilitation Centre/);
     await page
       .getByRole("listitem", { name: "Doffing area 1", exact: true })
       .getByRole("link", { name: "Start audit" })

@@ -80,3 +80,15 @@ export async function signIn(page: Page, email: string, password: string, goTo =
   await page.getByLabel("Password").fill(password);
   await page.getByRole("button", { name: "Sign in", exact: true }).click();
 }
+
+/**
+ * From "My sites", opens a site (the site itself, not a fix to verify there that the home page
+ * may also list) and then its list of every space with its due date.
+ */
+export async function openSiteDueList(page: Page, site: RegExp) {
+  await page.getByRole("list", { name: "Sites" }).getByRole("link", { name: site }).first().click();
+  await page
+    .getByRole("link", { name: /All spaces and due dates|every other space/ })
+    .first()
+    .click();
+}
