@@ -15,3 +15,4 @@ export * from "./actions";
 export * from "./committee";
 export * from "./observations";
 export * from "./identity-providers";
+export * from "./pressure";
