@@ -3,7 +3,7 @@ import path from "node:path";
 
 import { afterAll, describe, expect, it } from "vitest";
 
-import { pendingMigrations } from "../../scripts/check-migrations";
+import { handWrittenProblems, pendingMigrations } from "../../scripts/check-migrations";
 
 const root = path.resolve(__dirname, "../..");
 mkdirSync(path.join(root, ".test-data"), { recursive: true });
@@ -30,5 +30,27 @@ describe("the migration drift check", () => {
     });
     expect(pending).toHaveLength(1);
     expect(pending[0]!.text).toContain('CREATE TABLE "drift_probes"');
+  });
+
+  it("when the hand-written partitioned readings table has its migration, then the check has nothing to say about it", () => {
+    expect(handWrittenProblems()).toEqual([]);
+  });
+
+  it("when a hand-written table's migration is missing or was written by drizzle-kit, then the check names it", () => {
+    const migrations = path.join(scratch, "hand-written");
+    mkdirSync(migrations);
+    writeFileSync(
+      path.join(migrations, "0000_plain.sql"),
+      'CREATE TABLE "plain_readings" ("id" uuid);\n',
+    );
+    expect(
+      handWrittenProblems({
+        migrations: path.relative(root, migrations),
+        tables: ["plain_readings", "absent_readings"],
+      }),
+    ).toEqual([
+      "plain_readings is created without its partitioning: only drizzle-kit wrote it.",
+      `No migration in ${path.relative(root, migrations)}/ creates the hand-written table absent_readings.`,
+    ]);
   });
 });
