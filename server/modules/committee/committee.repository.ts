@@ -6,6 +6,7 @@ import type { ActionState } from "@shared/workflow/action-workflow";
 import type { ZoneType } from "@shared/zones";
 
 import type { Database, DbOrTx } from "../../db/client";
+import { executeNamed } from "../../db/named-statements";
 
 /** The first day of `month` (YYYY-MM) as a date literal. */
 const firstDay = (month: string) => `${month}-01`;
@@ -265,10 +266,11 @@ export async function comparisonRows(
   onlyIds: readonly string[] | null,
   period: Period,
 ) {
-  const result = await db.execute<ComparisonRow>(
+  return executeNamed<ComparisonRow>(
+    db,
+    "committee_comparison",
     committeeQueries.comparison(networkId, onlyIds, period),
   );
-  return result.rows;
 }
 
 export async function readinessByMonth(db: DbOrTx, siteIds: readonly string[], period: Period) {
