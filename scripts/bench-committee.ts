@@ -1,10 +1,8 @@
 import { execFileSync } from "node:child_process";
 import { mkdtempSync, rmSync, writeFileSync } from "node:fs";
-import http from "node:http";
 import os from "node:os";
 import path from "node:path";
 import { pathToFileURL } from "node:url";
-import zlib from "node:zlib";
 
 import type { SQL } from "drizzle-orm";
 import { PgDialect } from "drizzle-orm/pg-core";
@@ -24,6 +22,7 @@ import {
 } from "../server/modules/committee/committee.repository";
 import { ensureDefaultSequences } from "../server/modules/observations/sequences.service";
 import { startServer } from "../server/server";
+import { agent, browserGet, httpTimes, percentile } from "./lib/bench-http";
 import { prepareCluster, type Cluster } from "./lib/postgres";
 import { freePort } from "./lib/process";
 import { startS3Fake } from "./lib/s3-fake";
@@ -43,11 +42,6 @@ const calls = Number(process.env.BENCH_COMMITTEE_CALLS ?? 200);
 /** The calls go in this many alternating rounds of HTTP and psql. */
 const rounds = 10;
 const password = "bench committee passphrase";
-
-const percentile = (values: number[], p: number) => {
-  const sorted = [...values].sort((a, b) => a - b);
-  return sorted[Math.min(sorted.length - 1, Math.floor((p / 100) * sorted.length))]!;
-};
 
 /** Bench checklists of 24 items per zone type: the default items, then extra ones. */
 async function seedChecklists(client: pg.Client, networkId: string) {
@@ -247,63 +241,6 @@ function psqlTimes(cluster: Cluster, database: string, statements: string[], tim
   } finally {
     rmSync(dir, { recursive: true, force: true });
   }
-}
-
-/** What a phone's browser asks for; it is sent what the server prefers among them. */
-const browserAcceptEncoding = "gzip, deflate, br, zstd";
-
-const decoders: Record<string, (body: Buffer) => Buffer> = {
-  br: (body) => zlib.brotliDecompressSync(body),
-  gzip: (body) => zlib.gunzipSync(body),
-  deflate: (body) => zlib.inflateSync(body),
-};
-
-/**
- * One GET over a kept-alive connection, as a browser makes it: it asks for compression and decodes
- * the whole reply before it counts as received. (Node's `fetch` decodes through web streams chunk
- * by chunk, about 1 ms more for the comparison's 50 KB, a cost of that client that no phone pays.)
- */
-function browserGet(url: string, cookie: string, origin: string) {
-  return new Promise<void>((resolve, reject) => {
-    const request = http.get(
-      url,
-      { agent, headers: { cookie, origin, "accept-encoding": browserAcceptEncoding } },
-      (response) => {
-        const chunks: Buffer[] = [];
-        response.on("data", (chunk: Buffer) => chunks.push(chunk));
-        response.on("error", reject);
-        response.on("end", () => {
-          try {
-            const encoding = response.headers["content-encoding"];
-            const body = Buffer.concat(chunks);
-            if (encoding) {
-              const decode = decoders[encoding];
-              if (!decode) throw new Error(`${url}: unexpected encoding ${encoding}`);
-              decode(body);
-            }
-            if (response.statusCode !== 200) throw new Error(`${url}: HTTP ${response.statusCode}`);
-            resolve();
-          } catch (error) {
-            reject(error instanceof Error ? error : new Error(String(error)));
-          }
-        });
-      },
-    );
-    request.on("error", reject);
-  });
-}
-
-/** One kept-alive connection for every timed request, as a browser keeps one to its server. */
-const agent = new http.Agent({ keepAlive: true, maxSockets: 1 });
-
-async function httpTimes(url: string, cookie: string, origin: string, count: number) {
-  const times: number[] = [];
-  for (let n = 0; n < count; n += 1) {
-    const t0 = performance.now();
-    await browserGet(url, cookie, origin);
-    times.push(performance.now() - t0);
-  }
-  return times;
 }
 
 interface ScaleResult {
