@@ -59,7 +59,12 @@ export async function pressureFigures(
               const rooms = byMonth.get(month) ?? [];
               const excursions = rooms.reduce((sum, room) => sum + room.excursions, 0);
               const monitoredHours = rooms.reduce((sum, room) => sum + room.monitoredHours, 0);
-              const rate = eventRate(excursions, monitoredHours, pressureRateBase, committeeConfidence);
+              const rate = eventRate(
+                excursions,
+                monitoredHours,
+                pressureRateBase,
+                committeeConfidence,
+              );
               return {
                 month,
                 excursions,
