@@ -33,6 +33,7 @@ export const pressureRateSchema = z.object({
   lower: z.number(),
   upper: z.number(),
 });
+export type PressureRate = z.infer<typeof pressureRateSchema>;
 
 export const pressureSiteMonthSchema = z.object({
   /** "YYYY-MM" on the site's clock. */

@@ -152,9 +152,12 @@ describe("room pressure on the committee's screens", () => {
         // silent day: 2,208.0 hours.
         const october = months.getByRole("row", { name: /Oct 2026/ });
         const cells = october.getByRole("cell");
-        expect(await cells.nth(0).innerText()).toBe("3");
-        expect(await cells.nth(1).innerText()).toBe("2,208.0");
-        expect(await cells.nth(2).innerText()).toMatch(/^1\.4 \(\d\.\d+ to \d\.\d\)$/);
+        expect(await cells.nth(0).textContent()).toBe("3 in 2,208.0 h");
+        expect(await cells.nth(1).textContent()).toMatch(/^1\.4 \(\d\.\d+ to \d\.\d\)$/);
+        // The figures fit the phone: the table needs no sideways scrolling.
+        expect(
+          await months.evaluate((table) => table.scrollWidth <= table.parentElement!.clientWidth),
+        ).toBe(true);
         const rooms = section.getByRole("table", { name: /^Hours out of range by room/ });
         await rooms.waitFor();
         if (screen === "committee-view")
@@ -165,6 +168,8 @@ describe("room pressure on the committee's screens", () => {
         await shot(page, `${screen}-${role}`, { fullPage: true });
         await section.scrollIntoViewIfNeeded();
         await shot(page, `${screen}-${role}-pressure`);
+        await section.getByText(/not a life-safety alarm system/).scrollIntoViewIfNeeded();
+        await shot(page, `${screen}-${role}-pressure-end`);
       }
       expect(problems).toEqual([]);
       await context.close();

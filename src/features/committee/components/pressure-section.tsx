@@ -1,6 +1,7 @@
 import {
   type CommitteePressureResponse,
   hoursText,
+  type PressureRate,
   type PressureSiteFigures,
   rateText,
 } from "@shared/schemas/committee-pressure";
@@ -25,6 +26,18 @@ function openingMonth(period: CommitteePeriod, now: Date = new Date()): string {
   return period.from > current ? period.from : current;
 }
 
+/** "2.1 (0.3 to 7.6)", the interval free to go under the rate on a narrow screen. */
+function RateWords({ rate }: { rate: PressureRate }) {
+  const words = rateText(rate);
+  const cut = words.indexOf(" (");
+  return (
+    <>
+      <span className="font-semibold">{words.slice(0, cut)}</span>{" "}
+      <span className="inline-block whitespace-nowrap">{words.slice(cut + 1)}</span>
+    </>
+  );
+}
+
 function SiteMonths({ site, per }: { site: PressureSiteFigures; per: number }) {
   return (
     <div className={tableStyles.frame}>
@@ -36,10 +49,7 @@ function SiteMonths({ site, per }: { site: PressureSiteFigures; per: number }) {
               Month
             </th>
             <th scope="col" className={cn(tableStyles.head, "text-right")}>
-              Excursions
-            </th>
-            <th scope="col" className={cn(tableStyles.head, "text-right")}>
-              Monitored hours
+              Excursions in monitored hours
             </th>
             <th scope="col" className={cn(tableStyles.head, "text-right")}>
               {`Per ${per.toLocaleString("en-GB")} h (95% interval)`}
@@ -52,11 +62,15 @@ function SiteMonths({ site, per }: { site: PressureSiteFigures; per: number }) {
               <th scope="row" className={cn(tableStyles.cell, "font-normal whitespace-nowrap")}>
                 {monthText(month.month)}
               </th>
-              <td className={tableStyles.number}>{month.excursions}</td>
-              <td className={tableStyles.number}>{hoursText(month.monitoredHours)}</td>
-              <td className={cn(tableStyles.number, "whitespace-nowrap")}>
+              <td className={tableStyles.number}>
+                <span className="font-semibold">{month.excursions}</span>{" "}
+                <span className="inline-block whitespace-nowrap text-ink-muted">
+                  {`in ${hoursText(month.monitoredHours)} h`}
+                </span>
+              </td>
+              <td className={tableStyles.number}>
                 {month.rate ? (
-                  rateText(month.rate)
+                  <RateWords rate={month.rate} />
                 ) : (
                   <span className="text-ink-muted">Not monitored</span>
                 )}
