@@ -3,6 +3,7 @@ import { accountRoutes } from "./modules/accounts/accounts.router";
 import { authRoutes } from "./modules/auth/auth.router";
 import { auditRoutes } from "./modules/audits/audits.router";
 import { committeeRoutes } from "./modules/committee/committee.router";
+import { committeePressureRoutes } from "./modules/committee/pressure.router";
 import { checklistRoutes } from "./modules/checklists/checklists.router";
 import { floorRoutes } from "./modules/floors/floors.router";
 import { identityRoutes } from "./modules/identity/identity.router";
@@ -30,5 +31,6 @@ export const apiRoutes = [
   ...auditRoutes,
   ...actionRoutes,
   ...committeeRoutes,
+  ...committeePressureRoutes,
   ...observationRoutes,
 ];

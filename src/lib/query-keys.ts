@@ -66,6 +66,8 @@ export const queryKeys = {
     comparison: (view: CommitteeQuery) => ["committee", "comparison", view] as const,
     observations: (period: { from: string; to: string }) =>
       ["committee", "observations", period] as const,
+    pressure: (period: Omit<CommitteeQuery, "siteA" | "siteB">) =>
+      ["committee", "pressure", period] as const,
   },
   checklists: {
     list: ["checklists", "list"] as const,

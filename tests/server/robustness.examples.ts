@@ -540,6 +540,10 @@ export const examples: Record<string, RouteExample> = {
   "GET /committee/observations/export": {
     control: () => ({ query: { from: "2026-01", to: "2026-06" } }),
   },
+  "GET /committee/pressure": { control: () => ({ query: { from: "2026-01", to: "2026-06" } }) },
+  "GET /committee/pressure/export": {
+    control: () => ({ query: { from: "2026-01", to: "2026-06" } }),
+  },
   "GET /sites/:siteId/actions": {
     control: (w) => ({
       params: { siteId: w.siteA },

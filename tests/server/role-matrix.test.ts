@@ -456,6 +456,16 @@ const samples: Record<string, Sample> = {
     ok: 200,
     allowed: everyone,
   },
+  "GET /committee/pressure": {
+    prepare: () => ({ url: "/api/committee/pressure?from=2026-01&to=2026-12" }),
+    ok: 200,
+    allowed: everyone,
+  },
+  "GET /committee/pressure/export": {
+    prepare: () => ({ url: "/api/committee/pressure/export?from=2026-01&to=2026-12" }),
+    ok: 200,
+    allowed: everyone,
+  },
   "GET /checklists": { prepare: () => ({ url: "/api/checklists" }), ok: 200, allowed: everyone },
   "PUT /checklists/:zoneType/draft": {
     prepare: () => ({

@@ -29,6 +29,44 @@ describe("exact (Garwood) Poisson interval", () => {
     expect(Math.round(interval.upper * 1000) / 1000).toBe(3.689);
   });
 
+  it("when the counts 0 to 10 are looked up, then the bounds match the printed table of exact 95% Poisson limits", () => {
+    // The standard printed table of exact (Garwood) 95% confidence limits for a Poisson count, as
+    // reproduced in epidemiology and biostatistics reference tables (from memory; three decimals,
+    // the same values as the SciPy checks below for the counts both list).
+    const table: [number, string, string][] = [
+      [0, "0", "3.689"],
+      [1, "0.0253", "5.572"],
+      [2, "0.242", "7.225"],
+      [3, "0.619", "8.767"],
+      [4, "1.090", "10.242"],
+      [5, "1.623", "11.668"],
+      [6, "2.202", "13.059"],
+      [7, "2.814", "14.423"],
+      [8, "3.454", "15.763"],
+      [9, "4.115", "17.085"],
+      [10, "4.795", "18.390"],
+    ];
+    // Within half a unit of the table's last printed digit.
+    const agrees = (value: number, printed: string) =>
+      Math.abs(value - Number(printed)) <= 0.5 * 10 ** -(printed.split(".")[1]?.length ?? 0);
+    for (const [count, lower, upper] of table) {
+      const interval = poissonInterval(count);
+      expect(agrees(interval.lower, lower), `count ${count}: lower ${interval.lower}`).toBe(true);
+      expect(agrees(interval.upper, upper), `count ${count}: upper ${interval.upper}`).toBe(true);
+    }
+  });
+
+  it("when a bound is recomputed from jStat's chi-square quantile, then it is the same number", () => {
+    // Garwood's relation written out once more: upper(k) = χ²(0.975; 2k + 2) / 2 and
+    // lower(k) = χ²(0.025; 2k) / 2; for k = 7 that is χ²(0.975; 16) / 2 and χ²(0.025; 14) / 2.
+    const interval = poissonInterval(7);
+    expect(interval.upper).toBeCloseTo(jStat.chisquare.inv(0.975, 16) / 2, 12);
+    expect(interval.lower).toBeCloseTo(jStat.chisquare.inv(0.025, 14) / 2, 12);
+    // And the printed 95% chi-square quantiles for 14 and 16 degrees of freedom (5.629, 28.845).
+    expect(Math.round(jStat.chisquare.inv(0.025, 14) * 1000) / 1000).toBe(5.629);
+    expect(Math.round(jStat.chisquare.inv(0.975, 16) * 1000) / 1000).toBe(28.845);
+  });
+
   it("when checked against SciPy's chi-square quantiles, then every bound agrees to nine significant figures", () => {
     // Computed with SciPy 1.17.1: chi2.ppf(0.025, 2k) / 2 and chi2.ppf(0.975, 2k + 2) / 2.
     const scipy: [number, number, number][] = [

@@ -8,11 +8,13 @@ import { formatInZone } from "@shared/calc/due";
 import { rulesVersion, severityLabels } from "@shared/calc/verdict";
 import { actionStateLabels } from "@shared/workflow/action-workflow";
 import type { ComparisonResponse, Proportion, TrendsResponse } from "@shared/schemas/committee";
+import type { CommitteePressureResponse } from "@shared/schemas/committee-pressure";
 import type { ObservationCommitteeResponse } from "@shared/schemas/observations";
 import { zoneTypeLabels } from "@shared/zones";
 
 import type { overdueActions } from "./committee.repository";
 import { networkLabel } from "./observations.csv";
+import { pressureSection } from "./pressure.report";
 
 const require = createRequire(import.meta.url);
 const fonts = {
@@ -28,6 +30,8 @@ export interface ReportInput {
   overdue: OverdueRow[];
   /** The observation figures; the section is left out when not given. */
   observations?: ObservationCommitteeResponse;
+  /** The room-pressure figures, on a page of their own; left out when not given. */
+  pressure?: CommitteePressureResponse;
   generatedAt: Date;
 }
 
@@ -241,6 +245,12 @@ export function buildMonthlyReport(input: ReportInput): Promise<Buffer> {
     );
 
   if (input.observations) observationSection(input.observations, { heading, paragraph, table });
+  if (input.pressure)
+    pressureSection(
+      input.pressure,
+      { addPage: () => doc.addPage(), heading, paragraph, table },
+      { ink, muted },
+    );
 
   doc.moveDown(1);
   paragraph(cautionText, 8, warn);

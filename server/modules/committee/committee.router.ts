@@ -16,6 +16,7 @@ import { atSite, defineRoute, type AnySiteAccess } from "../../lib/routes";
 import { requireSite } from "../sites/sites.service";
 import { buildMonthlyReport } from "./committee.report";
 import { observationCsv } from "./observations.csv";
+import { pressureFigures } from "./pressure.service";
 import * as committee from "./committee.service";
 import { exportAuditRows } from "./committee.repository";
 
@@ -181,10 +182,11 @@ export const committeeRoutes = [
     query: committeeQuerySchema,
     async handle({ res, deps, auth, query }) {
       const networkId = auth.user.networkId;
-      const [comparison, trends, observations] = await Promise.all([
+      const [comparison, trends, observations, pressure] = await Promise.all([
         committee.comparison(deps.db, networkId, auth.grants, query),
         committee.trends(deps.db, networkId, auth.grants, query),
         committee.observationFigures(deps.db, networkId, auth.grants, query),
+        pressureFigures(deps.db, networkId, auth.grants, query),
       ]);
       const sites = await committee.readableSites(deps.db, networkId, auth.grants);
       if (sites.length === 0) throw notFound("A site to report on");
@@ -197,6 +199,7 @@ export const committeeRoutes = [
         trends,
         overdue,
         observations,
+        pressure,
         generatedAt: new Date(),
       });
       res

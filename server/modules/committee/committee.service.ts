@@ -39,7 +39,7 @@ export async function readableSites(db: Database, networkId: string, grants: rea
 }
 
 /** The site ids a person's grants limit them to, or null when a network-wide grant covers all. */
-function grantedSiteIds(grants: readonly RoleGrant[]): string[] | null {
+export function grantedSiteIds(grants: readonly RoleGrant[]): string[] | null {
   if (grants.some((grant) => grant.siteId === null)) return null;
   return [...new Set(grants.flatMap((grant) => (grant.siteId ? [grant.siteId] : [])))];
 }

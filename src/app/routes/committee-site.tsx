@@ -4,6 +4,7 @@ import { useMemo } from "react";
 import { type LoaderFunctionArgs, useParams, useSearchParams } from "react-router-dom";
 
 import { committeeSiteQueryOptions } from "@/features/committee/api/get-committee-site";
+import { pressureFiguresQueryOptions } from "@/features/committee/api/get-pressure-figures";
 import { CommitteeSiteSpaces } from "@/features/committee/components/committee-site-spaces";
 import { periodOf, viewErrors, viewFromSearch } from "@/features/committee/lib/committee-view";
 
@@ -20,6 +21,7 @@ export function committeeSiteLoader(queryClient: QueryClient) {
       (await isSignedIn(queryClient))
     ) {
       void queryClient.prefetchQuery(committeeSiteQueryOptions(parsed.data.siteId, period));
+      void queryClient.prefetchQuery(pressureFiguresQueryOptions(period));
     }
     return null;
   };

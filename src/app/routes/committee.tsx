@@ -3,6 +3,7 @@ import { useCallback, useEffect, useMemo, useRef } from "react";
 import { type LoaderFunctionArgs, useNavigation, useSearchParams } from "react-router-dom";
 
 import { comparisonQueryOptions } from "@/features/committee/api/get-comparison";
+import { pressureFiguresQueryOptions } from "@/features/committee/api/get-pressure-figures";
 import { observationFiguresQueryOptions } from "@/features/committee/api/get-observation-figures";
 import { trendsQueryOptions } from "@/features/committee/api/get-trends";
 import { CommitteeOverview } from "@/features/committee/components/committee-overview";
@@ -23,6 +24,7 @@ export function committeeLoader(queryClient: QueryClient) {
       void queryClient.prefetchQuery(comparisonQueryOptions(view));
       void queryClient.prefetchQuery(trendsQueryOptions(periodOf(view)));
       void queryClient.prefetchQuery(observationFiguresQueryOptions(periodOf(view)));
+      void queryClient.prefetchQuery(pressureFiguresQueryOptions(periodOf(view)));
     }
     return null;
   };

@@ -1,8 +1,9 @@
 import { downloadAudits } from "../api/download-audits";
 import { downloadComparison } from "../api/download-comparison";
 import { downloadObservations } from "../api/download-observations";
+import { downloadPressure } from "../api/download-pressure";
 import { downloadReport } from "../api/download-report";
-import type { CommitteeView } from "../lib/committee-view";
+import { type CommitteeView, periodOf } from "../lib/committee-view";
 import { DownloadButton } from "./download-button";
 
 export const downloadLabels = {
@@ -10,6 +11,7 @@ export const downloadLabels = {
   comparison: "Download the comparison (CSV)",
   audits: "Download the audits (CSV)",
   observations: "Download the observation figures (CSV)",
+  pressure: "Download the room pressure figures (CSV)",
 } as const;
 
 /** The exports of the view on screen: the same period, zone type and pair of sites. */
@@ -45,6 +47,12 @@ export function CommitteeDownloads({ view }: { view: CommitteeView }) {
           what="the observation figures (CSV)"
           countsRows
           download={(options) => downloadObservations(view, options)}
+        />
+        <DownloadButton
+          label={downloadLabels.pressure}
+          what="the room pressure figures (CSV)"
+          countsRows
+          download={(options) => downloadPressure(periodOf(view), options)}
         />
       </div>
     </section>

@@ -9,6 +9,7 @@ import { Spinner } from "@/components/ui/spinner";
 import { paths } from "@/config/paths";
 
 import { useComparison } from "../api/get-comparison";
+import { useObservationFigures } from "../api/get-observation-figures";
 import { useTrends } from "../api/get-trends";
 import { periodText } from "../lib/committee-format";
 import { type CommitteeView, periodOf, viewErrors, viewToSearch } from "../lib/committee-view";
@@ -22,6 +23,7 @@ import { ComparisonSection } from "./comparison-section";
 import { DifferencePanel } from "./difference-panel";
 import { ObservationsSection } from "./observations-section";
 import { PChart } from "./p-chart";
+import { PressureSection } from "./pressure-section";
 
 export interface CommitteeOverviewProps {
   view: CommitteeView;
@@ -57,6 +59,8 @@ export function CommitteeOverview({ view, onViewChange }: CommitteeOverviewProps
   const period = periodOf(view);
   const comparison = useComparison(view, { enabled: valid });
   const trends = useTrends(period, { enabled: valid });
+  // Only watched here (the observations section fetches): room pressure waits until they are shown.
+  const observations = useObservationFigures(period, { enabled: false });
   const data = comparison.data;
   const pair = data ? defaultPair(data) : null;
   const pairA = !view.siteA && !view.siteB ? pair?.siteA : undefined;
@@ -164,6 +168,13 @@ export function CommitteeOverview({ view, onViewChange }: CommitteeOverviewProps
       {/* Last, and only once everything above has its size, so nothing on screen moves later. */}
       {valid && comparison.data && comparison.data.sites.length > 0 && !trends.isPending ? (
         <ObservationsSection period={period} />
+      ) : null}
+      {valid &&
+      comparison.data &&
+      comparison.data.sites.length > 0 &&
+      !trends.isPending &&
+      !observations.isPending ? (
+        <PressureSection period={period} />
       ) : null}
     </div>
   );

@@ -12,11 +12,13 @@ import { cn } from "@/lib/cn";
 import { formatDateTime } from "@/lib/format";
 
 import { useCommitteeSite } from "../api/get-committee-site";
+import { useObservationFigures } from "../api/get-observation-figures";
 import { tableStyles } from "../lib/chart-style";
 import { intervalText, percentText, periodText } from "../lib/committee-format";
 import { type CommitteePeriod, viewErrors, viewToSearch } from "../lib/committee-view";
 import "./committee-print.css";
 import { ObservationsSection } from "./observations-section";
+import { PressureSection } from "./pressure-section";
 
 type Space = SiteDrillDown["spaces"][number];
 
@@ -122,6 +124,8 @@ export interface CommitteeSiteSpacesProps {
 export function CommitteeSiteSpaces({ siteId, period }: CommitteeSiteSpacesProps) {
   const valid = Object.keys(viewErrors(period)).length === 0;
   const site = useCommitteeSite(siteId, period, { enabled: valid });
+  // Only watched here (the observations section fetches): room pressure waits until they are shown.
+  const observations = useObservationFigures(period, { enabled: false });
   const backHref = paths.committee.getHref(viewToSearch(period));
   const name = site.data?.siteName;
   const small = site.data?.spaces.some((space) => space.readiness.smallSample) ?? false;
@@ -172,6 +176,9 @@ export function CommitteeSiteSpaces({ siteId, period }: CommitteeSiteSpacesProps
       {/* Below the spaces, once they are shown (so nothing above it moves later), and only for
           a site the person may read. */}
       {valid && site.isSuccess ? <ObservationsSection period={period} siteId={siteId} /> : null}
+      {valid && site.isSuccess && !observations.isPending ? (
+        <PressureSection period={period} siteId={siteId} />
+      ) : null}
     </div>
   );
 }
