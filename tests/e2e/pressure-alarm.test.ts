@@ -194,6 +194,20 @@ describe("a Wexley room drifting positive, on the facilities lead's phone (390×
     await page.context().close();
   });
 
+  it("when a network administrator signs in, then the alarm card shows on home as well", async () => {
+    const { page, problems } = await phonePage(browser);
+    await signIn(page, "admin@example.org", password);
+    await page.getByRole("heading", { level: 1, name: "My sites" }).waitFor();
+    await page
+      .getByRole("list", { name: "Room pressure alarms" })
+      .getByRole("listitem", { name: "Isolation room 2, Wexley Rehabilitation Centre" })
+      .waitFor();
+    expect(await pageWidth(page)).toBeLessThanOrEqual(390);
+    await shot(page, "home-administrator");
+    expect(problems).toEqual([]);
+    await page.context().close();
+  });
+
   it("when the auditor reaches the isolation room's pressure item, then the room's last 24 hours are beside it in a line and in words", async () => {
     const { page, problems } = await phonePage(browser);
     await signIn(page, "auditor@example.org", password);

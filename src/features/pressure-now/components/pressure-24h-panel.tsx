@@ -93,6 +93,10 @@ export function Pressure24hPanel({ spaceId }: { spaceId: string }) {
     body = (
       <>
         <Sparkline day={day.data} />
+        <p className="flex justify-between text-xs" aria-hidden="true">
+          <span>24 hours ago</span>
+          <span>now</span>
+        </p>
         <p className="mt-1">{describeDay(day.data)}</p>
         <p className="mt-1 text-xs">
           Solid line: the mean of each minute. Dashed line: the room's threshold.
