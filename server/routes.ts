@@ -13,6 +13,7 @@ import { healthRoutes } from "./modules/health/health.router";
 import { mailRoutes } from "./modules/mail/mail.router";
 import { observationRoutes } from "./modules/observations/observations.router";
 import { peopleRoutes } from "./modules/people/people.router";
+import { pressureSiteRoutes } from "./modules/pressure/site.router";
 import { siteRoutes } from "./modules/sites/sites.router";
 
 /** Every API route with its declared access: the server mounts these and the role matrix tests them. */
@@ -33,4 +34,5 @@ export const apiRoutes = [
   ...committeeRoutes,
   ...committeePressureRoutes,
   ...observationRoutes,
+  ...pressureSiteRoutes,
 ];

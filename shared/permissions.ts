@@ -25,6 +25,8 @@ export const permissions = [
   "assign:action:site",
   /** The network's identity provider (single sign-on) settings. */
   "manage:identity-provider:network",
+  /** Someone at the site has seen a room-pressure alarm and says what was done. */
+  "acknowledge:pressure-alarm:site",
 ] as const;
 export type Permission = (typeof permissions)[number];
 
@@ -41,13 +43,21 @@ export const rolePermissions: Record<Role, readonly Permission[]> = {
     "manage:checklists:network",
     "assign:action:site",
     "manage:identity-provider:network",
+    "acknowledge:pressure-alarm:site",
   ],
-  auditor: ["read:site:site", "upload:image:site", "conduct:audit:site", "verify:action:site"],
+  auditor: [
+    "read:site:site",
+    "upload:image:site",
+    "conduct:audit:site",
+    "verify:action:site",
+    "acknowledge:pressure-alarm:site",
+  ],
   facilities_lead: [
     "read:site:site",
     "upload:image:site",
     "work:action:site",
     "assign:action:site",
+    "acknowledge:pressure-alarm:site",
   ],
   committee_member: ["read:site:site", "read:change-log:site"],
 };

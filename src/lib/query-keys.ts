@@ -75,6 +75,12 @@ export const queryKeys = {
   sequences: {
     list: ["sequences", "list"] as const,
   },
+  pressureNow: {
+    /** Every live pressure answer: each site's rooms now and each room's last day. */
+    all: ["pressure-now"] as const,
+    site: (siteId: string) => ["pressure-now", "site", siteId] as const,
+    day: (spaceId: string) => ["pressure-now", "day", spaceId] as const,
+  },
   observationSettings: {
     current: ["observation-settings", "current"] as const,
   },

@@ -4,6 +4,7 @@ import { proofFieldsSchema } from "@shared/schemas/actions";
 import { auditPhotoFieldsSchema } from "@shared/schemas/audits";
 
 import { buildObservation, publishedSequence } from "../factories/observations";
+import { insertAlarmH4, insertMonitorH4 } from "../factories/pressure-h4";
 import { buildSite } from "../factories/records";
 import { api } from "../helpers/app";
 import { uniqueDomain } from "../helpers/identity-provider";
@@ -406,6 +407,15 @@ export const examples: Record<string, RouteExample> = {
         { kind: "out_of_order", cause: "technique", spaceProblem: null, note: "Gown first" },
       ];
       return { params: { observationId: newId() }, body };
+    },
+  },
+  // Live room pressure
+  "POST /pressure-alarms/:alarmId/acknowledge": {
+    control: async (w) => {
+      const space = await w.fresh.space();
+      const monitor = await insertMonitorH4(w.app.deps.db, { id: space.id, siteId: w.siteA });
+      const alarm = await insertAlarmH4(w.app.deps.db, monitor);
+      return { params: { alarmId: alarm.id }, body: { note: "Door closed, fan reset" } };
     },
   },
   "PUT /observation-settings": {

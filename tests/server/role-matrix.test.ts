@@ -30,6 +30,7 @@ import {
 import { storeImage } from "../../server/lib/images";
 import { saveDraft as sequenceSaveDraft } from "../../server/modules/observations/sequences.service";
 import { buildObservation, publishedSequence } from "../factories/observations";
+import { insertAlarmH4, insertMonitorH4 } from "../factories/pressure-h4";
 import { restoreSite, retireSite } from "../../server/modules/floors/floors.retirement";
 import { apiRoutes } from "../../server/routes";
 import {
@@ -1109,6 +1110,32 @@ const samples: Record<string, Sample> = {
     prepare: () => ({ url: "/api/observation-settings" }),
     ok: 200,
     allowed: ["administrator (network)"],
+  },
+  "GET /sites/:siteId/pressure-now": {
+    prepare: (w) => ({ url: `/api/sites/${w.siteA}/pressure-now` }),
+    ok: 200,
+    allowed: readers,
+    hidden: notAtA,
+  },
+  "POST /pressure-alarms/:alarmId/acknowledge": {
+    prepare: async (w) => {
+      const { db } = testApp().deps;
+      const monitor = await insertMonitorH4(db, await spaceAtA(w));
+      const alarm = await insertAlarmH4(db, monitor);
+      return {
+        url: `/api/pressure-alarms/${alarm.id}/acknowledge`,
+        body: { note: "Door closed" },
+      };
+    },
+    ok: 200,
+    allowed: uploaders,
+    hidden: notAtA,
+  },
+  "GET /spaces/:spaceId/pressure-24h": {
+    prepare: async (w) => ({ url: `/api/spaces/${(await spaceAtA(w)).id}/pressure-24h` }),
+    ok: 200,
+    allowed: readers,
+    hidden: notAtA,
   },
   "PUT /observation-settings": {
     prepare: () => ({ url: "/api/observation-settings", body: { retentionDays: 365 } }),

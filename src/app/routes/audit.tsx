@@ -5,6 +5,10 @@ import { buttonStyles } from "@/components/ui/button";
 import { EmptyState } from "@/components/ui/empty-state";
 import { TextLink } from "@/components/ui/text-link";
 import { paths } from "@/config/paths";
+import {
+  Pressure24hAside,
+  showsPressureHistory,
+} from "@/features/pressure-now/components/pressure-24h-aside";
 import { AmendAuditForm } from "@/features/walkthroughs/components/amend-audit-form";
 import { AuditScreen } from "@/features/walkthroughs/components/audit-screen";
 import { useAuthorization } from "@/lib/authorization";
@@ -38,6 +42,11 @@ export function AuditRoute() {
       auditId={auditId}
       personId={me?.user.id ?? null}
       notFound={<AuditNotFound />}
+      itemAside={(item, detail) =>
+        showsPressureHistory(item.key, detail.audit.zoneType) ? (
+          <Pressure24hAside spaceId={detail.audit.spaceId} />
+        ) : null
+      }
       afterLinks={(detail) => (
         <>
           <Link to={paths.siteDue.getHref(detail.audit.siteId)} className={buttonStyles()}>

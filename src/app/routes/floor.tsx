@@ -19,6 +19,9 @@ import { floorQueryOptions, useFloor } from "@/features/floor-plans/api/get-floo
 import { FloorPlanView } from "@/features/floor-plans/components/floor-plan-view";
 import { FloorRetirement } from "@/features/floor-plans/components/floor-retirement";
 import type { MapPin } from "@/features/floor-plans/lib/map-pins";
+import { usePressureNow } from "@/features/pressure-now/api/get-pressure-now";
+import { FloorPressureList } from "@/features/pressure-now/components/floor-pressure-list";
+import { pressurePins } from "@/features/pressure-now/lib/pressure-pins";
 import { siteQueryOptions, useSite } from "@/features/sites/api/get-site";
 import { isObservedZone } from "@/features/walkthroughs/lib/observation-flow";
 import { isApiError } from "@/lib/api-client";
@@ -68,21 +71,29 @@ function FloorPage({ siteId, floorId }: { siteId: string; floorId: string }) {
   const site = useSite(siteId);
   const navigate = useNavigate();
   const actions = useSiteActions(siteId, openOn(floorId));
+  const pressure = usePressureNow(siteId);
   const [pinFilter, setPinFilter] = useState<PinFilter>(showAllPins);
   const shownActions = useMemo(
     () => applyPinFilter(actions.data ?? [], pinFilter),
     [actions.data, pinFilter],
   );
+  const floorSpaces = floor.data?.spaces;
   const pins = useMemo<MapPin[]>(
-    () =>
-      shownActions.map((action) => ({
+    () => [
+      // A room out of negative pressure, or silent, is marked over the room with its words.
+      ...pressurePins(pressure.data?.rooms ?? [], floorSpaces ?? []).map((pin) => ({
+        ...pin,
+        onSelect: () => void navigate(paths.spaceAudits.getHref(pin.id.slice("pressure-".length))),
+      })),
+      ...shownActions.map((action) => ({
         id: action.id,
         position: action.position,
         html: actionPinHtml(action),
         title: actionPinTitle(action),
         onSelect: () => void navigate(paths.action.getHref(action.id)),
       })),
-    [shownActions, navigate],
+    ],
+    [shownActions, navigate, pressure.data, floorSpaces],
   );
 
   if (floor.isPending) return <Spinner label="Loading floor…" className="py-8" />;
@@ -119,6 +130,7 @@ function FloorPage({ siteId, floorId }: { siteId: string; floorId: string }) {
         {building} · Level {level}
       </p>
       <div className="flex flex-col gap-6">
+        <FloorPressureList pressure={pressure.data} floorId={floorId} />
         <FloorPlanView
           detail={floor.data}
           canEdit={can("update:site:site", siteId)}

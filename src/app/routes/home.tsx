@@ -11,9 +11,11 @@ import { myChecksQueryOptions } from "@/features/actions/api/get-my-checks";
 import { ActionsToCheck } from "@/features/actions/components/actions-to-check";
 import { MyActions } from "@/features/actions/components/my-actions";
 import { undeliveredMailQueryOptions } from "@/features/admin/api/get-undelivered-mail";
+import { pressureNowQueryOptions } from "@/features/pressure-now/api/get-pressure-now";
+import { PressureAlarmCards } from "@/features/pressure-now/components/pressure-alarm-cards";
 import { UndeliveredMailNotice } from "@/features/admin/components/undelivered-mail-notice";
 import { retiredSitesQueryOptions } from "@/features/sites/api/get-retired-sites";
-import { sitesQueryOptions } from "@/features/sites/api/get-sites";
+import { sitesQueryOptions, useSites } from "@/features/sites/api/get-sites";
 import { RetiredSites } from "@/features/sites/components/retired-sites";
 import { SitesList } from "@/features/sites/components/sites-list";
 import { myDueQueryOptions } from "@/features/walkthroughs/api/get-my-due";
@@ -44,6 +46,7 @@ export function HomeRoute() {
   const mayVerify = canAnywhere("verify:action:site");
   const mayAudit = canAnywhere("conduct:audit:site");
   const mayCreate = can("create:site:network");
+  const siteIds = (useSites().data ?? []).map((site) => site.id);
   // The lists below arrive one by one; shown together, none pushes another down the screen.
   const settled = useSettled([
     mayResend && undeliveredMailQueryOptions(),
@@ -52,6 +55,7 @@ export function HomeRoute() {
     mayAudit && myDueQueryOptions(),
     sitesQueryOptions(),
     mayCreate && retiredSitesQueryOptions(),
+    ...siteIds.map((siteId) => pressureNowQueryOptions(siteId)),
   ]);
   return (
     <>
@@ -76,6 +80,11 @@ export function HomeRoute() {
       ) : null}
       {settled ? (
         <>
+          <PressureAlarmCards
+            siteIds={siteIds}
+            canAcknowledge={(siteId) => can("acknowledge:pressure-alarm:site", siteId)}
+            spaceHref={paths.spaceAudits.getHref}
+          />
           {mayResend ? <UndeliveredMailNotice href={paths.undeliveredMail.getHref()} /> : null}
           {mayWork ? <MyActions actionHref={paths.action.getHref} /> : null}
           {mayVerify ? <ActionsToCheck actionHref={paths.action.getHref} /> : null}

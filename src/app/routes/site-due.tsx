@@ -6,6 +6,8 @@ import { buttonStyles } from "@/components/ui/button";
 import { CautionNote } from "@/components/ui/caution-note";
 import { TextLink } from "@/components/ui/text-link";
 import { paths } from "@/config/paths";
+import { usePressureNow } from "@/features/pressure-now/api/get-pressure-now";
+import { liveStateOf } from "@/features/pressure-now/components/room-live-state";
 import { siteQueryOptions, useSite } from "@/features/sites/api/get-site";
 import { siteScheduleQueryOptions } from "@/features/walkthroughs/api/get-site-schedule";
 import { SchedulePanel } from "@/features/walkthroughs/components/due-list";
@@ -28,6 +30,7 @@ export function siteDueLoader(queryClient: QueryClient) {
 function SiteDuePage({ siteId }: { siteId: string }) {
   const { can } = useAuthorization();
   const site = useSite(siteId);
+  const pressure = usePressureNow(siteId);
   const siteName = site.data?.name;
 
   return (
@@ -60,6 +63,7 @@ function SiteDuePage({ siteId }: { siteId: string }) {
           startHref={paths.startAudit.getHref}
           historyHref={paths.spaceAudits.getHref}
           observeHref={paths.startObservation.getHref}
+          liveState={liveStateOf(pressure.data)}
         />
         <CautionNote />
       </div>

@@ -9,7 +9,7 @@ import { isApiError } from "@/lib/api-client";
 import { useAudit } from "../api/get-audit";
 import { useLocalAudit } from "../hooks/use-local-audit";
 import { auditDevice, hasOfflineStorage } from "../lib/audit-device";
-import { AuditWalkthrough, SubmittedAudit } from "./audit-walkthrough";
+import { AuditWalkthrough, type ItemAside, SubmittedAudit } from "./audit-walkthrough";
 
 /** Brings a draft this person began elsewhere onto the phone, then the walkthrough takes over. */
 function AdoptDraft({ detail }: { detail: AuditDetail }) {
@@ -34,6 +34,8 @@ export interface AuditScreenProps {
   /** The signed-in person, when known (not known offline). */
   personId: string | null;
   afterLinks?: (detail: AuditDetail) => ReactNode;
+  /** What the page shows beside an item while the audit is answered. */
+  itemAside?: ItemAside;
   notFound: ReactNode;
 }
 
@@ -42,13 +44,21 @@ export interface AuditScreenProps {
  * server — read-only when submitted or someone else's, taken onto the phone when it is this
  * person's draft.
  */
-export function AuditScreen({ auditId, personId, afterLinks, notFound }: AuditScreenProps) {
+export function AuditScreen({
+  auditId,
+  personId,
+  afterLinks,
+  itemAside,
+  notFound,
+}: AuditScreenProps) {
   const local = useLocalAudit(auditId);
   const server = useAudit(auditId, { enabled: local.status === "absent" });
 
   if (local.status === "loading") return <Spinner label="Opening the audit…" className="py-8" />;
   if (local.status === "ready") {
-    return <AuditWalkthrough snapshot={local.snapshot} afterLinks={afterLinks} />;
+    return (
+      <AuditWalkthrough snapshot={local.snapshot} afterLinks={afterLinks} itemAside={itemAside} />
+    );
   }
   if (server.isPending) return <Spinner label="Opening the audit…" className="py-8" />;
   if (server.isError) {

@@ -98,13 +98,17 @@ function firstUnanswered(
   return index === -1 ? 0 : index;
 }
 
+/** What a page shows beside an item of a draft, e.g. a room's recorded pressure beside its pressure item. */
+export type ItemAside = (item: AuditDetail["items"][number], detail: AuditDetail) => ReactNode;
+
 interface DraftProps {
   auditId: string;
   detail: AuditDetail;
   snapshot: LocalAuditSnapshot;
+  itemAside?: ItemAside;
 }
 
-function DraftWalkthrough({ auditId, detail, snapshot }: DraftProps) {
+function DraftWalkthrough({ auditId, detail, snapshot, itemAside }: DraftProps) {
   const { answers, photos, changes, audit } = snapshot;
   const items = detail.items;
   const actions = useAuditActions(auditId);
@@ -196,6 +200,7 @@ function DraftWalkthrough({ auditId, detail, snapshot }: DraftProps) {
             onSave={(fields) => actions.answer(item.id, fields)}
             onAddPhoto={(file) => actions.addPhoto(item.id, file)}
             onRemovePhoto={actions.removePhoto}
+            aside={itemAside?.(item, detail)}
           />
           <nav
             aria-label="Items"
@@ -272,10 +277,11 @@ export interface AuditWalkthroughProps {
   snapshot: LocalAuditSnapshot;
   /** Links for the end of the audit: back to the site's due list, the space's history. */
   afterLinks?: (detail: AuditDetail) => ReactNode;
+  itemAside?: ItemAside;
 }
 
 /** An audit held on this phone: the walkthrough while it is a draft, the verdict once submitted. */
-export function AuditWalkthrough({ snapshot, afterLinks }: AuditWalkthroughProps) {
+export function AuditWalkthrough({ snapshot, afterLinks, itemAside }: AuditWalkthroughProps) {
   const { audit, answers, photos, changes } = snapshot;
   const detail = audit.detail;
   const spaceName = detail?.audit.spaceName ?? audit.spaceName ?? "Audit";
@@ -288,7 +294,14 @@ export function AuditWalkthrough({ snapshot, afterLinks }: AuditWalkthroughProps
   if (!detail) {
     body = <WaitingForChecklist problem={startProblem?.message ?? null} />;
   } else if (audit.state === "draft") {
-    body = <DraftWalkthrough auditId={audit.auditId} detail={detail} snapshot={snapshot} />;
+    body = (
+      <DraftWalkthrough
+        auditId={audit.auditId}
+        detail={detail}
+        snapshot={snapshot}
+        itemAside={itemAside}
+      />
+    );
   } else {
     const confirmed = audit.state === "submitted" && detail.audit.verdict !== null;
     const local = resultOnPhone(detail.audit.zoneType, detail.items, answers);

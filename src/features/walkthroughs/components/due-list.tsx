@@ -27,6 +27,11 @@ export interface DueLinks {
   historyHref: (spaceId: string) => string;
   /** Where to observe putting on or removal, shown for donning zones, doffing areas and anterooms. */
   observeHref?: (spaceId: string) => string;
+  /**
+   * The space's live state where the page knows one (a room out of negative pressure now): shown
+   * first, ahead of what its last audit said.
+   */
+  liveState?: (spaceId: string) => ReactNode;
 }
 
 const stateLabels: Record<ScheduleEntry["state"], string> = {
@@ -119,14 +124,21 @@ function DueItem({
   startHref,
   historyHref,
   observeHref,
+  liveState,
 }: DueItemProps) {
   const headingId = useId();
+  const live = liveState?.(entry.spaceId) ?? null;
+  const verdict = entry.verdict ? (
+    <VerdictBadge verdict={entry.verdict} />
+  ) : (
+    <Badge tone="muted">No audit yet</Badge>
+  );
   return (
     <li
       aria-labelledby={headingId}
       className={cn(
         "rounded-lg border bg-surface p-3",
-        entry.state === "overdue"
+        entry.state === "overdue" || live
           ? "border-l-4 border-surface-line border-l-verdict-not-ready"
           : "border-surface-line",
       )}
@@ -140,12 +152,13 @@ function DueItem({
             {zoneTypeLabels[entry.zoneType]} · {entry.floorName}
           </p>
         </div>
-        {entry.verdict ? (
-          <VerdictBadge verdict={entry.verdict} />
-        ) : (
-          <Badge tone="muted">No audit yet</Badge>
-        )}
+        {live ?? verdict}
       </div>
+      {live ? (
+        <p className="mt-1 flex flex-wrap items-center gap-1.5 text-sm text-ink-muted">
+          Last audit: {verdict}
+        </p>
+      ) : null}
       <div className="mt-2 flex flex-col gap-0.5">
         <DueState entry={entry} />
         <p className="text-sm text-ink-muted">

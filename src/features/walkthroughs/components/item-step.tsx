@@ -2,7 +2,7 @@ import { airChangesAgree, minimumAirChangesLabel } from "@shared/calc/ventilatio
 import type { Outcome } from "@shared/calc/verdict";
 import type { ReadingUnit } from "@shared/schemas/audits";
 import type { ChecklistItem } from "@shared/schemas/checklists";
-import { type Ref, useCallback, useEffect, useId, useRef, useState } from "react";
+import { type ReactNode, type Ref, useCallback, useEffect, useId, useRef, useState } from "react";
 
 import { Alert } from "@/components/ui/alert";
 import { CautionNote } from "@/components/ui/caution-note";
@@ -183,6 +183,8 @@ export interface ItemStepProps {
   onSave: (fields: AnswerFields) => Promise<void>;
   onAddPhoto: (file: File) => Promise<void>;
   onRemovePhoto: (photoId: string) => Promise<boolean>;
+  /** What the page shows beside this item (a room's recorded pressure beside its pressure item). */
+  aside?: ReactNode;
 }
 
 /**
@@ -201,6 +203,7 @@ export function ItemStep({
   onSave,
   onAddPhoto,
   onRemovePhoto,
+  aside,
 }: ItemStepProps) {
   const headingId = useId();
   const [texts, setTexts] = useState<Texts>(() => textsOf(item, answer));
@@ -361,6 +364,7 @@ export function ItemStep({
           <p className="text-xs text-ink-muted">Reference: {item.reference}</p>
         ) : null}
       </div>
+      {aside}
 
       {quantity ? (
         <div className="flex flex-col gap-3">
