@@ -45,8 +45,9 @@ async function rollUp(table: "pressure_minutes" | "pressure_hours", monitorId: s
     min_pa: number;
     max_pa: number;
     door_open_readings: number;
+    minutes_with_readings?: number;
   }>(
-    sql`select bucket_start, readings, sum_pa, min_pa, max_pa, door_open_readings from ${sql.identifier(table)} where monitor_id = ${monitorId} order by bucket_start`,
+    sql`select bucket_start, readings, sum_pa, min_pa, max_pa, door_open_readings${table === "pressure_hours" ? sql`, minutes_with_readings` : sql``} from ${sql.identifier(table)} where monitor_id = ${monitorId} order by bucket_start`,
   );
   return result.rows.map((row) => ({
     ...row,
@@ -108,6 +109,8 @@ describe("storing room-pressure readings", () => {
         min_pa: -5,
         max_pa: -3,
         door_open_readings: 1,
+        // 09:00 and 09:01 each had a reading; the redelivery added no minute.
+        minutes_with_readings: 2,
       },
     ]);
   });

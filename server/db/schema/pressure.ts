@@ -209,7 +209,16 @@ export const pressureMinutes = pgTable("pressure_minutes", rollUpColumns(), (tab
   primaryKey({ columns: [table.monitorId, table.bucketStart] }),
 ]);
 
-/** One row a monitor and hour; kept for years, after the raw readings are dropped. */
-export const pressureHours = pgTable("pressure_hours", rollUpColumns(), (table) => [
-  primaryKey({ columns: [table.monitorId, table.bucketStart] }),
-]);
+/**
+ * One row a monitor and hour; kept for years, after the raw readings are dropped. It also counts
+ * the minutes of the hour that had a reading, so monitored time is read from these rows (sixty
+ * times fewer than the minutes) by the committee's figures.
+ */
+export const pressureHours = pgTable(
+  "pressure_hours",
+  {
+    ...rollUpColumns(),
+    minutesWithReadings: integer("minutes_with_readings").notNull().default(0),
+  },
+  (table) => [primaryKey({ columns: [table.monitorId, table.bucketStart] })],
+);

@@ -19,7 +19,9 @@ const siteArray = (siteIds: readonly string[]) => sql`${`{${siteIds.join(",")}}`
  * monitor sent a reading in, the seconds of out-of-range excursions inside the month (from the
  * first reading out of range, so the grace time counts, to the end or `now` for one still
  * running) and the excursions that started in the month. Grouped in PostgreSQL: the minutes are
- * counted through the roll-up's primary key, one range per monitor and month.
+ * summed from the hourly roll-ups' count of minutes with a reading, through their primary key,
+ * one range per monitor and month (hours are UTC hours: a site on a half-hour offset has its
+ * month's first and last half hour counted in the neighbouring month).
  */
 export const pressureQueries = {
   figures: (
@@ -48,12 +50,12 @@ export const pressureQueries = {
         join spaces sp on sp.id = pm.space_id ${zone}
        where pm.site_id in (select id from readable)
     ), monitored as (
-      select mo.site_id, mo.space_id, m.month, count(*)::int as minutes
+      select mo.site_id, mo.space_id, m.month, sum(ph.minutes_with_readings)::int as minutes
         from monitors mo
         join months m on m.site_id = mo.site_id
-        join pressure_minutes pmn
-          on pmn.monitor_id = mo.monitor_id
-         and pmn.bucket_start >= m.starts and pmn.bucket_start < m.ends
+        join pressure_hours ph
+          on ph.monitor_id = mo.monitor_id
+         and ph.bucket_start >= m.starts and ph.bucket_start < m.ends
        group by mo.site_id, mo.space_id, m.month
     ), excursions as (
       select pa.site_id, pa.space_id, m.month,

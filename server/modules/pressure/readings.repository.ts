@@ -25,7 +25,8 @@ export interface StoreOutcome {
 
 /**
  * Stores readings idempotently, in one statement: the raw rows (unique on monitor and time, the
- * first received wins) and, from exactly the rows inserted, the one-minute and one-hour roll-ups.
+ * first received wins) and, from exactly the rows inserted, the one-minute and one-hour roll-ups
+ * (the hour also counts its minutes that had a reading: the minute rows this statement created).
  * A redelivered reading inserts nothing and so changes no roll-up. Readings dated more than the
  * allowed skew ahead of `now` are refused and counted.
  */
@@ -75,13 +76,27 @@ export async function storeReadings(
           min_pa = least(pressure_minutes.min_pa, excluded.min_pa),
           max_pa = greatest(pressure_minutes.max_pa, excluded.max_pa),
           door_open_readings = pressure_minutes.door_open_readings + excluded.door_open_readings
+        returning monitor_id, bucket_start, (xmax = 0) as created
+      ),
+      new_minutes as (
+        select monitor_id, date_trunc('hour', bucket_start, 'UTC') as bucket_start,
+               count(*) filter (where created)::int as created
+        from minutes group by 1, 2
       ),
       hours as (
-        insert into pressure_hours (monitor_id, bucket_start, readings, sum_pa, min_pa, max_pa, door_open_readings)
-        select monitor_id, date_trunc('hour', measured_at, 'UTC'), count(*), sum(pressure_pa),
-          min(pressure_pa), max(pressure_pa), count(*) filter (where door = 'open')
-        from inserted group by 1, 2 order by 1, 2
+        insert into pressure_hours (monitor_id, bucket_start, readings, sum_pa, min_pa, max_pa, door_open_readings, minutes_with_readings)
+        select h.monitor_id, h.bucket_start, h.readings, h.sum_pa, h.min_pa, h.max_pa, h.door_open_readings,
+               coalesce(n.created, 0)
+        from (
+          select monitor_id, date_trunc('hour', measured_at, 'UTC') as bucket_start, count(*) as readings,
+            sum(pressure_pa) as sum_pa, min(pressure_pa) as min_pa, max(pressure_pa) as max_pa,
+            count(*) filter (where door = 'open') as door_open_readings
+          from inserted group by 1, 2
+        ) h
+        left join new_minutes n using (monitor_id, bucket_start)
+        order by 1, 2
         on conflict (monitor_id, bucket_start) do update set
+          minutes_with_readings = pressure_hours.minutes_with_readings + excluded.minutes_with_readings,
           readings = pressure_hours.readings + excluded.readings,
           sum_pa = pressure_hours.sum_pa + excluded.sum_pa,
           min_pa = least(pressure_hours.min_pa, excluded.min_pa),
