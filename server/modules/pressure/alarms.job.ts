@@ -84,13 +84,11 @@ async function snapshotOf(
   let from = new Date((monitor.evaluatedThrough ?? watchingSince).getTime() - lookBackMs(policy));
   if (openSince && openSince < from) from = openSince;
   if (from < watchingSince) from = watchingSince;
-  const [readings, before, rows] = await Promise.all([
-    repo.readingsBetween(db, monitor.monitorId, from, now),
-    from > watchingSince
-      ? repo.readingBefore(db, monitor.monitorId, from, watchingSince)
-      : Promise.resolve(null),
-    repo.alarmsSince(db, monitor.id, from),
-  ]);
+  // One after another: inside a transaction they share one connection.
+  const readings = await repo.readingsBetween(db, monitor.monitorId, from, now);
+  const before =
+    from > watchingSince ? await repo.readingBefore(db, monitor.monitorId, from, watchingSince) : null;
+  const rows = await repo.alarmsSince(db, monitor.id, from);
   const all = before ? [before, ...readings] : readings;
   // Without a reading before the window, the window reaches back to the mapping.
   const analysis = analysePressure(all, now, policy, before ? {} : { watchingSince });

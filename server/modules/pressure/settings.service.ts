@@ -12,10 +12,8 @@ const defaultActionLimitMinutes = defaultExcursionPolicy.actionLimitMs / 60_000;
 
 /** Whom an alarm of the site e-mails: the chosen people, or its facilities leads and auditors. */
 export async function alarmRecipients(db: DbOrTx, siteId: string): Promise<repo.Person[]> {
-  const [settings, people] = await Promise.all([
-    repo.settingsOf(db, siteId),
-    repo.peopleOfSite(db, siteId),
-  ]);
+  const settings = await repo.settingsOf(db, siteId);
+  const people = await repo.peopleOfSite(db, siteId);
   if (!settings?.recipientsChosen)
     return people.filter(
       (person) => person.roles.includes("facilities_lead") || person.roles.includes("auditor"),
@@ -47,11 +45,9 @@ export async function pressureSettings(
   db: DbOrTx,
   siteId: string,
 ): Promise<PressureSettingsResponse> {
-  const [settings, people, notified] = await Promise.all([
-    repo.settingsOf(db, siteId),
-    repo.peopleOfSite(db, siteId),
-    alarmRecipients(db, siteId),
-  ]);
+  const settings = await repo.settingsOf(db, siteId);
+  const people = await repo.peopleOfSite(db, siteId);
+  const notified = await alarmRecipients(db, siteId);
   const chosen = settings?.recipientsChosen ? await repo.chosenRecipientIds(db, siteId) : null;
   return {
     graceSeconds: settings?.graceSeconds ?? null,
