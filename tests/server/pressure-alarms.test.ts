@@ -3,12 +3,7 @@ import { describe, expect, it } from "vitest";
 
 import type { PressureReading } from "@shared/schemas/pressure-readings";
 
-import {
-  correctiveActions,
-  outbox,
-  pressureAlarms,
-  spaces,
-} from "../../server/db/schema/index";
+import { correctiveActions, outbox, pressureAlarms, spaces } from "../../server/db/schema/index";
 import { evaluatePressureAlarms } from "../../server/modules/pressure/alarms.job";
 import { storeReadings } from "../../server/modules/pressure/readings.repository";
 import { insertMonitoredRoom, timeline } from "../factories/pressure-h2";
@@ -55,7 +50,8 @@ async function play(
   for (let t = from.getTime(); t <= to.getTime(); t += stepSeconds * 1000) {
     const now = new Date(t);
     const due: PressureReading[] = [];
-    while (next < sorted.length && sorted[next]!.measuredAt.getTime() <= t) due.push(sorted[next++]!);
+    while (next < sorted.length && sorted[next]!.measuredAt.getTime() <= t)
+      due.push(sorted[next++]!);
     if (due.length > 0) await storeReadings(db(), due, { source: "mqtt", now });
     await run(room, now);
   }
@@ -72,7 +68,12 @@ async function alarmsOf(room: Room) {
 async function mailsFor(room: Room) {
   const people = [room.lead.id, room.auditor.id, room.admin.id];
   const rows = await db()
-    .select({ topic: outbox.topic, recipientId: outbox.recipientId, subject: outbox.subject, text: outbox.textBody })
+    .select({
+      topic: outbox.topic,
+      recipientId: outbox.recipientId,
+      subject: outbox.subject,
+      text: outbox.textBody,
+    })
     .from(outbox)
     .where(inArray(outbox.recipientId, people))
     .orderBy(asc(outbox.createdAt));
@@ -82,7 +83,10 @@ async function mailsFor(room: Room) {
 }
 
 const topics = (mails: Awaited<ReturnType<typeof mailsFor>>, topic: string) =>
-  mails.filter((mail) => mail.topic === topic).map((mail) => mail.to).sort();
+  mails
+    .filter((mail) => mail.topic === topic)
+    .map((mail) => mail.to)
+    .sort();
 
 /** −5 Pa, out of range (+1 Pa) for the minutes in `out`, every 10 s. */
 const negativeExcept =
@@ -147,13 +151,31 @@ describe("room-pressure alarms", () => {
     const far = await insertMonitoredRoom(db(), { mappedAt: start });
     await play(
       near,
-      timeline(near.monitorId, start, 20 * 60, 10, negativeExcept([[3, 5], [6, 8]])),
+      timeline(
+        near.monitorId,
+        start,
+        20 * 60,
+        10,
+        negativeExcept([
+          [3, 5],
+          [6, 8],
+        ]),
+      ),
       start,
       at(start, 20),
     );
     await play(
       far,
-      timeline(far.monitorId, start, 20 * 60, 10, negativeExcept([[3, 5], [8, 10]])),
+      timeline(
+        far.monitorId,
+        start,
+        20 * 60,
+        10,
+        negativeExcept([
+          [3, 5],
+          [8, 10],
+        ]),
+      ),
       start,
       at(start, 20),
     );
@@ -218,7 +240,16 @@ describe("room-pressure alarms", () => {
   it("when an excursion passes the action limit, then it becomes a critical finding on room.pressure, and a second one joins the same unfinished action", async () => {
     const start = newStart();
     const room = await insertMonitoredRoom(db(), { mappedAt: start });
-    const readings = timeline(room.monitorId, start, 60 * 60, 10, negativeExcept([[2, 20], [30, 48]]));
+    const readings = timeline(
+      room.monitorId,
+      start,
+      60 * 60,
+      10,
+      negativeExcept([
+        [2, 20],
+        [30, 48],
+      ]),
+    );
     await play(room, readings, start, at(start, 60), 60);
 
     const alarms = await alarmsOf(room);
@@ -289,7 +320,12 @@ describe("room-pressure alarms", () => {
     await play(room, readings, start, at(start, 12));
     const [alarm, ...rest] = await alarmsOf(room);
     expect(rest).toEqual([]);
-    expect(alarm).toMatchObject({ startedAt: at(start, 3), endedAt: at(start, 6), worstValue: -0.009, worstUnit: "inH2O" });
+    expect(alarm).toMatchObject({
+      startedAt: at(start, 3),
+      endedAt: at(start, 6),
+      worstValue: -0.009,
+      worstUnit: "inH2O",
+    });
     const started = (await mailsFor(room)).find((mail) => mail.topic === "pressure_alarm_started")!;
     expect(started.text).toContain("−0.009 in. w.c.");
   });
@@ -339,7 +375,12 @@ describe("room-pressure alarms", () => {
     await setPressureSettings(
       db(),
       room.site.id,
-      { graceSeconds: null, doorGraceSeconds: null, actionLimitMinutes: null, recipients: [room.admin.id] },
+      {
+        graceSeconds: null,
+        doorGraceSeconds: null,
+        actionLimitMinutes: null,
+        recipients: [room.admin.id],
+      },
       { userId: room.admin.id, requestId: null },
     );
     await play(

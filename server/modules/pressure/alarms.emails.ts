@@ -27,9 +27,7 @@ const footnote =
 export function formatPressure(value: number, unit: "Pa" | "inH2O"): string {
   const sign = value < 0 ? "−" : "";
   const figure = Math.abs(value);
-  return unit === "Pa"
-    ? `${sign}${figure.toFixed(1)} Pa`
-    : `${sign}${figure.toFixed(3)} in. w.c.`;
+  return unit === "Pa" ? `${sign}${figure.toFixed(1)} Pa` : `${sign}${figure.toFixed(3)} in. w.c.`;
 }
 
 /** "1 h 5 min", "12 min", "40 s". */

@@ -87,7 +87,9 @@ async function snapshotOf(
   // One after another: inside a transaction they share one connection.
   const readings = await repo.readingsBetween(db, monitor.monitorId, from, now);
   const before =
-    from > watchingSince ? await repo.readingBefore(db, monitor.monitorId, from, watchingSince) : null;
+    from > watchingSince
+      ? await repo.readingBefore(db, monitor.monitorId, from, watchingSince)
+      : null;
   const rows = await repo.alarmsSince(db, monitor.id, from);
   const all = before ? [before, ...readings] : readings;
   // Without a reading before the window, the window reaches back to the mapping.
@@ -118,8 +120,7 @@ function stepsOf(snapshot: Snapshot): Step[] {
     const row =
       rows.find(
         (candidate) =>
-          candidate.kind === "out_of_range" &&
-          overlaps(candidate, excursion.start, excursion.end),
+          candidate.kind === "out_of_range" && overlaps(candidate, excursion.start, excursion.end),
       ) ?? null;
     // An ended alarm is history: later readings never reopen it or mail again.
     if (row?.endedAt) continue;

@@ -68,9 +68,8 @@ export async function watchedMonitors(
 ): Promise<WatchedMonitor[]> {
   if (monitorIds && monitorIds.length === 0) return [];
   const query = watchedQuery(db);
-  const rows = await (monitorIds
-    ? query.where(inArray(pressureMonitors.monitorId, [...monitorIds]))
-    : query
+  const rows = await (
+    monitorIds ? query.where(inArray(pressureMonitors.monitorId, [...monitorIds])) : query
   ).orderBy(asc(pressureMonitors.spaceId));
   return rows;
 }
@@ -248,7 +247,10 @@ export async function saveSettings(
   await db
     .insert(pressureSiteSettings)
     .values({ siteId, ...values, updatedAt: now })
-    .onConflictDoUpdate({ target: pressureSiteSettings.siteId, set: { ...values, updatedAt: now } });
+    .onConflictDoUpdate({
+      target: pressureSiteSettings.siteId,
+      set: { ...values, updatedAt: now },
+    });
 }
 
 export async function chosenRecipientIds(db: DbOrTx, siteId: string): Promise<string[]> {
@@ -267,9 +269,7 @@ export async function replaceRecipients(
 ): Promise<void> {
   await db.delete(pressureAlarmRecipients).where(eq(pressureAlarmRecipients.siteId, siteId));
   if (userIds.length > 0)
-    await db
-      .insert(pressureAlarmRecipients)
-      .values(userIds.map((userId) => ({ siteId, userId })));
+    await db.insert(pressureAlarmRecipients).values(userIds.map((userId) => ({ siteId, userId })));
 }
 
 /**
@@ -303,7 +303,12 @@ export async function peopleOfSite(
     .orderBy(asc(users.displayName), asc(users.id));
   const people = new Map<string, Person & { roles: string[] }>();
   for (const row of rows) {
-    const person = people.get(row.id) ?? { id: row.id, name: row.name, email: row.email, roles: [] };
+    const person = people.get(row.id) ?? {
+      id: row.id,
+      name: row.name,
+      email: row.email,
+      roles: [],
+    };
     if (!person.roles.includes(row.role)) person.roles.push(row.role);
     people.set(row.id, person);
   }

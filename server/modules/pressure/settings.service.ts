@@ -1,5 +1,12 @@
-import { defaultExcursionPolicy, excursionPolicy, type ExcursionPolicy } from "@shared/calc/pressure-excursions";
-import type { PressureSettingsBody, PressureSettingsResponse } from "@shared/schemas/pressure-alarms";
+import {
+  defaultExcursionPolicy,
+  excursionPolicy,
+  type ExcursionPolicy,
+} from "@shared/calc/pressure-excursions";
+import type {
+  PressureSettingsBody,
+  PressureSettingsResponse,
+} from "@shared/schemas/pressure-alarms";
 
 import type { Database, DbOrTx } from "../../db/client";
 import { AppError } from "../../lib/app-error";
@@ -30,7 +37,10 @@ export function sitePolicy(settings: {
   thresholdPa?: number | null;
 }): ExcursionPolicy {
   const graceMs = (settings.graceSeconds ?? defaultGraceSeconds) * 1000;
-  const doorGraceMs = Math.max(graceMs, (settings.doorGraceSeconds ?? defaultDoorGraceSeconds) * 1000);
+  const doorGraceMs = Math.max(
+    graceMs,
+    (settings.doorGraceSeconds ?? defaultDoorGraceSeconds) * 1000,
+  );
   return excursionPolicy({
     graceMs,
     doorGraceMs,
