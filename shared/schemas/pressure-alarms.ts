@@ -16,6 +16,24 @@ export const pressureSettingsLimits = {
 const wholeNumber = (min: number, max: number) =>
   numberInput().int({ message: "Must be a whole number." }).min(min).max(max).nullable();
 
+const recipientIds = z.array(uuidSchema).max(200);
+const chooseWords =
+  'Choose people of this site, or "default" for its facilities leads and auditors.';
+
+/** "default", or a list of people's ids; a wrong id is named by its place (recipients.2). */
+const recipientsSchema = z.unknown().transform((value, ctx): "default" | string[] => {
+  if (value === "default") return "default";
+  if (Array.isArray(value)) {
+    const parsed = recipientIds.safeParse(value);
+    if (parsed.success) return parsed.data;
+    for (const issue of parsed.error.issues)
+      ctx.addIssue({ code: "custom", message: issue.message, path: issue.path });
+    return z.NEVER;
+  }
+  ctx.addIssue({ code: "custom", message: value === undefined ? "Required." : chooseWords });
+  return z.NEVER;
+});
+
 export const pressureSettingsBodySchema = z
   .strictObject({
     graceSeconds: wholeNumber(
@@ -30,9 +48,7 @@ export const pressureSettingsBodySchema = z
       pressureSettingsLimits.actionLimitMinutes.min,
       pressureSettingsLimits.actionLimitMinutes.max,
     ),
-    recipients: z.union([z.literal("default"), z.array(uuidSchema).max(200)], {
-      error: 'Choose people of this site, or "default" for its facilities leads and auditors.',
-    }),
+    recipients: recipientsSchema,
   })
   .superRefine((body, ctx) => {
     const grace = body.graceSeconds ?? 60;
@@ -58,12 +74,12 @@ export const pressureSettingsResponseSchema = z.object({
     doorGraceSeconds: z.number(),
     actionLimitMinutes: z.number(),
   }),
-  recipients: z.union([z.literal("default"), z.array(z.string())]),
+  recipients: z.union([z.literal("default"), z.array(responseText())]),
   /** Who is told now: the chosen people, or the site's facilities leads and auditors. */
-  notified: z.array(z.object({ id: z.string(), name: responseText() })),
+  notified: z.array(z.object({ id: responseText(), name: responseText() })),
   /** People with a role at the site, who may be chosen. */
   people: z.array(
-    z.object({ id: z.string(), name: responseText(), roles: z.array(responseText()) }),
+    z.object({ id: responseText(), name: responseText(), roles: z.array(responseText()) }),
   ),
 });
 export type PressureSettingsResponse = z.infer<typeof pressureSettingsResponseSchema>;
