@@ -334,7 +334,11 @@ export async function evaluatePressureAlarms(
       });
       round.queued += queued;
     }
-    if (first.lastReadingAt) await repo.markEvaluated(deps.db, monitor.id, first.lastReadingAt);
+    if (
+      first.lastReadingAt &&
+      (!monitor.evaluatedThrough || first.lastReadingAt > monitor.evaluatedThrough)
+    )
+      await repo.markEvaluated(deps.db, monitor.id, first.lastReadingAt);
   }
   if (round.queued > 0) deps.notifyOutbox();
   return round;

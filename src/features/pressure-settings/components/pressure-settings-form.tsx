@@ -140,7 +140,7 @@ function EditSettings({
           <input
             type="radio"
             name="recipients"
-            className="size-5 accent-brand-700"
+            className="size-5 shrink-0 accent-brand-700"
             checked={!draft.chosen}
             onChange={() => setDraft((current) => ({ ...current, chosen: false }))}
           />
@@ -150,7 +150,7 @@ function EditSettings({
           <input
             type="radio"
             name="recipients"
-            className="size-5 accent-brand-700"
+            className="size-5 shrink-0 accent-brand-700"
             checked={draft.chosen}
             onChange={() => setDraft((current) => ({ ...current, chosen: true }))}
           />
