@@ -90,7 +90,12 @@ async function snapshotOf(
     from > watchingSince
       ? await repo.readingBefore(db, monitor.monitorId, from, watchingSince)
       : null;
-  const rows = await repo.alarmsSince(db, monitor.id, from);
+  // Alarms that ended a little before the window too: the reading before it may overlap them.
+  const rows = await repo.alarmsSince(
+    db,
+    monitor.id,
+    new Date(from.getTime() - policy.silenceMs - policy.mergeGapMs),
+  );
   const all = before ? [before, ...readings] : readings;
   // Without a reading before the window, the window reaches back to the mapping.
   const analysis = analysePressure(all, now, policy, before ? {} : { watchingSince });
