@@ -71,42 +71,62 @@ interface Snapshot {
   lastReadingAt: Date | null;
 }
 
-/** Reads what the monitor's alarms are decided from, as of `now`. */
-async function snapshotOf(
+/**
+ * Reads what the monitors' alarms are decided from, as of `now`: a few statements for any
+ * number of monitors (the round after every ingest must stay cheap).
+ */
+async function snapshotsOf(
   db: Database | Tx,
-  monitor: repo.WatchedMonitor,
+  monitors: readonly repo.WatchedMonitor[],
   now: Date,
-): Promise<Snapshot> {
-  const policy = sitePolicy(monitor);
-  // Alarms start no earlier than the mapping: what the monitor said before was no one's concern.
-  const watchingSince = monitor.createdAt;
-  const openSince = await repo.earliestOpenAlarm(db, monitor.id);
-  let from = new Date((monitor.evaluatedThrough ?? watchingSince).getTime() - lookBackMs(policy));
-  if (openSince && openSince < from) from = openSince;
-  if (from < watchingSince) from = watchingSince;
-  // One after another: inside a transaction they share one connection.
-  const readings = await repo.readingsBetween(db, monitor.monitorId, from, now);
-  const before =
-    from > watchingSince
-      ? await repo.readingBefore(db, monitor.monitorId, from, watchingSince)
-      : null;
-  // Alarms that ended a little before the window too: the reading before it may overlap them.
-  const rows = await repo.alarmsSince(
+): Promise<Snapshot[]> {
+  if (monitors.length === 0) return [];
+  const openSince = await repo.earliestOpenAlarms(
     db,
-    monitor.id,
-    new Date(from.getTime() - policy.silenceMs - policy.mergeGapMs),
+    monitors.map((monitor) => monitor.id),
   );
-  const all = before ? [before, ...readings] : readings;
-  // Without a reading before the window, the window reaches back to the mapping.
-  const analysis = analysePressure(all, now, policy, before ? {} : { watchingSince });
-  return {
-    monitor,
-    policy,
-    excursions: analysis.excursions,
-    silences: analysis.silences,
-    rows,
-    lastReadingAt: analysis.lastReading?.measuredAt ?? null,
-  };
+  const plans = monitors.map((monitor) => {
+    const policy = sitePolicy(monitor);
+    // Alarms start no earlier than the mapping: what the monitor said before was no one's concern.
+    const watchingSince = monitor.createdAt;
+    let from = new Date((monitor.evaluatedThrough ?? watchingSince).getTime() - lookBackMs(policy));
+    const open = openSince.get(monitor.id);
+    if (open && open < from) from = open;
+    if (from < watchingSince) from = watchingSince;
+    return { monitor, policy, from, watchingSince };
+  });
+  const windows = plans.map((plan) => ({
+    monitorId: plan.monitor.monitorId,
+    from: plan.from,
+    notBefore: plan.watchingSince,
+  }));
+  // One after another: inside a transaction they share one connection.
+  const readings = await repo.readingsInWindows(db, windows, now);
+  const before = await repo.readingsBeforeWindows(db, windows);
+  // Alarms that ended a little before a window too: the reading before it may overlap them.
+  const earliest = Math.min(
+    ...plans.map((plan) => plan.from.getTime() - plan.policy.silenceMs - plan.policy.mergeGapMs),
+  );
+  const rows = await repo.alarmsOfMonitorsSince(
+    db,
+    monitors.map((monitor) => monitor.id),
+    new Date(earliest),
+  );
+  return plans.map(({ monitor, policy, watchingSince }) => {
+    const previous = before.get(monitor.monitorId);
+    const inWindow = readings.get(monitor.monitorId) ?? [];
+    const all = previous ? [previous, ...inWindow] : inWindow;
+    // Without a reading before the window, the window reaches back to the mapping.
+    const analysis = analysePressure(all, now, policy, previous ? {} : { watchingSince });
+    return {
+      monitor,
+      policy,
+      excursions: analysis.excursions,
+      silences: analysis.silences,
+      rows: rows.filter((row) => row.monitorRowId === monitor.id),
+      lastReadingAt: analysis.lastReading?.measuredAt ?? null,
+    };
+  });
 }
 
 const overlaps = (row: repo.AlarmRow, start: Date, end: Date | null) =>
@@ -318,33 +338,43 @@ export async function evaluatePressureAlarms(
   const { now } = options;
   const monitors = await repo.watchedMonitors(deps.db, options.monitorIds);
   const round: AlarmRound = { monitors: monitors.length, changed: 0, queued: 0 };
-  for (const monitor of monitors) {
-    if (monitor.spaceRetiredAt) {
-      if (await repo.earliestOpenAlarm(deps.db, monitor.id)) {
-        await repo.endAlarmsOfRetiredSpace(deps.db, monitor.id, monitor.spaceRetiredAt);
-        round.changed += 1;
-      }
-      continue;
+  const retired = monitors.filter((monitor) => monitor.spaceRetiredAt);
+  if (retired.length > 0) {
+    const open = await repo.earliestOpenAlarms(
+      deps.db,
+      retired.map((monitor) => monitor.id),
+    );
+    for (const monitor of retired.filter((candidate) => open.has(candidate.id))) {
+      await repo.endAlarmsOfRetiredSpace(deps.db, monitor.id, monitor.spaceRetiredAt!);
+      round.changed += 1;
     }
-    const first = await snapshotOf(deps.db, monitor, now);
-    if (stepsOf(first).length > 0) {
-      const queued = await deps.db.transaction(async (tx) => {
-        const locked = await repo.lockMonitor(tx, monitor.id);
-        if (!locked || locked.spaceRetiredAt) return 0;
-        const snapshot = await snapshotOf(tx, locked, now);
-        const steps = stepsOf(snapshot);
-        if (steps.length === 0) return 0;
-        round.changed += 1;
-        return applySteps(tx, deps, snapshot, steps, now);
-      });
-      round.queued += queued;
-    }
-    if (
-      first.lastReadingAt &&
-      (!monitor.evaluatedThrough || first.lastReadingAt > monitor.evaluatedThrough)
-    )
-      await repo.markEvaluated(deps.db, monitor.id, first.lastReadingAt);
   }
+  const snapshots = await snapshotsOf(
+    deps.db,
+    monitors.filter((monitor) => !monitor.spaceRetiredAt),
+    now,
+  );
+  for (const first of snapshots) {
+    if (stepsOf(first).length === 0) continue;
+    const queued = await deps.db.transaction(async (tx) => {
+      const locked = await repo.lockMonitor(tx, first.monitor.id);
+      if (!locked || locked.spaceRetiredAt) return 0;
+      const [snapshot] = await snapshotsOf(tx, [locked], now);
+      const steps = stepsOf(snapshot!);
+      if (steps.length === 0) return 0;
+      round.changed += 1;
+      return applySteps(tx, deps, snapshot!, steps, now);
+    });
+    round.queued += queued;
+  }
+  await repo.markManyEvaluated(
+    deps.db,
+    snapshots.flatMap(({ monitor, lastReadingAt }) =>
+      lastReadingAt && (!monitor.evaluatedThrough || lastReadingAt > monitor.evaluatedThrough)
+        ? [{ id: monitor.id, through: lastReadingAt }]
+        : [],
+    ),
+  );
   if (round.queued > 0) deps.notifyOutbox();
   return round;
 }

@@ -1,7 +1,6 @@
-import { and, asc, desc, eq, gte, inArray, isNull, lt, lte, or, sql } from "drizzle-orm";
+import { and, asc, eq, gte, inArray, isNull, or, sql } from "drizzle-orm";
 
 import type { DbOrTx } from "../../db/client";
-import { pressureReadings } from "../../db/partitioned/pressure-readings";
 import {
   pressureAlarmRecipients,
   pressureAlarms,
@@ -94,79 +93,141 @@ export interface StoredReading {
   door: "open" | "closed" | null;
 }
 
-const readingColumns = {
-  monitorId: pressureReadings.monitorId,
-  measuredAt: pressureReadings.measuredAt,
-  pressure: pressureReadings.pressure,
-  unit: pressureReadings.unit,
-  door: pressureReadings.door,
-};
-
-/** A monitor's readings from `from` to `to` (both included), in time order. */
-export function readingsBetween(
-  db: DbOrTx,
-  monitorId: string,
-  from: Date,
-  to: Date,
-): Promise<StoredReading[]> {
-  return db
-    .select(readingColumns)
-    .from(pressureReadings)
-    .where(
-      and(
-        eq(pressureReadings.monitorId, monitorId),
-        gte(pressureReadings.measuredAt, from),
-        lte(pressureReadings.measuredAt, to),
-      ),
-    )
-    .orderBy(asc(pressureReadings.measuredAt));
-}
-
-/** The last reading before `before`, at or after `notBefore`. */
-export async function readingBefore(
-  db: DbOrTx,
-  monitorId: string,
-  before: Date,
-  notBefore: Date,
-): Promise<StoredReading | null> {
-  const [row] = await db
-    .select(readingColumns)
-    .from(pressureReadings)
-    .where(
-      and(
-        eq(pressureReadings.monitorId, monitorId),
-        lt(pressureReadings.measuredAt, before),
-        gte(pressureReadings.measuredAt, notBefore),
-      ),
-    )
-    .orderBy(desc(pressureReadings.measuredAt))
-    .limit(1);
-  return row ?? null;
-}
-
 export type AlarmRow = typeof pressureAlarms.$inferSelect;
 
-/** The monitor's alarms still open, or ended at or after `from`. */
-export function alarmsSince(db: DbOrTx, monitorRowId: string, from: Date): Promise<AlarmRow[]> {
+/** Per monitor, the window of readings to read: from `from` (included) to `to` (included). */
+export interface ReadingWindow {
+  monitorId: string;
+  from: Date;
+  /** Where the mapping began: the reading before the window is looked for from here. */
+  notBefore: Date;
+}
+
+type RawReading = {
+  monitor_id: string;
+  measured_at: string | Date;
+  pressure: number;
+  unit: "Pa" | "inH2O";
+  door: "open" | "closed" | null;
+};
+
+const fromRaw = (row: RawReading): StoredReading => ({
+  monitorId: row.monitor_id,
+  measuredAt: new Date(row.measured_at),
+  pressure: Number(row.pressure),
+  unit: row.unit,
+  door: row.door,
+});
+
+function windowArrays(windows: readonly ReadingWindow[]) {
+  return {
+    ids: sql.param(windows.map((w) => w.monitorId)),
+    froms: sql.param(windows.map((w) => w.from.toISOString())),
+    notBefores: sql.param(windows.map((w) => w.notBefore.toISOString())),
+  };
+}
+
+/** Many monitors' readings in their windows, in one statement; grouped by monitor, in time order. */
+export async function readingsInWindows(
+  db: DbOrTx,
+  windows: readonly ReadingWindow[],
+  to: Date,
+): Promise<Map<string, StoredReading[]>> {
+  const grouped = new Map<string, StoredReading[]>();
+  if (windows.length === 0) return grouped;
+  const { ids, froms } = windowArrays(windows);
+  const result = await db.execute<RawReading>(sql`
+    select r.monitor_id, r.measured_at, r.pressure, r.unit, r.door
+    from unnest(${ids}::varchar[], ${froms}::timestamptz[]) as w(monitor_id, from_at)
+    cross join lateral (
+      select monitor_id, measured_at, pressure, unit, door from pressure_readings
+      where monitor_id = w.monitor_id and measured_at >= w.from_at and measured_at <= ${to.toISOString()}::timestamptz
+      order by measured_at
+    ) r`);
+  for (const row of result.rows) {
+    const reading = fromRaw(row);
+    const list = grouped.get(reading.monitorId) ?? [];
+    list.push(reading);
+    grouped.set(reading.monitorId, list);
+  }
+  return grouped;
+}
+
+/** For each window, the last reading before it (not before the mapping), in one statement. */
+export async function readingsBeforeWindows(
+  db: DbOrTx,
+  windows: readonly ReadingWindow[],
+): Promise<Map<string, StoredReading>> {
+  const found = new Map<string, StoredReading>();
+  const asked = windows.filter((w) => w.from > w.notBefore);
+  if (asked.length === 0) return found;
+  const { ids, froms, notBefores } = windowArrays(asked);
+  const result = await db.execute<RawReading>(sql`
+    select r.monitor_id, r.measured_at, r.pressure, r.unit, r.door
+    from unnest(${ids}::varchar[], ${froms}::timestamptz[], ${notBefores}::timestamptz[])
+      as w(monitor_id, from_at, not_before)
+    cross join lateral (
+      select monitor_id, measured_at, pressure, unit, door from pressure_readings
+      where monitor_id = w.monitor_id and measured_at < w.from_at and measured_at >= w.not_before
+      order by measured_at desc limit 1
+    ) r`);
+  for (const row of result.rows) found.set(row.monitor_id, fromRaw(row));
+  return found;
+}
+
+/** The monitors' alarms still open, or ended at or after `from`. */
+export function alarmsOfMonitorsSince(
+  db: DbOrTx,
+  monitorRowIds: readonly string[],
+  from: Date,
+): Promise<AlarmRow[]> {
+  if (monitorRowIds.length === 0) return Promise.resolve([]);
   return db
     .select()
     .from(pressureAlarms)
     .where(
       and(
-        eq(pressureAlarms.monitorRowId, monitorRowId),
+        inArray(pressureAlarms.monitorRowId, [...monitorRowIds]),
         or(isNull(pressureAlarms.endedAt), gte(pressureAlarms.endedAt, from)),
       ),
     )
     .orderBy(asc(pressureAlarms.startedAt));
 }
 
-/** The earliest start of the monitor's open alarms. */
-export async function earliestOpenAlarm(db: DbOrTx, monitorRowId: string): Promise<Date | null> {
-  const [row] = await db
-    .select({ at: sql<string | null>`min(${pressureAlarms.startedAt})` })
+/** The earliest start of each monitor's open alarms. */
+export async function earliestOpenAlarms(
+  db: DbOrTx,
+  monitorRowIds: readonly string[],
+): Promise<Map<string, Date>> {
+  const found = new Map<string, Date>();
+  if (monitorRowIds.length === 0) return found;
+  const rows = await db
+    .select({
+      monitorRowId: pressureAlarms.monitorRowId,
+      at: sql<string>`min(${pressureAlarms.startedAt})`,
+    })
     .from(pressureAlarms)
-    .where(and(eq(pressureAlarms.monitorRowId, monitorRowId), isNull(pressureAlarms.endedAt)));
-  return row?.at ? new Date(row.at) : null;
+    .where(
+      and(inArray(pressureAlarms.monitorRowId, [...monitorRowIds]), isNull(pressureAlarms.endedAt)),
+    )
+    .groupBy(pressureAlarms.monitorRowId);
+  for (const row of rows) found.set(row.monitorRowId, new Date(row.at));
+  return found;
+}
+
+/** Judged through these times (each only moves forward), in one statement. */
+export async function markManyEvaluated(
+  db: DbOrTx,
+  marks: readonly { id: string; through: Date }[],
+): Promise<void> {
+  if (marks.length === 0) return;
+  await db.execute(sql`
+    update pressure_monitors m
+    set evaluated_through = greatest(coalesce(m.evaluated_through, w.through), w.through)
+    from unnest(${sql.param(marks.map((mark) => mark.id))}::uuid[],
+                ${sql.param(marks.map((mark) => mark.through.toISOString()))}::timestamptz[])
+      as w(id, through)
+    where m.id = w.id`);
 }
 
 export async function insertAlarm(
@@ -203,16 +264,6 @@ export async function endAlarmsOfRetiredSpace(
     .where(and(eq(pressureAlarms.monitorRowId, monitorRowId), isNull(pressureAlarms.endedAt)))
     .returning({ id: pressureAlarms.id });
   return rows.length;
-}
-
-/** Judged through here: the next evaluation looks back from it. Only moves forward. */
-export async function markEvaluated(db: DbOrTx, id: string, through: Date): Promise<void> {
-  await db
-    .update(pressureMonitors)
-    .set({
-      evaluatedThrough: sql`greatest(coalesce(${pressureMonitors.evaluatedThrough}, ${through.toISOString()}::timestamptz), ${through.toISOString()}::timestamptz)`,
-    })
-    .where(eq(pressureMonitors.id, id));
 }
 
 // ---------------------------------------------------------------------------------------------
