@@ -14,6 +14,7 @@ import { mailRoutes } from "./modules/mail/mail.router";
 import { observationRoutes } from "./modules/observations/observations.router";
 import { peopleRoutes } from "./modules/people/people.router";
 import { pressureSiteRoutes } from "./modules/pressure/site.router";
+import { pressureSettingsRoutes } from "./modules/pressure/settings.router";
 import { siteRoutes } from "./modules/sites/sites.router";
 
 /** Every API route with its declared access: the server mounts these and the role matrix tests them. */
@@ -35,4 +36,5 @@ export const apiRoutes = [
   ...committeePressureRoutes,
   ...observationRoutes,
   ...pressureSiteRoutes,
+  ...pressureSettingsRoutes,
 ];

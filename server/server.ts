@@ -14,6 +14,7 @@ import { reconcileStorage } from "./lib/images";
 import { createStorage } from "./lib/storage";
 import { prepareMonthStats } from "./modules/committee/committee.service";
 import { createActionScheduler } from "./modules/actions/actions.scheduler";
+import { createPressureAlarmTimer } from "./modules/pressure/alarms.job";
 import { purgeObservationDetail } from "./modules/observations/observations.service";
 import { createOutboxWorker } from "./outbox/outbox-worker";
 
@@ -106,6 +107,15 @@ export async function startServer(env: Env, options: StartOptions = {}): Promise
         })
       : null;
   scheduler?.start();
+  // Room-pressure alarms: every 30 s for silences and ends; the ingest also runs them on new readings.
+  const pressureAlarms = createPressureAlarmTimer({
+    db: database.db,
+    env,
+    logger,
+    intervalMs: 30_000,
+    notifyOutbox: () => worker?.nudge(),
+  });
+  pressureAlarms.start();
 
   const app = createApp(
     buildDeps(env, database, logger, storage, () => worker?.nudge(), {
@@ -132,6 +142,7 @@ export async function startServer(env: Env, options: StartOptions = {}): Promise
       });
       clearInterval(reconcileTimer);
       await scheduler?.stop();
+      await pressureAlarms.stop();
       await worker?.stop();
       mailer.close();
       storage.close();

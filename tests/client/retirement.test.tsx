@@ -253,6 +253,17 @@ describe("retiring a site", () => {
             },
             isDefault: true,
           }),
+        // The edit screen also shows the site's room-pressure alarm settings.
+        [`GET /api/sites/${tamsinGeneral.id}/pressure-settings`]: () =>
+          jsonResponse({
+            graceSeconds: null,
+            doorGraceSeconds: null,
+            actionLimitMinutes: null,
+            effective: { graceSeconds: 60, doorGraceSeconds: 300, actionLimitMinutes: 15 },
+            recipients: "default",
+            notified: [],
+            people: [],
+          }),
         [`POST /api/sites/${tamsinGeneral.id}/retire`]: () =>
           jsonResponse({
             retirement: result({

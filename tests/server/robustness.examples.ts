@@ -172,6 +172,17 @@ export const examples: Record<string, RouteExample> = {
       },
     }),
   },
+  "PUT /sites/:siteId/pressure-settings": {
+    control: (w) => ({
+      params: { siteId: w.siteA },
+      body: {
+        graceSeconds: 90,
+        doorGraceSeconds: 300,
+        actionLimitMinutes: 20,
+        recipients: [w.callers["facilities lead @A"].id],
+      },
+    }),
+  },
   "POST /mail/:mailId/resend": {
     as: "administrator (network)",
     control: async (w) => ({ params: { mailId: await w.fresh.uncertainMail() }, body: {} }),

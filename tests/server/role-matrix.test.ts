@@ -416,6 +416,26 @@ const samples: Record<string, Sample> = {
     allowed: admins,
     hidden: notAtA,
   },
+  "GET /sites/:siteId/pressure-settings": {
+    prepare: (w) => ({ url: `/api/sites/${w.siteA}/pressure-settings` }),
+    ok: 200,
+    allowed: admins,
+    hidden: notAtA,
+  },
+  "PUT /sites/:siteId/pressure-settings": {
+    prepare: (w) => ({
+      url: `/api/sites/${w.siteA}/pressure-settings`,
+      body: {
+        graceSeconds: 90,
+        doorGraceSeconds: 300,
+        actionLimitMinutes: 20,
+        recipients: [w.leadA],
+      },
+    }),
+    ok: 200,
+    allowed: admins,
+    hidden: notAtA,
+  },
   "GET /committee/comparison": {
     prepare: () => ({ url: "/api/committee/comparison?from=2026-01&to=2026-12" }),
     ok: 200,

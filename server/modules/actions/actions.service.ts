@@ -274,7 +274,36 @@ export async function recordObservationFindings(
   return joinOrOpenActions(tx, env, { kind: "observation", ...observation }, failed, actor, now);
 }
 
-type FindingSource = { kind: "audit" | "observation"; id: string; siteId: string; spaceId: string };
+/**
+ * The same path for a room-pressure excursion past the site's action limit: a critical finding on
+ * the room's pressure item that joins the item's unfinished action in the space or opens one. The
+ * alarm keeps the link (`pressure_alarms.action_id`); no audit finding row is written.
+ */
+export async function recordPressureFinding(
+  tx: Tx,
+  env: Env,
+  alarm: { id: string; siteId: string; spaceId: string },
+  item: FailedItem,
+  actor: Actor,
+  now: Date,
+): Promise<string | null> {
+  const { actionIds } = await joinOrOpenActions(
+    tx,
+    env,
+    { kind: "pressure", ...alarm },
+    [item],
+    actor,
+    now,
+  );
+  return actionIds.get(item.key) ?? null;
+}
+
+type FindingSource = {
+  kind: "audit" | "observation" | "pressure";
+  id: string;
+  siteId: string;
+  spaceId: string;
+};
 
 async function joinOrOpenActions(
   tx: Tx,
@@ -291,7 +320,11 @@ async function joinOrOpenActions(
   const space = await repo.spaceForFindings(tx, source.spaceId);
   if (!space) return { queued: 0, actionIds };
   const sourceFact =
-    source.kind === "audit" ? { auditId: source.id } : { observationId: source.id };
+    source.kind === "audit"
+      ? { auditId: source.id }
+      : source.kind === "observation"
+        ? { observationId: source.id }
+        : { pressureAlarmId: source.id };
   const policy = (await repo.duePolicyOf(tx, space.siteId)) ?? defaultDuePolicy;
   const [lead] = await repo.peopleWithRoleAt(tx, space.siteId, "facilities_lead");
   const position = polygonCentroid(space.polygon);

@@ -11,6 +11,8 @@ import { TextLink } from "@/components/ui/text-link";
 import { paths } from "@/config/paths";
 import { duePolicyQueryOptions } from "@/features/actions/api/get-due-policy";
 import { DuePolicyForm } from "@/features/actions/components/due-policy-form";
+import { pressureSettingsQueryOptions } from "@/features/pressure-settings/api/get-pressure-settings";
+import { PressureSettingsForm } from "@/features/pressure-settings/components/pressure-settings-form";
 import { siteQueryOptions, useSite } from "@/features/sites/api/get-site";
 import { EditSiteForm } from "@/features/sites/components/site-form";
 import { SiteRetirement } from "@/features/sites/components/site-retirement";
@@ -26,6 +28,7 @@ export function editSiteLoader(queryClient: QueryClient) {
     if (parsed.success && (await isSignedIn(queryClient))) {
       void queryClient.prefetchQuery(siteQueryOptions(parsed.data.siteId));
       void queryClient.prefetchQuery(duePolicyQueryOptions(parsed.data.siteId));
+      void queryClient.prefetchQuery(pressureSettingsQueryOptions(parsed.data.siteId));
     }
     return null;
   };
@@ -79,6 +82,10 @@ function EditSite({ siteId }: { siteId: string }) {
       <Card className="mt-6">
         <h2 className="mb-2 text-lg font-semibold">Due times for corrective actions</h2>
         <DuePolicyForm siteId={siteId} />
+      </Card>
+      <Card className="mt-6">
+        <h2 className="mb-2 text-lg font-semibold">Room-pressure alarms</h2>
+        <PressureSettingsForm siteId={siteId} />
       </Card>
       {can("create:site:network") ? (
         <div className="mt-6">
