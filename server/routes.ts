@@ -12,6 +12,7 @@ import { healthRoutes } from "./modules/health/health.router";
 import { mailRoutes } from "./modules/mail/mail.router";
 import { observationRoutes } from "./modules/observations/observations.router";
 import { peopleRoutes } from "./modules/people/people.router";
+import { pressureSpaceRoutes } from "./modules/pressure/space.router";
 import { siteRoutes } from "./modules/sites/sites.router";
 
 /** Every API route with its declared access: the server mounts these and the role matrix tests them. */
@@ -31,4 +32,5 @@ export const apiRoutes = [
   ...actionRoutes,
   ...committeeRoutes,
   ...observationRoutes,
+  ...pressureSpaceRoutes,
 ];
