@@ -1,0 +1,131 @@
+import type { PressureUnit } from "@shared/schemas/pressure-readings";
+import type { PressureSpaceResponse } from "@shared/schemas/pressure-space";
+import {
+  Area,
+  CartesianGrid,
+  ComposedChart,
+  Line,
+  ReferenceArea,
+  ReferenceLine,
+  ResponsiveContainer,
+  XAxis,
+  YAxis,
+} from "recharts";
+
+import { chartPalette } from "@/components/ui/palette";
+
+import { formatAt, inUnit, unitWords } from "../lib/pressure-format";
+import { pressureChartStyle } from "./pressure-chart-style";
+
+export interface PressureChartProps {
+  data: PressureSpaceResponse;
+  unit: PressureUnit;
+  height: number;
+}
+
+interface Point {
+  t: number;
+  mean: number | null;
+  band: [number, number] | null;
+}
+
+/**
+ * The range's means with the lowest-to-highest band, the threshold as a dashed line and each
+ * excursion shaded. A gap in the readings is a gap in the line, not a line drawn across it.
+ * Loaded only with the room pressure section (its own chunk).
+ */
+export default function PressureChart({ data, unit, height }: PressureChartProps) {
+  const step = data.bucket === "minute" ? 60_000 : 3_600_000;
+  const points: Point[] = [];
+  let previous: number | null = null;
+  for (const point of data.series) {
+    const t = new Date(point.at).getTime();
+    if (previous !== null && t - previous > step * 1.5)
+      points.push({ t: previous + step, mean: null, band: null });
+    points.push({
+      t,
+      mean: inUnit(point.meanPa, unit),
+      band: [inUnit(point.minPa, unit), inUnit(point.maxPa, unit)],
+    });
+    previous = t;
+  }
+  const from = new Date(data.from).getTime();
+  const to = new Date(data.to).getTime();
+  const threshold = inUnit(data.monitor?.thresholdPa ?? -2.5, unit);
+  const values = points.flatMap((p) => (p.band ? p.band : []));
+  const low = Math.min(threshold, ...values);
+  const high = Math.max(threshold, 0, ...values);
+  const pad = (high - low) * 0.08 || Math.abs(threshold) * 0.5;
+  const excursions = data.alarms.filter((alarm) => alarm.kind === "out_of_range");
+  const timeZone = data.space.timeZone;
+  const digits = unit === "Pa" ? 1 : 3;
+
+  return (
+    <ResponsiveContainer width="100%" height={height} initialDimension={{ width: 340, height }}>
+      <ComposedChart data={points} margin={{ top: 8, right: 8, bottom: 4, left: 4 }}>
+        <CartesianGrid stroke={chartPalette.grid} vertical={false} />
+        <XAxis
+          dataKey="t"
+          type="number"
+          scale="time"
+          domain={[from, to]}
+          tickCount={5}
+          tickFormatter={(t: number) =>
+            formatAt(new Date(t).toISOString(), timeZone, data.range === "24h" ? "time" : "day")
+          }
+          tick={{ fill: chartPalette.reference, fontSize: 12 }}
+          allowDataOverflow
+        />
+        <YAxis
+          domain={[low - pad, high + pad]}
+          tickFormatter={(v: number) => v.toFixed(digits)}
+          tick={{ fill: chartPalette.reference, fontSize: 12 }}
+          width={unit === "Pa" ? 40 : 52}
+          label={{
+            value: unitWords[unit],
+            angle: -90,
+            position: "insideLeft",
+            fill: chartPalette.reference,
+            fontSize: 12,
+          }}
+          allowDataOverflow
+        />
+        {excursions.map((alarm) => (
+          <ReferenceArea
+            key={alarm.id}
+            x1={Math.max(from, new Date(alarm.startedAt).getTime())}
+            x2={Math.min(to, alarm.endedAt ? new Date(alarm.endedAt).getTime() : to)}
+            fill={pressureChartStyle.excursion.colour}
+            fillOpacity={pressureChartStyle.excursion.opacity}
+            stroke={pressureChartStyle.excursion.colour}
+            strokeOpacity={0.5}
+            ifOverflow="hidden"
+          />
+        ))}
+        <Area
+          dataKey="band"
+          stroke="none"
+          fill={pressureChartStyle.band.colour}
+          fillOpacity={pressureChartStyle.band.opacity}
+          isAnimationActive={false}
+          connectNulls={false}
+        />
+        <Line
+          dataKey="mean"
+          stroke={pressureChartStyle.mean.colour}
+          strokeWidth={pressureChartStyle.mean.width}
+          dot={false}
+          isAnimationActive={false}
+          connectNulls={false}
+        />
+        <ReferenceLine
+          y={threshold}
+          stroke={pressureChartStyle.threshold.colour}
+          strokeDasharray={pressureChartStyle.threshold.dash}
+          strokeWidth={pressureChartStyle.threshold.width}
+          ifOverflow="extendDomain"
+        />
+      </ComposedChart>
+    </ResponsiveContainer>
+  );
+}
