@@ -31,6 +31,24 @@ export async function insertMonitoredRoom(
   return { floor, space, monitor: monitor! };
 }
 
+/** A monitor mapped to an existing room (a demo room in the browser tests). */
+export async function mapMonitorTo(
+  db: Database,
+  space: { id: string; siteId: string },
+  options: { thresholdPa?: number | null; monitorId?: string } = {},
+) {
+  const [monitor] = await db
+    .insert(pressureMonitors)
+    .values({
+      monitorId: options.monitorId ?? freshMonitorId(),
+      siteId: space.siteId,
+      spaceId: space.id,
+      thresholdPa: options.thresholdPa ?? null,
+    })
+    .returning();
+  return monitor!;
+}
+
 /**
  * Readings every `everySeconds` from `from` for `count` readings, with the pressure each one gets
  * from `pressureAt(i)`; stored through the real storage (raw rows and roll-ups).
