@@ -179,7 +179,7 @@ describe("the room's pressure on its space page", () => {
     expect(rows).toHaveLength(3);
     // Newest first, in the site's time (London is UTC in December).
     expect(rows[0]!.textContent).toContain("14:00–14:20");
-    expect(rows[0]!.textContent).toContain("+0.9 Pa");
+    expect(rows[0]!.textContent).toContain("+0.9");
     expect(rows[0]!.textContent).toContain("12 min");
     expect(rows[1]!.textContent).toContain("−6.5 to −5.7");
     expect(rows[2]!.textContent).toContain("No readings");

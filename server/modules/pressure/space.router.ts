@@ -1,8 +1,5 @@
 import { spaceParamsSchema } from "@shared/schemas/floors";
-import {
-  monitorMappingBodySchema,
-  pressureSpaceQuerySchema,
-} from "@shared/schemas/pressure-space";
+import { monitorMappingBodySchema, pressureSpaceQuerySchema } from "@shared/schemas/pressure-space";
 
 import { defineRoute, siteThrough } from "../../lib/routes";
 import * as pressure from "./space.service";

@@ -40,14 +40,10 @@ export const siteOfSpace = async (db: Database, spaceId: string) =>
 const conflict = (message: string, field?: string) =>
   new AppError("conflict", 409, message, field ? { fields: { [field]: message } } : undefined);
 
-function thresholdWords(thresholdPa: number, isDefault: boolean): string {
+function thresholdWords(isDefault: boolean): string {
   if (isDefault)
-    return `${-minimumNegativePressurePascals} Pa (−0.01 in. w.c.) or more negative to the corridor: Lintel's default, the CDC's figure for airborne isolation rooms.`;
-  return `${formatPa(thresholdPa)} or more negative to the corridor: this room's own threshold.`;
-}
-
-function formatPa(pascals: number): string {
-  return `${Number(pascals.toFixed(2))} Pa`.replace("-", "−");
+    return `Lintel's default: the CDC's figure for airborne isolation rooms, ${minimumNegativePressurePascals} Pa (0.01 in. w.c.) negative to the corridor.`;
+  return "This room's own threshold, stricter than the CDC's 2.5 Pa.";
 }
 
 function toMonitor(row: repo.MonitorRow, unit: PressureUnit): PressureMonitor {
@@ -59,7 +55,7 @@ function toMonitor(row: repo.MonitorRow, unit: PressureUnit): PressureMonitor {
     thresholdIsDefault: isDefault,
     unit,
     thresholdInUnit: pressureFigureIn(unit, thresholdPa),
-    thresholdWords: thresholdWords(thresholdPa, isDefault),
+    thresholdWords: thresholdWords(isDefault),
     mappedAt: row.createdAt.toISOString(),
   };
 }
@@ -232,9 +228,7 @@ export async function pressureOfSpace(
     startedAt: row.startedAt.toISOString(),
     endedAt: row.endedAt?.toISOString() ?? null,
     durationMinutes:
-      Math.round(
-        (((row.endedAt ?? now).getTime() - row.startedAt.getTime()) / minute) * 10,
-      ) / 10,
+      Math.round((((row.endedAt ?? now).getTime() - row.startedAt.getTime()) / minute) * 10) / 10,
     worst:
       row.worstValue !== null && row.worstUnit !== null && row.worstPa !== null && row.worstAt
         ? {

@@ -36,11 +36,14 @@ interface Point {
  */
 export default function PressureChart({ data, unit, height }: PressureChartProps) {
   const step = data.bucket === "minute" ? 60_000 : 3_600_000;
+  // A gap the monitor's silence alarm would call "no readings" (10 minutes) breaks the line; in
+  // hourly buckets, a whole hour without a reading.
+  const breakAfter = data.bucket === "minute" ? 10 * 60_000 : 1.5 * 3_600_000;
   const points: Point[] = [];
   let previous: number | null = null;
   for (const point of data.series) {
     const t = new Date(point.at).getTime();
-    if (previous !== null && t - previous > step * 1.5)
+    if (previous !== null && t - previous >= breakAfter)
       points.push({ t: previous + step, mean: null, band: null });
     points.push({
       t,
@@ -55,10 +58,17 @@ export default function PressureChart({ data, unit, height }: PressureChartProps
   const values = points.flatMap((p) => (p.band ? p.band : []));
   const low = Math.min(threshold, ...values);
   const high = Math.max(threshold, 0, ...values);
-  const pad = (high - low) * 0.08 || Math.abs(threshold) * 0.5;
+  // Whole Pa (or hundredths of an inch of water) at the ends, so the ticks read as round numbers.
+  const grain = unit === "Pa" ? 1 : 0.01;
+  const bottom = Math.floor(low / grain - 0.5) * grain;
+  const top = Math.ceil(high / grain + 0.5) * grain;
+  // Ticks on round hours (every 6) or days (every 7), counted back from the end.
+  const tickStep = data.range === "24h" ? 6 * 3_600_000 : 7 * 86_400_000;
+  const ticks: number[] = [];
+  for (let t = Math.floor(to / tickStep) * tickStep; t >= from; t -= tickStep) ticks.unshift(t);
   const excursions = data.alarms.filter((alarm) => alarm.kind === "out_of_range");
   const timeZone = data.space.timeZone;
-  const digits = unit === "Pa" ? 1 : 3;
+  const digits = unit === "Pa" ? 0 : 2;
 
   return (
     <ResponsiveContainer width="100%" height={height} initialDimension={{ width: 340, height }}>
@@ -69,7 +79,7 @@ export default function PressureChart({ data, unit, height }: PressureChartProps
           type="number"
           scale="time"
           domain={[from, to]}
-          tickCount={5}
+          ticks={ticks}
           tickFormatter={(t: number) =>
             formatAt(new Date(t).toISOString(), timeZone, data.range === "24h" ? "time" : "day")
           }
@@ -77,8 +87,9 @@ export default function PressureChart({ data, unit, height }: PressureChartProps
           allowDataOverflow
         />
         <YAxis
-          domain={[low - pad, high + pad]}
-          tickFormatter={(v: number) => v.toFixed(digits)}
+          domain={[bottom, top]}
+          tickCount={5}
+          tickFormatter={(v: number) => v.toFixed(digits).replace("-", "−")}
           tick={{ fill: chartPalette.reference, fontSize: 12 }}
           width={unit === "Pa" ? 40 : 52}
           label={{

@@ -68,8 +68,9 @@ function LiveValue({ data, unit }: { data: PressureSpaceResponse; unit: Pressure
         <p className="text-sm text-ink">{words.meaning}</p>
       </div>
       <p className="text-sm text-ink-muted">
-        Monitor <span className="font-mono text-ink">{data.monitor!.monitorId}</span> · threshold{" "}
-        {formatPressure(data.monitor!.thresholdInUnit, unit)}: {data.monitor!.thresholdWords}
+        Monitor <span className="font-mono break-all text-ink">{data.monitor!.monitorId}</span>. In
+        range at {formatPressure(data.monitor!.thresholdInUnit, unit)} or more negative.{" "}
+        {data.monitor!.thresholdWords}
       </p>
     </div>
   );
@@ -221,7 +222,9 @@ function PressureTable({ data, unit }: { data: PressureSpaceResponse; unit: Pres
                 </td>
               ) : (
                 <>
-                  <td className={number}>{formatPascalsIn(row.meanPa, unit)}</td>
+                  <td className={number}>
+                    {formatPascalsIn(row.meanPa, unit).replace(` ${unitWords[unit]}`, "")}
+                  </td>
                   <td className={number}>
                     {formatPascalsIn(row.minPa!, unit).replace(` ${unitWords[unit]}`, "")} to{" "}
                     {formatPascalsIn(row.maxPa!, unit).replace(` ${unitWords[unit]}`, "")}
