@@ -42,12 +42,12 @@ describe("a room's pressure on its space page, on a phone (390×844)", () => {
     const monitor = await mapMonitorTo(db, room, { monitorId: `wexley-e2e-${Date.now()}` });
     monitorRowId = monitor.id;
     const now = Date.now();
-    // Ten days of a reading every 10 minutes, then the last three hours every 30 seconds, with a
+    // Ten days of a reading every 5 minutes, then the last three hours every 30 seconds, with a
     // stretch positive for 18 minutes that began 80 minutes ago.
     await storeTimeline(db, monitor.monitorId, {
       from: new Date(now - 10 * 24 * hour),
-      count: 10 * 24 * 6 - 20,
-      everySeconds: 600,
+      count: 10 * 24 * 12 - 40,
+      everySeconds: 300,
       pressureAt: (i) => -6 - (i % 5) * 0.3,
     });
     const driftFrom = now - 80 * minute;
@@ -114,7 +114,7 @@ describe("a room's pressure on its space page, on a phone (390×844)", () => {
       expect(await section.getByText("Excursion (shaded)").count()).toBe(1);
       const rows = section.getByTestId("pressure-table").locator("tbody tr");
       expect(await rows.count()).toBeGreaterThanOrEqual(24);
-      expect(await rows.nth(1).textContent()).toMatch(/Pa/);
+      expect(await rows.nth(1).textContent()).toMatch(/−\d\.\d to [−+]\d\.\d/);
       const log = section.getByTestId("pressure-alarms");
       expect(await log.textContent()).toContain("Lasted 18 min");
       expect(await log.textContent()).toContain("Critical");
@@ -123,15 +123,21 @@ describe("a room's pressure on its space page, on a phone (390×844)", () => {
         reader.manages ? 1 : 0,
       );
       expect(await pageWidth(page)).toBeLessThanOrEqual(390);
-      await section.scrollIntoViewIfNeeded();
-      await shot(page, `${reader.role}-room-pressure-24h`, { fullPage: true });
+      await section.getByRole("heading", { name: "Room pressure" }).scrollIntoViewIfNeeded();
+      await page.evaluate(() => globalThis.scrollBy(0, -80));
+      await shot(page, `${reader.role}-room-pressure-24h`);
+      await section.getByTestId("pressure-table").scrollIntoViewIfNeeded();
+      await shot(page, `${reader.role}-room-pressure-24h-table`);
 
       await section.getByRole("button", { name: "30 days" }).click();
       await section.getByText(/Each day/).waitFor();
       expect(await rows.count()).toBeGreaterThanOrEqual(31);
       await chart.locator(".recharts-line path").first().waitFor();
       expect(await pageWidth(page)).toBeLessThanOrEqual(390);
-      await shot(page, `${reader.role}-room-pressure-30d`, { fullPage: true });
+      await chart.scrollIntoViewIfNeeded();
+      await shot(page, `${reader.role}-room-pressure-30d`);
+      await section.getByTestId("pressure-alarms").scrollIntoViewIfNeeded();
+      await shot(page, `${reader.role}-room-pressure-30d-log`);
       expect(problems).toEqual([]);
       await page.context().close();
     });

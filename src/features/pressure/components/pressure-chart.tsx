@@ -60,8 +60,13 @@ export default function PressureChart({ data, unit, height }: PressureChartProps
   const high = Math.max(threshold, 0, ...values);
   // Whole Pa (or hundredths of an inch of water) at the ends, so the ticks read as round numbers.
   const grain = unit === "Pa" ? 1 : 0.01;
-  const bottom = Math.floor(low / grain - 0.5) * grain;
-  const top = Math.ceil(high / grain + 0.5) * grain;
+  const spanUnits = (high - low) / grain;
+  const stepUnits = [1, 2, 5, 10, 20, 50].find((candidate) => spanUnits / candidate <= 5) ?? 100;
+  const yStep = stepUnits * grain;
+  const bottom = Math.floor(low / yStep - 0.2) * yStep;
+  const top = Math.ceil(high / yStep + 0.2) * yStep;
+  const yTicks: number[] = [];
+  for (let v = bottom; v <= top + yStep / 2; v += yStep) yTicks.push(Number(v.toFixed(4)));
   // Ticks on round hours (every 6) or days (every 7), counted back from the end.
   const tickStep = data.range === "24h" ? 6 * 3_600_000 : 7 * 86_400_000;
   const ticks: number[] = [];
@@ -88,7 +93,7 @@ export default function PressureChart({ data, unit, height }: PressureChartProps
         />
         <YAxis
           domain={[bottom, top]}
-          tickCount={5}
+          ticks={yTicks}
           tickFormatter={(v: number) => v.toFixed(digits).replace("-", "−")}
           tick={{ fill: chartPalette.reference, fontSize: 12 }}
           width={unit === "Pa" ? 40 : 52}

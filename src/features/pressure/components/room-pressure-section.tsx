@@ -225,7 +225,7 @@ function PressureTable({ data, unit }: { data: PressureSpaceResponse; unit: Pres
                   <td className={number}>
                     {formatPascalsIn(row.meanPa, unit).replace(` ${unitWords[unit]}`, "")}
                   </td>
-                  <td className={number}>
+                  <td className={`${number} whitespace-nowrap`}>
                     {formatPascalsIn(row.minPa!, unit).replace(` ${unitWords[unit]}`, "")} to{" "}
                     {formatPascalsIn(row.maxPa!, unit).replace(` ${unitWords[unit]}`, "")}
                   </td>
