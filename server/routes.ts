@@ -15,6 +15,7 @@ import { observationRoutes } from "./modules/observations/observations.router";
 import { peopleRoutes } from "./modules/people/people.router";
 import { pressureSiteRoutes } from "./modules/pressure/site.router";
 import { pressureSettingsRoutes } from "./modules/pressure/settings.router";
+import { pressureSpaceRoutes } from "./modules/pressure/space.router";
 import { siteRoutes } from "./modules/sites/sites.router";
 
 /** Every API route with its declared access: the server mounts these and the role matrix tests them. */
@@ -37,4 +38,5 @@ export const apiRoutes = [
   ...observationRoutes,
   ...pressureSiteRoutes,
   ...pressureSettingsRoutes,
+  ...pressureSpaceRoutes,
 ];

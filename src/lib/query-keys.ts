@@ -100,6 +100,11 @@ export const queryKeys = {
     /** The network's provider settings and the addresses to register at the provider. */
     current: ["identity-providers", "current"] as const,
   },
+  roomPressures: {
+    /** Every range of one room's pressure (the space page); an acknowledgement refreshes it. */
+    space: (spaceId: string) => ["room-pressures", spaceId] as const,
+    range: (spaceId: string, range: "24h" | "30d") => ["room-pressures", spaceId, range] as const,
+  },
   people: {
     list: ["people", "list"] as const,
     detail: (userId: string) => ["people", "detail", userId] as const,

@@ -3,8 +3,10 @@ import type { z } from "zod";
 import { proofFieldsSchema } from "@shared/schemas/actions";
 import { auditPhotoFieldsSchema } from "@shared/schemas/audits";
 
+import { insertSpace } from "../factories/audits";
 import { buildObservation, publishedSequence } from "../factories/observations";
 import { insertAlarmH4, insertMonitorH4 } from "../factories/pressure-h4";
+import { freshMonitorId, insertMonitoredRoom } from "../factories/pressure-h3";
 import { buildSite } from "../factories/records";
 import { api } from "../helpers/app";
 import { uniqueDomain } from "../helpers/identity-provider";
@@ -301,6 +303,24 @@ export const examples: Record<string, RouteExample> = {
       await w.fresh.retire("sites", site.id);
       return { params: { siteId: site.id }, body: {} };
     },
+  },
+  "PUT /spaces/:spaceId/monitor": {
+    async control(w) {
+      const room = await insertSpace(
+        w.app.deps.db,
+        { id: w.floorA, siteId: w.siteA },
+        "isolation_room",
+      );
+      return {
+        params: { spaceId: room.id },
+        body: { monitorId: freshMonitorId(), thresholdPa: -4 },
+      };
+    },
+  },
+  "DELETE /spaces/:spaceId/monitor": {
+    control: async (w) => ({
+      params: { spaceId: (await insertMonitoredRoom(w.app.deps.db, w.siteA)).space.id },
+    }),
   },
   "PATCH /spaces/:spaceId/cadence": {
     control: (w) => ({ params: { spaceId: w.spaceA }, body: { cadenceDays: 14 } }),

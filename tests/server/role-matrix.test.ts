@@ -29,8 +29,10 @@ import {
 } from "../../server/modules/checklists/checklists.service";
 import { storeImage } from "../../server/lib/images";
 import { saveDraft as sequenceSaveDraft } from "../../server/modules/observations/sequences.service";
+import { insertSpace } from "../factories/audits";
 import { buildObservation, publishedSequence } from "../factories/observations";
 import { insertAlarmH4, insertMonitorH4 } from "../factories/pressure-h4";
+import { freshMonitorId, insertMonitoredRoom } from "../factories/pressure-h3";
 import { restoreSite, retireSite } from "../../server/modules/floors/floors.retirement";
 import { apiRoutes } from "../../server/routes";
 import {
@@ -607,6 +609,32 @@ const samples: Record<string, Sample> = {
     prepare: async (w) => ({ url: `/api/spaces/${(await spaceAtA(w)).id}/floor` }),
     ok: 200,
     allowed: readers,
+    hidden: notAtA,
+  },
+  "GET /spaces/:spaceId/pressure": {
+    prepare: async (w) => ({
+      url: `/api/spaces/${(await insertMonitoredRoom(testApp().deps.db, w.siteA)).space.id}/pressure?range=30d`,
+    }),
+    ok: 200,
+    allowed: readers,
+    hidden: notAtA,
+  },
+  "PUT /spaces/:spaceId/monitor": {
+    prepare: async (w) => {
+      const floor = { id: w.floorA, siteId: w.siteA };
+      const room = await insertSpace(testApp().deps.db, floor, "isolation_room");
+      return { url: `/api/spaces/${room.id}/monitor`, body: { monitorId: freshMonitorId() } };
+    },
+    ok: 200,
+    allowed: admins,
+    hidden: notAtA,
+  },
+  "DELETE /spaces/:spaceId/monitor": {
+    prepare: async (w) => ({
+      url: `/api/spaces/${(await insertMonitoredRoom(testApp().deps.db, w.siteA)).space.id}/monitor`,
+    }),
+    ok: 204,
+    allowed: admins,
     hidden: notAtA,
   },
   "PATCH /spaces/:spaceId/cadence": {

@@ -5,6 +5,8 @@ import { Link, type LoaderFunctionArgs, useParams } from "react-router-dom";
 import { buttonStyles } from "@/components/ui/button";
 import { TextLink } from "@/components/ui/text-link";
 import { paths } from "@/config/paths";
+import { roomPressureQueryOptions } from "@/features/pressure/api/get-room-pressure";
+import { RoomPressureSection } from "@/features/pressure/components/room-pressure-section";
 import { spaceAuditsQueryOptions } from "@/features/walkthroughs/api/get-space-audits";
 import { AuditHistory } from "@/features/walkthroughs/components/audit-history";
 import { isObservedZone } from "@/features/walkthroughs/lib/observation-flow";
@@ -19,12 +21,16 @@ export function spaceAuditsLoader(queryClient: QueryClient) {
     const parsed = spaceParamsSchema.safeParse(params);
     if (parsed.success && (await isSignedIn(queryClient))) {
       void queryClient.prefetchQuery(spaceAuditsQueryOptions(parsed.data.spaceId));
+      void queryClient.prefetchQuery(roomPressureQueryOptions(parsed.data.spaceId, "24h"));
     }
     return null;
   };
 }
 
-/** A space's audits: date, auditor, verdict, score; each opens read-only once submitted. */
+/**
+ * A space's page: for an isolation room its live pressure, then its audits (date, auditor,
+ * verdict, score; each opens read-only once submitted).
+ */
 export function SpaceAuditsRoute() {
   const { can, canAnywhere } = useAuthorization();
   const queryClient = useQueryClient();
@@ -36,6 +42,12 @@ export function SpaceAuditsRoute() {
       key={spaceId}
       spaceId={spaceId}
       auditHref={paths.audit.getHref}
+      beforeAudits={
+        <RoomPressureSection
+          spaceId={spaceId}
+          canManage={(siteId) => can("update:site:site", siteId)}
+        />
+      }
       backLink={(siteId) =>
         siteId ? (
           <TextLink to={paths.siteDue.getHref(siteId)}>Due for audit</TextLink>

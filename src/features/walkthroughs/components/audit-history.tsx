@@ -53,10 +53,18 @@ export interface AuditHistoryProps {
   /** Start audit, for people who may audit at the space's site (null until it is known). */
   startAction?: (siteId: string | null) => ReactNode;
   backLink?: (siteId: string | null) => ReactNode;
+  /** Shown above the audits: the room's live pressure, composed by the page. */
+  beforeAudits?: ReactNode;
 }
 
 /** A space's audits, newest first, with any still waiting on this phone at the top. */
-export function AuditHistory({ spaceId, auditHref, startAction, backLink }: AuditHistoryProps) {
+export function AuditHistory({
+  spaceId,
+  auditHref,
+  startAction,
+  backLink,
+  beforeAudits,
+}: AuditHistoryProps) {
   const audits = useSpaceAudits(spaceId);
   const onPhone = usePhoneAuditsForSpace(spaceId);
   const listed = new Set(
@@ -104,6 +112,7 @@ export function AuditHistory({ spaceId, auditHref, startAction, backLink }: Audi
       ) : null}
 
       <div className="flex flex-col gap-6">
+        {beforeAudits}
         {waiting.length > 0 ? (
           <Card className="bg-brand-50">
             <h2 className="text-lg font-semibold">On this phone</h2>
