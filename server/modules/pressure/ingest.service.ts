@@ -46,6 +46,8 @@ export interface PressureIngestOptions {
   /** A batch is stored after this long or at `batchMax` readings, whichever comes first. */
   batchMs?: number;
   batchMax?: number;
+  /** The advisory lock's key; every process of one installation uses the same (the default). */
+  lockKey?: bigint;
   /** How often a process without the lock tries it again (and the holder checks it still has it). */
   lockRetryMs?: number;
 }
@@ -258,7 +260,7 @@ export function createPressureIngest(options: PressureIngestOptions) {
       await candidate.connect();
       const result = await candidate.query<{ taken: boolean }>(
         "select pg_try_advisory_lock($1::bigint) as taken",
-        [ingestLockKey.toString()],
+        [(options.lockKey ?? ingestLockKey).toString()],
       );
       if (!result.rows[0]?.taken || (state as IngestState) === "stopped") {
         await candidate.end();
