@@ -13,6 +13,8 @@ import { mailRoutes } from "./modules/mail/mail.router";
 import { observationRoutes } from "./modules/observations/observations.router";
 import { peopleRoutes } from "./modules/people/people.router";
 import { siteRoutes } from "./modules/sites/sites.router";
+import { uploadTokenRoutes } from "./modules/pressure/upload-tokens.router";
+import { uploadRoutes } from "./modules/pressure/uploads.router";
 
 /** Every API route with its declared access: the server mounts these and the role matrix tests them. */
 export const apiRoutes = [
@@ -31,4 +33,6 @@ export const apiRoutes = [
   ...actionRoutes,
   ...committeeRoutes,
   ...observationRoutes,
+  ...uploadTokenRoutes,
+  ...uploadRoutes,
 ];

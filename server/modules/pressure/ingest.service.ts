@@ -211,7 +211,10 @@ export function createPressureIngest(options: PressureIngestOptions) {
       logger.info({ broker }, "pressure ingest connected to the broker");
       next.subscribe(pressureTopicFilter(prefix), { qos: 1 }, (err) => {
         if (err)
-          logger.error({ err: { message: err.message }, broker }, "pressure topic subscribe failed");
+          logger.error(
+            { err: { message: err.message }, broker },
+            "pressure topic subscribe failed",
+          );
       });
     });
     next.on("message", onMessage);
