@@ -21,12 +21,12 @@ export const createUploadTokenBodySchema = z.strictObject({
 export type CreateUploadTokenBody = z.infer<typeof createUploadTokenBodySchema>;
 
 export const uploadTokenSchema = z.object({
-  id: z.string(),
+  id: responseText(),
   name: responseText(),
-  createdAt: z.string(),
+  createdAt: responseText(),
   createdByName: responseText().nullable(),
-  lastUsedAt: z.string().nullable(),
-  revokedAt: z.string().nullable(),
+  lastUsedAt: responseText().nullable(),
+  revokedAt: responseText().nullable(),
 });
 export type UploadToken = z.infer<typeof uploadTokenSchema>;
 
@@ -36,7 +36,7 @@ export type UploadTokenList = z.infer<typeof uploadTokenListSchema>;
 /** The reply to making a token: the token itself, shown this once and never again. */
 export const createdUploadTokenSchema = z.object({
   token: uploadTokenSchema,
-  secret: z.string(),
+  secret: responseText(),
 });
 export type CreatedUploadToken = z.infer<typeof createdUploadTokenSchema>;
 
@@ -79,8 +79,8 @@ export const refusedReadingSchema = z.object({
   /** The CSV line (1 = the header). */
   line: z.number().optional(),
   /** `readings.3.pressure` for JSON; the column, `pressure`, for CSV. */
-  field: z.string(),
-  message: z.string(),
+  field: responseText(),
+  message: responseText(),
   reason: z.enum(refusalReasons),
 });
 export type RefusedReading = z.infer<typeof refusedReadingSchema>;

@@ -76,7 +76,7 @@ export async function storeUpload(
   const { now } = options;
   const refused: RefusedReading[] = [];
   const candidates: Candidate[] = [];
-  let received = 0;
+  let received: number;
 
   if (body.csv !== undefined) {
     const parsed = parsePressureCsv(body.csv);
