@@ -56,6 +56,9 @@ export const queryKeys = {
     assignees: (siteId: string) => ["actions", "assignees", siteId] as const,
     duePolicy: (siteId: string) => ["actions", "due-policy", siteId] as const,
   },
+  pressureUploadTokens: {
+    site: (siteId: string) => ["pressure-upload-tokens", siteId] as const,
+  },
   committee: {
     /** Every committee figure: trends and comparisons span sites, so all of them. */
     all: ["committee"] as const,

@@ -14,6 +14,7 @@ import { DuePolicyForm } from "@/features/actions/components/due-policy-form";
 import { siteQueryOptions, useSite } from "@/features/sites/api/get-site";
 import { EditSiteForm } from "@/features/sites/components/site-form";
 import { SiteRetirement } from "@/features/sites/components/site-retirement";
+import { UploadTokens } from "@/features/pressure-uploads/components/upload-tokens";
 import { isApiError } from "@/lib/api-client";
 import { useAuthorization } from "@/lib/authorization";
 
@@ -79,6 +80,9 @@ function EditSite({ siteId }: { siteId: string }) {
       <Card className="mt-6">
         <h2 className="mb-2 text-lg font-semibold">Due times for corrective actions</h2>
         <DuePolicyForm siteId={siteId} />
+      </Card>
+      <Card className="mt-6">
+        <UploadTokens siteId={siteId} />
       </Card>
       {can("create:site:network") ? (
         <div className="mt-6">
