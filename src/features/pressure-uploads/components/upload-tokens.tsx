@@ -5,7 +5,7 @@ import { Alert } from "@/components/ui/alert";
 import { Badge } from "@/components/ui/badge";
 import { Button } from "@/components/ui/button";
 import { ConfirmStep } from "@/components/ui/confirm-step";
-import { Spinner, SpinnerGlyph } from "@/components/ui/spinner";
+import { SpinnerGlyph } from "@/components/ui/spinner";
 import { TextField } from "@/components/ui/text-field";
 import { isApiError } from "@/lib/api-client";
 import { formatDateTime } from "@/lib/format";
@@ -182,7 +182,8 @@ export function UploadTokens({ siteId }: { siteId: string }) {
       </div>
       <CreateToken siteId={siteId} />
       {tokens.isPending ? (
-        <Spinner label="Loading tokens…" />
+        // Plain words, not a live status: the page's own notices are the ones announced here.
+        <p className="text-sm text-ink-muted">Loading tokens…</p>
       ) : tokens.isError ? (
         <Alert role="alert" tone="error" title="We could not load the tokens">
           <p>{tokens.error.message}</p>
