@@ -71,7 +71,9 @@ const envSchema = z.object({
    * Without it Lintel takes readings only by HTTP upload (`npm start` runs a local broker instead).
    */
   LINTEL_MQTT_URL: z
-    .url({ message: "LINTEL_MQTT_URL must be a broker address such as mqtts://broker.example.org:8883" })
+    .url({
+      message: "LINTEL_MQTT_URL must be a broker address such as mqtts://broker.example.org:8883",
+    })
     .refine((value) => /^(mqtts?|wss?):\/\//.test(value), {
       message: "LINTEL_MQTT_URL must start with mqtt://, mqtts://, ws:// or wss://",
     })
