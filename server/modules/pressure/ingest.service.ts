@@ -255,7 +255,12 @@ export function createPressureIngest(options: PressureIngestOptions) {
       }
       return;
     }
-    const candidate = new pg.Client({ connectionString: options.databaseUrl });
+    // Keep-alive notices a database host that vanished; the timeout keeps a check from hanging.
+    const candidate = new pg.Client({
+      connectionString: options.databaseUrl,
+      keepAlive: true,
+      query_timeout: 10_000,
+    });
     candidate.on("error", (err) => {
       if (lockClient === candidate) lockLost(err.message);
     });

@@ -41,9 +41,14 @@ export const uploadRoutes = [
     body: pressureUploadBodySchema,
     async handle({ req, res, deps, body }) {
       const upload = await requireUploadSite(deps.db, req.get("authorization"), req.ip ?? "");
+      const onStored = createOnStored(deps);
       const result = await storeUpload(deps.db, upload, body, {
         now: new Date(),
-        onStored: createOnStored(deps),
+        // The readings are stored either way: a failing alarm round must not turn this into a 500.
+        onStored: (inserted, now) =>
+          onStored(inserted, now).catch((err: unknown) =>
+            deps.logger.error({ err }, "after a pressure upload, the alarm hook failed"),
+          ),
       });
       res.json(result);
     },
