@@ -14,6 +14,7 @@ import { prepareCluster } from "./lib/postgres";
 import { freePort } from "./lib/process";
 import { benchCommittee } from "./bench-committee";
 import { benchPhone } from "./bench-phone";
+import { benchPressureIngest } from "./bench-pressure-ingest";
 import { clientBundleReport } from "./lib/bundle-size";
 import { fixedCostLine, measureFixedCost } from "./lib/fixed-cost";
 
@@ -250,6 +251,8 @@ async function main() {
     console.log("\nCommittee view at network scale:");
     await benchCommittee(cluster, s3.endpoint);
     await benchPhone(cluster, s3.endpoint);
+    console.log("\nLive room pressure, ingestion through the broker:");
+    await benchPressureIngest(cluster);
   } finally {
     await server.close();
     await s3.stop();

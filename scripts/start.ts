@@ -8,6 +8,12 @@ import { buildClient, projectRoot } from "./lib/client-build";
 import { startDemoIdentityProvider } from "./lib/identity-provider";
 import { startMailCatcher, type MailCatcher } from "./lib/mail-catcher";
 import { startS3Fake, type S3Fake } from "./lib/s3-fake";
+import { startMqttBroker, type MqttBroker } from "./lib/mqtt-broker";
+import {
+  demoMonitors,
+  startPressureSimulator,
+  type PressureSimulator,
+} from "./lib/pressure-simulator";
 import { chooseClusterFolder, prepareCluster, type Cluster } from "./lib/postgres";
 import { superviseCluster, type Supervisor } from "./lib/postgres-supervisor";
 
@@ -22,6 +28,8 @@ async function main() {
   let server: RunningServer | null = null;
   let mailCatcher: MailCatcher | null = null;
   let s3: S3Fake | null = null;
+  let mqttBroker: MqttBroker | null = null;
+  let simulator: PressureSimulator | null = null;
   let mailCatcherDir: string | undefined;
   let stopping = false;
 
@@ -30,7 +38,9 @@ async function main() {
     stopping = true;
     console.log(`\n${reason}: stopping Lintel…`);
     try {
+      await simulator?.stop();
       await server?.close();
+      await mqttBroker?.stop();
       await mailCatcher?.stop();
       await s3?.stop();
     } finally {
@@ -84,6 +94,13 @@ async function main() {
       console.log(`Local S3-compatible store on ${s3.endpoint} (objects in ${dir}).`);
     }
 
+    if (!process.env.LINTEL_MQTT_URL) {
+      // No real broker configured: a local one, which the demo's simulated monitors publish to.
+      mqttBroker = await startMqttBroker();
+      process.env.LINTEL_MQTT_URL = mqttBroker.url;
+      console.log(`Local MQTT broker on ${mqttBroker.url} (room-pressure readings).`);
+    }
+
     const clientDir = path.join(projectRoot, "dist", "client");
     console.log("Building the app…");
     // The client build sets NODE_ENV=production in this process; the server keeps what was given.
@@ -103,6 +120,13 @@ async function main() {
           port: Number(process.env.LINTEL_OIDC_DEMO_PORT ?? 54331),
         }),
     });
+    if (mqttBroker && env.LINTEL_DEMO === "1") {
+      const monitors = await demoMonitors(env.DATABASE_URL);
+      simulator = await startPressureSimulator({ brokerUrl: mqttBroker.url, monitors });
+      console.log(
+        `Simulated room-pressure monitors: ${monitors.length}, a reading every 5 s each (never with a real broker).`,
+      );
+    }
     console.log(`\nLintel is ready: ${server.url}`);
     if (env.HOST === "0.0.0.0") console.log("Listening on every network interface (HOST=0.0.0.0).");
     if (env.LINTEL_DEMO === "1") {
@@ -123,7 +147,9 @@ async function main() {
     console.log("\nPress Ctrl-C to stop.");
   } catch (error) {
     console.error(`\n${error instanceof Error ? error.message : String(error)}`);
+    await simulator?.stop().catch(() => undefined);
     await server?.close().catch(() => undefined);
+    await mqttBroker?.stop();
     await mailCatcher?.stop();
     await s3?.stop();
     await supervisor?.stop();

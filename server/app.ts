@@ -13,6 +13,7 @@ import { compressApiReplies } from "./middleware/api-compression";
 import { isHashedFile, serveClientFiles } from "./middleware/client-files";
 import { mountRoutes, type AppDeps } from "./lib/routes";
 import { apiRoutes } from "./routes";
+import { pressureUploadParsers, pressureUploadPath } from "./modules/pressure/uploads.router";
 
 const requestIdPattern = /^[A-Za-z0-9._-]{8,64}$/;
 
@@ -78,8 +79,9 @@ export function createApp(deps: AppDeps): express.Express {
     next();
   });
   api.use(compressApiReplies());
+  api.use(pressureUploadParsers());
   api.use(express.json({ limit: "100kb" }));
-  api.use(requireSameOrigin(env.publicUrl));
+  api.use(requireSameOrigin(env.publicUrl, [pressureUploadPath]));
   api.use(loadSession(deps));
   mountRoutes(api, apiRoutes, deps);
   api.use(apiNotFound);

@@ -1,3 +1,5 @@
+import { existsSync } from "node:fs";
+
 import { z } from "zod";
 
 /** The only reader of process.env. Parsed once at start-up; invalid settings stop the process. */
@@ -64,6 +66,38 @@ const envSchema = z.object({
     .optional(),
   /** Longest a session begun through an identity provider lasts; it is never extended. */
   LINTEL_OIDC_SESSION_HOURS: positiveInt(12),
+  /**
+   * Live room pressure: the MQTT broker monitors publish to (mqtt://, mqtts://, ws://, wss://).
+   * Without it Lintel takes readings only by HTTP upload (`npm start` runs a local broker instead).
+   */
+  LINTEL_MQTT_URL: z
+    .url({
+      message: "LINTEL_MQTT_URL must be a broker address such as mqtts://broker.example.org:8883",
+    })
+    .refine((value) => /^(mqtts?|wss?):\/\//.test(value), {
+      message: "LINTEL_MQTT_URL must start with mqtt://, mqtts://, ws:// or wss://",
+    })
+    .optional(),
+  LINTEL_MQTT_USERNAME: z.string().min(1).optional(),
+  LINTEL_MQTT_PASSWORD: z.string().min(1).optional(),
+  /** Topic prefix monitors publish under: `<prefix>/<monitor id>`. */
+  LINTEL_MQTT_TOPIC_PREFIX: z
+    .string()
+    .regex(/^[^+#/](?:[^+#]*[^+#/])?$/, {
+      message:
+        "LINTEL_MQTT_TOPIC_PREFIX has no wildcards and no leading or trailing slash, e.g. lintel/pressure",
+    })
+    .default("lintel/pressure"),
+  /** A PEM file of the certificate authority that signed the broker's certificate (mqtts, wss). */
+  LINTEL_MQTT_CA_FILE: z.string().min(1).optional(),
+  /** `false` accepts a broker certificate that does not verify: only for a test broker. */
+  LINTEL_MQTT_REJECT_UNAUTHORIZED: z.enum(["true", "false"]).default("true"),
+  /** The client id Lintel connects with; one per installation, kept so QoS 1 sessions resume. */
+  LINTEL_MQTT_CLIENT_ID: z.string().min(1).max(64).default("lintel-ingest"),
+  /** `0` keeps this process from ever taking the ingest lock (another process ingests). */
+  LINTEL_PRESSURE_INGEST: z.enum(["0", "1"]).default("1"),
+  /** Raw readings are kept this many days (dropped a month at a time); roll-ups are kept. */
+  LINTEL_PRESSURE_RAW_DAYS: positiveInt(90),
   /** Folder holding the built client; empty means API only. */
   LINTEL_CLIENT_DIR: z.string().optional(),
 });
@@ -92,6 +126,16 @@ export function parseEnv(source: NodeJS.ProcessEnv = process.env): Env {
   if (!env.LINTEL_SECRET_KEY && env.NODE_ENV === "production") {
     throw new Error(
       "Lintel cannot start: invalid configuration\n  LINTEL_SECRET_KEY: required in production (openssl rand -base64 32)",
+    );
+  }
+  if (env.LINTEL_MQTT_CA_FILE && !existsSync(env.LINTEL_MQTT_CA_FILE)) {
+    throw new Error(
+      `Lintel cannot start: invalid configuration\n  LINTEL_MQTT_CA_FILE: no file at ${env.LINTEL_MQTT_CA_FILE}`,
+    );
+  }
+  if (env.LINTEL_MQTT_PASSWORD && !env.LINTEL_MQTT_USERNAME) {
+    throw new Error(
+      "Lintel cannot start: invalid configuration\n  LINTEL_MQTT_USERNAME: required with LINTEL_MQTT_PASSWORD",
     );
   }
   const secretKey = env.LINTEL_SECRET_KEY

@@ -17,6 +17,8 @@ import { pressureSiteRoutes } from "./modules/pressure/site.router";
 import { pressureSettingsRoutes } from "./modules/pressure/settings.router";
 import { pressureSpaceRoutes } from "./modules/pressure/space.router";
 import { siteRoutes } from "./modules/sites/sites.router";
+import { uploadTokenRoutes } from "./modules/pressure/upload-tokens.router";
+import { uploadRoutes } from "./modules/pressure/uploads.router";
 
 /** Every API route with its declared access: the server mounts these and the role matrix tests them. */
 export const apiRoutes = [
@@ -39,4 +41,6 @@ export const apiRoutes = [
   ...pressureSiteRoutes,
   ...pressureSettingsRoutes,
   ...pressureSpaceRoutes,
+  ...uploadTokenRoutes,
+  ...uploadRoutes,
 ];

@@ -17,6 +17,9 @@ import { createActionScheduler } from "./modules/actions/actions.scheduler";
 import { createPressureAlarmTimer } from "./modules/pressure/alarms.job";
 import { purgeObservationDetail } from "./modules/observations/observations.service";
 import { createOutboxWorker } from "./outbox/outbox-worker";
+import { createOnStored } from "./modules/pressure/ingest.hook";
+import { createPressureIngest, mqttSettingsFrom } from "./modules/pressure/ingest.service";
+import { createPartitionJob } from "./modules/pressure/partitions.job";
 
 export interface RunningServer {
   url: string;
@@ -117,6 +120,31 @@ export async function startServer(env: Env, options: StartOptions = {}): Promise
   });
   pressureAlarms.start();
 
+  // Live room pressure: partitions made ahead (and old raw months dropped) at start and daily;
+  // readings from the broker, stored by whichever process holds the ingest lock.
+  const partitions = createPartitionJob({
+    db: database.db,
+    logger,
+    rawDays: env.LINTEL_PRESSURE_RAW_DAYS,
+  });
+  await partitions.start();
+  const mqttSettings = mqttSettingsFrom(env);
+  const ingest =
+    mqttSettings && env.LINTEL_PRESSURE_INGEST === "1"
+      ? createPressureIngest({
+          db: database.db,
+          databaseUrl: env.DATABASE_URL,
+          logger,
+          mqtt: mqttSettings,
+          onStored: createOnStored({
+            db: database.db,
+            logger,
+            notifyOutbox: () => worker?.nudge(),
+          }),
+        })
+      : null;
+  await ingest?.start();
+
   const app = createApp(
     buildDeps(env, database, logger, storage, () => worker?.nudge(), {
       mailCatcherDir: options.mailCatcherDir ?? null,
@@ -141,6 +169,8 @@ export async function startServer(env: Env, options: StartOptions = {}): Promise
         server.closeIdleConnections();
       });
       clearInterval(reconcileTimer);
+      await ingest?.stop();
+      await partitions.stop();
       await scheduler?.stop();
       await pressureAlarms.stop();
       await worker?.stop();

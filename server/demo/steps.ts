@@ -12,6 +12,7 @@ import { createDemoCorrectiveActions } from "./corrective-actions";
 import { createDemoObservationHistory } from "./observation-history";
 import { createDemoIdentityProvider } from "./identity-provider";
 import { createDemoFloor, type DemoFloorPlan } from "./floor-plans";
+import { createDemoPressureMonitors } from "./pressure-monitors";
 import { demoNetworkName, demoPassword, demoPeople, demoSites, type DemoSiteKey } from "./people";
 import type { Tx } from "../db/client";
 import type { DemoStep } from "./run-demo-steps";
@@ -242,6 +243,16 @@ const demoIdentityProvider: DemoStep = {
   },
 };
 
+const pressureMonitorsStep: DemoStep = {
+  id: "2026-12-03-pressure-monitors",
+  description: "a room-pressure monitor mapped to every demo isolation room",
+  async run(tx) {
+    const demo = await findDemoSites(tx);
+    if (!demo || !hasEverySite(demo.siteIds)) return;
+    await createDemoPressureMonitors(tx, demo.siteIds);
+  },
+};
+
 /** In release order; append new steps, never reorder or rename released ones. */
 export const demoStepList: DemoStep[] = [
   networkSitesPeople,
@@ -252,4 +263,5 @@ export const demoStepList: DemoStep[] = [
   sequenceDefaults,
   observationHistory,
   demoIdentityProvider,
+  pressureMonitorsStep,
 ];

@@ -59,6 +59,9 @@ export const queryKeys = {
   pressureSettings: {
     site: (siteId: string) => ["pressure-settings", siteId] as const,
   },
+  pressureUploadTokens: {
+    site: (siteId: string) => ["pressure-upload-tokens", siteId] as const,
+  },
   committee: {
     /** Every committee figure: trends and comparisons span sites, so all of them. */
     all: ["committee"] as const,

@@ -7,6 +7,7 @@ import { insertSpace } from "../factories/audits";
 import { buildObservation, publishedSequence } from "../factories/observations";
 import { insertAlarmH4, insertMonitorH4 } from "../factories/pressure-h4";
 import { freshMonitorId, insertMonitoredRoom } from "../factories/pressure-h3";
+import { insertUploadToken, newMonitorId } from "../factories/pressure-h1";
 import { buildSite } from "../factories/records";
 import { api } from "../helpers/app";
 import { uniqueDomain } from "../helpers/identity-provider";
@@ -48,6 +49,8 @@ export interface ExampleRequest {
   upload?: { field: string; file: Buffer; name: string; fields?: Record<string, string> };
   /** The schema of the upload's text fields, which tells a missing optional field from a fault. */
   uploadSchema?: z.ZodType;
+  /** Extra headers on every request of the battery (a pressure upload's bearer token). */
+  headers?: Record<string, string>;
 }
 
 const square: [number, number][] = [
@@ -573,6 +576,43 @@ export const examples: Record<string, RouteExample> = {
   },
   "GET /committee/audits/export": {
     control: () => ({ query: { from: "2026-01", to: "2026-06" } }),
+  },
+  "POST /sites/:siteId/pressure-upload-tokens": {
+    control: (w) => ({ params: { siteId: w.siteA }, body: { name: "Building 2 gateway" } }),
+  },
+  "DELETE /sites/:siteId/pressure-upload-tokens/:tokenId": {
+    control: async (w) => {
+      const { token } = await insertUploadToken(
+        w.app.deps.db,
+        w.siteA,
+        w.callers["administrator @A"].id,
+      );
+      return { params: { siteId: w.siteA, tokenId: token.id } };
+    },
+  },
+  "POST /pressure/readings": {
+    as: "nobody",
+    control: async (w) => {
+      const { secret } = await insertUploadToken(
+        w.app.deps.db,
+        w.siteA,
+        w.callers["administrator @A"].id,
+      );
+      return {
+        headers: { Authorization: `Bearer ${secret}` },
+        body: {
+          readings: [
+            {
+              monitorId: newMonitorId("robust"),
+              measuredAt: new Date().toISOString(),
+              pressure: -5,
+              unit: "Pa",
+              door: "closed",
+            },
+          ],
+        },
+      };
+    },
   },
   "GET /committee/report": { control: () => ({ query: { from: "2026-01", to: "2026-06" } }) },
   "GET /committee/observations": {

@@ -78,6 +78,7 @@ interface Outgoing {
   json?: unknown;
   upload?: Variant["upload"];
   noBody?: boolean;
+  headers?: Record<string, string>;
 }
 
 describe("robustness: every route against malformed input", () => {
@@ -90,6 +91,7 @@ describe("robustness: every route against malformed input", () => {
       route.method,
       urlOf(route, out.params, out.query),
     );
+    for (const [name, value] of Object.entries(out.headers ?? {})) request.set(name, value);
     if (out.upload) {
       for (const [name, value] of Object.entries(out.upload.fields ?? {}))
         request.field(name, value);
@@ -188,6 +190,7 @@ describe("robustness: every route against malformed input", () => {
             : variant.upload,
         json: variant.raw === undefined && !variant.upload ? control.body : undefined,
         noBody: variant.noBody,
+        headers: control.headers,
       });
 
       const problems: string[] = [];
@@ -206,6 +209,7 @@ describe("robustness: every route against malformed input", () => {
         params,
         json: control.upload ? undefined : control.body,
         upload: control.upload,
+        headers: control.headers,
       });
       count(tally, answer.status);
       if (answer.status < 200 || answer.status >= 300)

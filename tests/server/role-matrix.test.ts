@@ -47,6 +47,7 @@ import { issueTestLink } from "../helpers/links";
 import { configureProvider, uniqueDomain } from "../helpers/identity-provider";
 import { jpegWithGps, pngPlan } from "../factories/images";
 import { sessionCookieFor, signInAs } from "../helpers/auth";
+import { insertUploadToken, newMonitorId } from "../factories/pressure-h1";
 
 // The designed access for every route, stated here independently of the server's own tables.
 // Callers hold roles at site A (the site every sample resource belongs to), at site B (another
@@ -106,6 +107,8 @@ interface Call {
   /** A file sent as multipart/form-data instead of a JSON body, with any text fields. */
   file?: { field: string; content: Buffer; name: string };
   fields?: Record<string, string>;
+  /** Extra request headers (a pressure upload's bearer token). */
+  headers?: Record<string, string>;
 }
 
 interface Sample {
@@ -987,6 +990,52 @@ const samples: Record<string, Sample> = {
     ok: 200,
     allowed: everyone,
   },
+  "GET /sites/:siteId/pressure-upload-tokens": {
+    prepare: (w) => ({ url: `/api/sites/${w.siteA}/pressure-upload-tokens` }),
+    ok: 200,
+    allowed: admins,
+    hidden: notAtA,
+  },
+  "POST /sites/:siteId/pressure-upload-tokens": {
+    prepare: (w) => ({
+      url: `/api/sites/${w.siteA}/pressure-upload-tokens`,
+      body: { name: "Matrix gateway" },
+    }),
+    ok: 201,
+    allowed: admins,
+    hidden: notAtA,
+  },
+  "DELETE /sites/:siteId/pressure-upload-tokens/:tokenId": {
+    prepare: async (w) => {
+      const { token } = await insertUploadToken(testApp().deps.db, w.siteA, w.networkAdmin);
+      return { url: `/api/sites/${w.siteA}/pressure-upload-tokens/${token.id}` };
+    },
+    ok: 200,
+    allowed: admins,
+    hidden: notAtA,
+  },
+  // No session decides: the site's upload token does, whoever else is signed in.
+  "POST /pressure/readings": {
+    prepare: async (w) => {
+      const { secret } = await insertUploadToken(testApp().deps.db, w.siteA, w.networkAdmin);
+      return {
+        url: "/api/pressure/readings",
+        headers: { Authorization: `Bearer ${secret}` },
+        body: {
+          readings: [
+            {
+              monitorId: newMonitorId("matrix"),
+              measuredAt: new Date().toISOString(),
+              pressure: -5,
+              unit: "Pa",
+            },
+          ],
+        },
+      };
+    },
+    ok: 200,
+    allowed: everyone,
+  },
   "GET /sites": { prepare: () => ({ url: "/api/sites" }), ok: 200, allowed: everyone },
   "POST /sites": {
     prepare: () => ({ url: "/api/sites", body: buildSite() }),
@@ -1269,8 +1318,13 @@ describe("role matrix: every registered route, as every role, another site's mem
   it("when a committee member calls any write that is not about their own account, then it is refused with 403", () => {
     // Each of these rows is also called for real below, as every caller.
     const ownAccount = ["/auth/", "/invitations/"];
+    // A pressure upload is authorised by a site's upload token, never by the person signed in.
+    const byToken = ["/pressure/readings"];
     const writes = apiRoutes.filter(
-      (route) => route.method !== "get" && !ownAccount.some((p) => route.path.startsWith(p)),
+      (route) =>
+        route.method !== "get" &&
+        !ownAccount.some((p) => route.path.startsWith(p)) &&
+        !byToken.includes(route.path),
     );
     expect(writes.length).toBeGreaterThan(30);
     for (const committee of ["committee member (network)", "committee member @A"] as const) {
@@ -1289,9 +1343,10 @@ describe("role matrix: every registered route, as every role, another site's mem
       if (!sample) return;
       const call = async (caller: Caller | null) => {
         const userId = caller ? userIds[caller] : null;
-        const { url, body, file, fields } = await sample.prepare(world, { userId });
+        const { url, body, file, fields, headers } = await sample.prepare(world, { userId });
         const cookie = userId ? await sessionCookieFor(userId) : undefined;
         const request = api(matrixApp.app, { cookie }).request(route.method, url);
+        for (const [name, value] of Object.entries(headers ?? {})) request.set(name, value);
         if (file) {
           for (const [name, value] of Object.entries(fields ?? {})) request.field(name, value);
           return request.attach(file.field, file.content, file.name);

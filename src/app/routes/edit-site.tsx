@@ -16,6 +16,7 @@ import { PressureSettingsForm } from "@/features/pressure-settings/components/pr
 import { siteQueryOptions, useSite } from "@/features/sites/api/get-site";
 import { EditSiteForm } from "@/features/sites/components/site-form";
 import { SiteRetirement } from "@/features/sites/components/site-retirement";
+import { UploadTokens } from "@/features/pressure-uploads/components/upload-tokens";
 import { isApiError } from "@/lib/api-client";
 import { useAuthorization } from "@/lib/authorization";
 
@@ -86,6 +87,9 @@ function EditSite({ siteId }: { siteId: string }) {
       <Card className="mt-6">
         <h2 className="mb-2 text-lg font-semibold">Room-pressure alarms</h2>
         <PressureSettingsForm siteId={siteId} />
+      </Card>
+      <Card className="mt-6">
+        <UploadTokens siteId={siteId} />
       </Card>
       {can("create:site:network") ? (
         <div className="mt-6">
