@@ -17,7 +17,7 @@ import { createActionScheduler } from "./modules/actions/actions.scheduler";
 import { createPressureAlarmTimer } from "./modules/pressure/alarms.job";
 import { purgeObservationDetail } from "./modules/observations/observations.service";
 import { createOutboxWorker } from "./outbox/outbox-worker";
-import { createOnStored } from "./modules/pressure/ingest.hook";
+import { alarmRoundsSettled, createOnStored } from "./modules/pressure/ingest.hook";
 import { createPressureIngest, mqttSettingsFrom } from "./modules/pressure/ingest.service";
 import { createPartitionJob } from "./modules/pressure/partitions.job";
 
@@ -138,6 +138,7 @@ export async function startServer(env: Env, options: StartOptions = {}): Promise
           mqtt: mqttSettings,
           onStored: createOnStored({
             db: database.db,
+            env,
             logger,
             notifyOutbox: () => worker?.nudge(),
           }),
@@ -170,6 +171,7 @@ export async function startServer(env: Env, options: StartOptions = {}): Promise
       });
       clearInterval(reconcileTimer);
       await ingest?.stop();
+      await alarmRoundsSettled(database.db);
       await partitions.stop();
       await scheduler?.stop();
       await pressureAlarms.stop();
