@@ -5,7 +5,11 @@ import { Link, type LoaderFunctionArgs, useParams } from "react-router-dom";
 import { buttonStyles } from "@/components/ui/button";
 import { TextLink } from "@/components/ui/text-link";
 import { paths } from "@/config/paths";
-import { roomPressureQueryOptions } from "@/features/pressure/api/get-room-pressure";
+import { PageSkeleton } from "@/components/ui/skeleton";
+import {
+  roomPressureQueryOptions,
+  useRoomPressure,
+} from "@/features/pressure/api/get-room-pressure";
 import { RoomPressureSection } from "@/features/pressure/components/room-pressure-section";
 import { spaceAuditsQueryOptions } from "@/features/walkthroughs/api/get-space-audits";
 import { AuditHistory } from "@/features/walkthroughs/components/audit-history";
@@ -35,8 +39,14 @@ export function SpaceAuditsRoute() {
   const { can, canAnywhere } = useAuthorization();
   const queryClient = useQueryClient();
   const parsed = spaceParamsSchema.safeParse(useParams());
+  const spaceId = parsed.success ? parsed.data.spaceId : "";
+  const pressure = useRoomPressure(spaceId, "24h", parsed.success);
   if (!parsed.success) return <NotAvailable description="There is no space at this address." />;
-  const { spaceId } = parsed.data;
+  // The page is drawn once, with the room's pressure above the audits, so nothing moves when the
+  // pressure arrives; only the first attempt is waited for (offline, the audits on this phone
+  // show at once).
+  if (pressure.isPending && pressure.fetchStatus === "fetching" && pressure.failureCount === 0)
+    return <PageSkeleton label="Loading audits…" blocks={[3.5, 16]} />;
   return (
     <AuditHistory
       key={spaceId}

@@ -30,6 +30,6 @@ export function roomPressureQueryOptions(spaceId: string, range: PressureRange) 
   });
 }
 
-export function useRoomPressure(spaceId: string, range: PressureRange) {
-  return useQuery(roomPressureQueryOptions(spaceId, range));
+export function useRoomPressure(spaceId: string, range: PressureRange, enabled = true) {
+  return useQuery({ ...roomPressureQueryOptions(spaceId, range), enabled });
 }
