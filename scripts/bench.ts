@@ -14,6 +14,7 @@ import { prepareCluster } from "./lib/postgres";
 import { freePort } from "./lib/process";
 import { benchCommittee } from "./bench-committee";
 import { benchPhone } from "./bench-phone";
+import { benchPressureChart } from "./bench-pressure-chart";
 import { benchPressureIngest } from "./bench-pressure-ingest";
 import { clientBundleReport } from "./lib/bundle-size";
 import { fixedCostLine, measureFixedCost } from "./lib/fixed-cost";
@@ -253,6 +254,8 @@ async function main() {
     await benchPhone(cluster, s3.endpoint);
     console.log("\nLive room pressure, ingestion through the broker:");
     await benchPressureIngest(cluster);
+    console.log("\nLive room pressure, a room's charts at 500 monitors:");
+    await benchPressureChart(cluster, s3.endpoint);
   } finally {
     await server.close();
     await s3.stop();

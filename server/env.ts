@@ -96,6 +96,8 @@ const envSchema = z.object({
   LINTEL_MQTT_CLIENT_ID: z.string().min(1).max(64).default("lintel-ingest"),
   /** `0` keeps this process from ever taking the ingest lock (another process ingests). */
   LINTEL_PRESSURE_INGEST: z.enum(["0", "1"]).default("1"),
+  /** `0`: this process runs no room-pressure alarm rounds (another process does). */
+  LINTEL_PRESSURE_ALARMS: z.enum(["0", "1"]).default("1"),
   /** Raw readings are kept this many days (dropped a month at a time); roll-ups are kept. */
   LINTEL_PRESSURE_RAW_DAYS: positiveInt(90),
   /** Folder holding the built client; empty means API only. */

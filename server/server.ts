@@ -111,14 +111,17 @@ export async function startServer(env: Env, options: StartOptions = {}): Promise
       : null;
   scheduler?.start();
   // Room-pressure alarms: every 30 s for silences and ends; the ingest also runs them on new readings.
-  const pressureAlarms = createPressureAlarmTimer({
-    db: database.db,
-    env,
-    logger,
-    intervalMs: 30_000,
-    notifyOutbox: () => worker?.nudge(),
-  });
-  pressureAlarms.start();
+  const pressureAlarms =
+    env.LINTEL_PRESSURE_ALARMS === "1"
+      ? createPressureAlarmTimer({
+          db: database.db,
+          env,
+          logger,
+          intervalMs: 30_000,
+          notifyOutbox: () => worker?.nudge(),
+        })
+      : null;
+  pressureAlarms?.start();
 
   // Live room pressure: partitions made ahead (and old raw months dropped) at start and daily;
   // readings from the broker, stored by whichever process holds the ingest lock.
@@ -174,7 +177,7 @@ export async function startServer(env: Env, options: StartOptions = {}): Promise
       await alarmRoundsSettled(database.db);
       await partitions.stop();
       await scheduler?.stop();
-      await pressureAlarms.stop();
+      await pressureAlarms?.stop();
       await worker?.stop();
       mailer.close();
       storage.close();

@@ -104,6 +104,7 @@ export const queryKeys = {
     current: ["identity-providers", "current"] as const,
   },
   roomPressures: {
+    all: ["room-pressures"] as const,
     /** Every range of one room's pressure (the space page); an acknowledgement refreshes it. */
     space: (spaceId: string) => ["room-pressures", spaceId] as const,
     range: (spaceId: string, range: "24h" | "30d") => ["room-pressures", spaceId, range] as const,

@@ -70,6 +70,13 @@ async function seed(db: pg.Client): Promise<Seeded> {
         where not ($2 and g >= '2026-10-20T00:00Z' and g < '2026-10-21T00:00Z')`,
       [monitorId, index === 1],
     );
+    // Their hours, each counting its minutes with a reading, as storing readings keeps them.
+    await db.query(
+      `insert into pressure_hours (monitor_id, bucket_start, readings, sum_pa, min_pa, max_pa, minutes_with_readings)
+       select monitor_id, date_trunc('hour', bucket_start, 'UTC'), sum(readings), sum(sum_pa), min(min_pa), max(max_pa), count(*)
+         from pressure_minutes where monitor_id = $1 group by 1, 2`,
+      [monitorId],
+    );
     const excursions: [string, string][] =
       index === 0
         ? [

@@ -1,7 +1,5 @@
-import { mkdirSync } from "node:fs";
-
 import { sql } from "drizzle-orm";
-import type { Browser, Page } from "playwright-core";
+import type { Browser } from "playwright-core";
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
 
 import { connectDatabase, type DatabaseHandle } from "../../server/db/client";
@@ -12,8 +10,8 @@ import {
   storeReadingsH4,
 } from "../factories/pressure-h4";
 import { baseUrl, launchBrowser, phonePage, signIn } from "../helpers/browser";
+import { pageWidth, shot } from "../helpers/screens";
 
-const shots = process.env.LINTEL_SHOTS_DIR;
 const password = "lintel-demo-2026";
 const minute = 60_000;
 
@@ -47,20 +45,6 @@ async function monitoredRoom(database: DatabaseHandle, name: string): Promise<Ro
       }
     : await insertMonitorH4(database.db, { id: row.space_id, siteId: row.site_id });
   return { siteId: row.site_id, floorId: row.floor_id, spaceId: row.space_id, monitor };
-}
-
-async function shot(page: Page, name: string) {
-  if (!shots) return;
-  mkdirSync(shots, { recursive: true });
-  await page.screenshot({ path: `${shots}/${name}.png`, fullPage: true });
-}
-
-async function pageWidth(page: Page): Promise<number> {
-  return page.evaluate(
-    () =>
-      (globalThis as unknown as { document: { documentElement: { scrollWidth: number } } }).document
-        .documentElement.scrollWidth,
-  );
 }
 
 describe("a Wexley room drifting positive, on the facilities lead's phone (390×844)", () => {
@@ -185,10 +169,28 @@ describe("a Wexley room drifting positive, on the facilities lead's phone (390×
     ]);
     await shot(page, "home-acknowledged-facilities-lead");
 
-    // The room's own page opens from the card.
+    // The room's own page opens from the card: the excursion now, the chart with its table, and
+    // the log with the acknowledgement.
     await card.getByRole("link", { name: "Open the room" }).click();
     await page.getByRole("heading", { level: 1, name: "Isolation room 2" }).waitFor();
     expect(page.url()).toBe(`${baseUrl()}/spaces/${drifting.spaceId}/audits`);
+    const section = page.getByRole("region", { name: "Room pressure" });
+    const live = section.getByTestId("pressure-live");
+    await live.waitFor();
+    expect(await live.getByRole("status").textContent()).toContain("Excursion");
+    expect(await live.textContent()).toContain("+1.2 Pa");
+    const chart = section.getByTestId("pressure-chart");
+    await chart.locator(".recharts-line path").first().waitFor();
+    expect(await chart.locator(".recharts-reference-area").count()).toBeGreaterThan(0);
+    expect(await section.getByTestId("pressure-table").locator("tbody tr").count()).toBeGreaterThan(
+      0,
+    );
+    expect(await section.getByTestId("pressure-alarms").textContent()).toContain(
+      "Door was propped open with a cart; closed it.",
+    );
+    expect(await pageWidth(page)).toBeLessThanOrEqual(390);
+    await section.getByRole("heading", { name: "Room pressure" }).scrollIntoViewIfNeeded();
+    await shot(page, "room-page-facilities-lead");
 
     expect(problems).toEqual([]);
     await page.context().close();

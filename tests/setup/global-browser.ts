@@ -40,6 +40,9 @@ export default async function setup() {
       SMTP_PORT: String(catcher.port),
       LINTEL_OUTBOX_POLL_MS: "100",
       LINTEL_ACTION_NOTICE_MS: "300",
+      // No monitors publish here (no broker, no simulator): the tests seed readings and alarms
+      // themselves, and a round would call the demo's silent monitors "no readings".
+      LINTEL_PRESSURE_ALARMS: "0",
       S3_ENDPOINT: s3.endpoint,
     }),
     {

@@ -15,13 +15,16 @@ export async function acknowledgeAlarm(alarmId: string, note: string): Promise<P
   return alarm;
 }
 
-/** Acknowledges an alarm; every live view of the site then asks again. */
+/** Acknowledges an alarm; every live view of the site, and the rooms' own pages, then ask again. */
 export function useAcknowledgeAlarm(siteId: string) {
   const queryClient = useQueryClient();
   return useMutation({
     mutationFn: ({ alarmId, note }: { alarmId: string; note: string }) =>
       acknowledgeAlarm(alarmId, note),
     onSettled: () =>
-      queryClient.invalidateQueries({ queryKey: queryKeys.pressureNow.site(siteId) }),
+      Promise.all([
+        queryClient.invalidateQueries({ queryKey: queryKeys.pressureNow.site(siteId) }),
+        queryClient.invalidateQueries({ queryKey: queryKeys.roomPressures.all }),
+      ]),
   });
 }
