@@ -6,7 +6,6 @@ import type { ActionState } from "@shared/workflow/action-workflow";
 import type { ZoneType } from "@shared/zones";
 
 import type { Database, DbOrTx } from "../../db/client";
-import { executeNamed } from "../../db/named-statements";
 
 /** The first day of `month` (YYYY-MM) as a date literal. */
 const firstDay = (month: string) => `${month}-01`;
@@ -266,11 +265,10 @@ export async function comparisonRows(
   onlyIds: readonly string[] | null,
   period: Period,
 ) {
-  return executeNamed<ComparisonRow>(
-    db,
-    "committee_comparison",
+  const result = await db.execute<ComparisonRow>(
     committeeQueries.comparison(networkId, onlyIds, period),
   );
+  return result.rows;
 }
 
 export async function readinessByMonth(db: DbOrTx, siteIds: readonly string[], period: Period) {
