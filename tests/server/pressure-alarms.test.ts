@@ -271,8 +271,12 @@ describe("room-pressure alarms", () => {
       state: "to_fix",
       assigneeId: room.lead.id,
     });
-    // The lead was told once that the action is theirs.
-    expect(topics(await mailsFor(room), "action_assigned")).toEqual(["lead"]);
+    // The lead was told once that the action is theirs, and what opened it.
+    const mails = await mailsFor(room);
+    expect(topics(mails, "action_assigned")).toEqual(["lead"]);
+    expect(mails.find((mail) => mail.topic === "action_assigned")!.text).toContain(
+      "A room-pressure excursion longer than the site's action limit has opened a corrective action",
+    );
   });
 
   it("when the site sets its own graces and action limit, then the alarm follows them", async () => {

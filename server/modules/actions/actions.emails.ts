@@ -38,7 +38,18 @@ function actionMail(
   };
 }
 
-export const assignedMail = (facts: ActionMailFacts, by: string | null) =>
+/** What opened an action nobody assigned by hand, in the owner's e-mail. */
+const openedBy = {
+  audit: "A failed audit item",
+  observation: "A breach seen while observing putting-on or removal",
+  pressure: "A room-pressure excursion longer than the site's action limit",
+} as const;
+
+export const assignedMail = (
+  facts: ActionMailFacts,
+  by: string | null,
+  opened: keyof typeof openedBy = "audit",
+) =>
   actionMail(
     "action_assigned",
     facts,
@@ -46,7 +57,7 @@ export const assignedMail = (facts: ActionMailFacts, by: string | null) =>
     [
       by
         ? `${by} has made you the owner of a corrective action.`
-        : "A failed audit item has opened a corrective action, and you are its owner.",
+        : `${openedBy[opened]} has opened a corrective action, and you are its owner.`,
     ],
     "Open the action",
   );

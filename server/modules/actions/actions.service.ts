@@ -425,6 +425,7 @@ async function joinOrOpenActions(
             lead,
           ),
           null,
+          source.kind,
         ),
         lead,
       );
