@@ -23,9 +23,9 @@ import {
 import { ensureDefaultSequences } from "../server/modules/observations/sequences.service";
 import { startServer } from "../server/server";
 import { agent, browserGet, httpTimes, percentile } from "./lib/bench-http";
-import { prepareCluster, type Cluster } from "./lib/postgres";
+import { runBenchAlone } from "./lib/bench-standalone";
+import type { Cluster } from "./lib/postgres";
 import { freePort } from "./lib/process";
-import { startS3Fake } from "./lib/s3-fake";
 
 /**
  * The committee's comparison and trends at network scale: 40 sites × 60 spaces × weekly audits
@@ -476,17 +476,5 @@ export async function benchCommittee(cluster: Cluster, s3Endpoint: string): Prom
 
 // `npx tsx scripts/bench-committee.ts`: the committee figures alone, on a throwaway cluster
 // (`BENCH_COMMITTEE_SITES=4` seeds in seconds rather than minutes).
-if (import.meta.url === pathToFileURL(process.argv[1] ?? "").href) {
-  const folder = mkdtempSync(path.join(os.tmpdir(), "lintel-bench-committee-db-"));
-  const s3Dir = mkdtempSync(path.join(os.tmpdir(), "lintel-bench-committee-s3-"));
-  const cluster = await prepareCluster({ folder, port: await freePort(), throwaway: true });
-  await cluster.start();
-  const s3 = await startS3Fake({ dir: s3Dir });
-  try {
-    await benchCommittee(cluster, s3.endpoint);
-  } finally {
-    await s3.stop();
-    cluster.destroy();
-    rmSync(s3Dir, { recursive: true, force: true });
-  }
-}
+if (import.meta.url === pathToFileURL(process.argv[1] ?? "").href)
+  await runBenchAlone("committee", benchCommittee);

@@ -1,6 +1,3 @@
-import { mkdtempSync, rmSync } from "node:fs";
-import os from "node:os";
-import path from "node:path";
 import { pathToFileURL } from "node:url";
 
 import pg from "pg";
@@ -10,9 +7,9 @@ import { migrateDatabase } from "../server/db/client";
 import { parseEnv } from "../server/env";
 import { startServer } from "../server/server";
 import { agent, browserGet, httpTimes, percentile } from "./lib/bench-http";
-import { prepareCluster, type Cluster } from "./lib/postgres";
+import { runBenchAlone } from "./lib/bench-standalone";
+import type { Cluster } from "./lib/postgres";
 import { freePort } from "./lib/process";
-import { startS3Fake } from "./lib/s3-fake";
 
 /**
  * A room's pressure charts at scale: 500 monitored isolation rooms with one day of raw readings
@@ -144,17 +141,5 @@ export async function benchPressureChart(cluster: Cluster, s3Endpoint: string): 
 
 // `npx tsx scripts/bench-pressure-chart.ts`: the pressure charts alone, on a throwaway cluster
 // (`BENCH_PRESSURE_MONITORS=50` seeds in seconds).
-if (import.meta.url === pathToFileURL(process.argv[1] ?? "").href) {
-  const folder = mkdtempSync(path.join(os.tmpdir(), "lintel-bench-pressure-db-"));
-  const s3Dir = mkdtempSync(path.join(os.tmpdir(), "lintel-bench-pressure-s3-"));
-  const cluster = await prepareCluster({ folder, port: await freePort(), throwaway: true });
-  await cluster.start();
-  const s3 = await startS3Fake({ dir: s3Dir });
-  try {
-    await benchPressureChart(cluster, s3.endpoint);
-  } finally {
-    await s3.stop();
-    cluster.destroy();
-    rmSync(s3Dir, { recursive: true, force: true });
-  }
-}
+if (import.meta.url === pathToFileURL(process.argv[1] ?? "").href)
+  await runBenchAlone("pressure", benchPressureChart);
