@@ -206,6 +206,7 @@ function stretchesOf(
   readings: readonly PressureSample[],
   nowMs: number,
   policy: ExcursionPolicy,
+  heardSince: (lastMs: number) => number,
 ): Stretch[] {
   const stretches: Stretch[] = [];
   let current: (Stretch & { closedMs: number; totalMs: number }) | null = null;
@@ -254,7 +255,7 @@ function stretchesOf(
   }
   if (current !== null) {
     const last = (current as Stretch).out.at(-1)!.measuredAt.getTime();
-    if (nowMs - last >= policy.silenceMs) close(last, "readings_stopped");
+    if (nowMs - heardSince(last) >= policy.silenceMs) close(last, "readings_stopped");
     else stretches.push(current);
   }
   return stretches;
@@ -269,6 +270,13 @@ function assertOneMonitor(readings: readonly PressureSample[]): string | null {
 export interface AnalyseOptions {
   /** When the monitor was mapped to the room: a monitor never heard from since is silent. */
   watchingSince?: Date;
+  /**
+   * When Lintel began, or began again, to receive readings (after a restart, or the database or
+   * the broker back). A silence that may be Lintel's own is not the monitor's: at `now`, the
+   * silence limit counts from the later of the last reading and this, so a backlog still arriving
+   * raises no "no readings" alarm and ends no excursion. Gaps between readings are unaffected.
+   */
+  listeningSince?: Date;
 }
 
 /**
@@ -288,7 +296,12 @@ export function analysePressure(
   if (!Number.isFinite(nowMs)) throw new RangeError("The clock must be a valid time.");
   const monitorId = assertOneMonitor(readings);
   const known = orderReadings(readings).filter((reading) => reading.measuredAt.getTime() <= nowMs);
-  const stretches = stretchesOf(known, nowMs, policy);
+  const listeningMs = options.listeningSince?.getTime();
+  const heardSince = (lastMs: number) =>
+    listeningMs !== undefined && Number.isFinite(listeningMs) && listeningMs <= nowMs
+      ? Math.max(lastMs, listeningMs)
+      : lastMs;
+  const stretches = stretchesOf(known, nowMs, policy, heardSince);
 
   // Stretches past their grace are excursions; excursions less than mergeGapMs apart are one.
   const joined: { first: Stretch; last: Stretch }[] = [];
@@ -342,7 +355,7 @@ export function analysePressure(
     };
   });
 
-  const silences = silencesOf(known, nowMs, policy, options.watchingSince);
+  const silences = silencesOf(known, nowMs, policy, options.watchingSince, heardSince);
   const current = silences.at(-1);
   const noReadingsSince = current && current.to === null ? current.from : null;
   const lastReading = known.at(-1) ?? null;
@@ -362,6 +375,7 @@ function silencesOf(
   nowMs: number,
   policy: ExcursionPolicy,
   watchingSince: Date | undefined,
+  heardSince: (lastMs: number) => number,
 ): SilentPeriod[] {
   const silences: SilentPeriod[] = [];
   const watchMs = watchingSince?.getTime();
@@ -372,7 +386,7 @@ function silencesOf(
       silences.push({ from: new Date(previous), to: new Date(at) });
     previous = previous === null ? at : Math.max(previous, at);
   }
-  if (previous !== null && nowMs - previous >= policy.silenceMs)
+  if (previous !== null && nowMs - heardSince(previous) >= policy.silenceMs)
     silences.push({ from: new Date(previous), to: null });
   return silences;
 }

@@ -237,6 +237,42 @@ describe("room-pressure alarms", () => {
     expect(mails[0]!.subject).toMatch(/^No pressure readings/);
   });
 
+  it("when Lintel comes back after 30 minutes away and the broker's backlog is still arriving, then no room is called silent; a monitor really silent alarms 10 minutes after Lintel came back", async () => {
+    const start = newStart();
+    const room = await insertMonitoredRoom(db(), { mappedAt: start });
+    // Live for 5 minutes; then Lintel is away from 5 to 35 while the broker keeps the readings.
+    const live = timeline(room.monitorId, start, 5 * 60, 10, () => -5);
+    await play(room, live, start, at(start, 5));
+    const back = at(start, 35);
+    const held = timeline(room.monitorId, at(start, 5), 30 * 60, 10, () => -5).slice(1);
+    // The backlog arrives over the first 3 minutes back, a round after every part of it.
+    const parts = 6;
+    for (let part = 0; part < parts; part += 1) {
+      const now = new Date(back.getTime() + part * 30_000);
+      const arriving = held.slice((part * held.length) / parts, ((part + 1) * held.length) / parts);
+      await storeReadings(db(), arriving, { source: "mqtt", now });
+      await evaluatePressureAlarms(deps(), {
+        now,
+        monitorIds: [room.monitorId],
+        listeningSince: back,
+      });
+    }
+    expect(await alarmsOf(room)).toEqual([]);
+    expect(await mailsFor(room)).toEqual([]);
+
+    // Then the monitor really stops (its last reading at 35): the alarm comes at 45, from 35.
+    for (const minutes of [44.5, 45]) {
+      await evaluatePressureAlarms(deps(), {
+        now: at(start, minutes),
+        monitorIds: [room.monitorId],
+        listeningSince: back,
+      });
+    }
+    const [alarm] = await alarmsOf(room);
+    expect(alarm).toMatchObject({ kind: "no_readings", startedAt: held.at(-1)!.measuredAt });
+    expect(topics(await mailsFor(room), "pressure_alarm_started")).toEqual(["auditor", "lead"]);
+  });
+
   it("when an excursion passes the action limit, then it becomes a critical finding on room.pressure, and a second one joins the same unfinished action", async () => {
     const start = newStart();
     const room = await insertMonitoredRoom(db(), { mappedAt: start });

@@ -1,4 +1,5 @@
 import { randomInt, randomUUID } from "node:crypto";
+import { createServer } from "node:net";
 
 import { sql } from "drizzle-orm";
 import mqtt, { type MqttClient } from "mqtt";
@@ -6,6 +7,7 @@ import { afterAll, afterEach, beforeAll, describe, expect, it } from "vitest";
 
 import { pressureTopic } from "@shared/schemas/pressure-readings";
 
+import { connectDatabase, type Database } from "../../server/db/client";
 import {
   createPressureIngest,
   type PressureIngest,
@@ -45,9 +47,12 @@ function ownClock() {
   };
 }
 
-function ingestFor(now: Date, options: { lockKey?: bigint; clientId?: string } = {}) {
+function ingestFor(
+  now: Date,
+  options: { lockKey?: bigint; clientId?: string; db?: Database } = {},
+) {
   const ingest = createPressureIngest({
-    db: db(),
+    db: options.db ?? db(),
     databaseUrl: testEnv().DATABASE_URL,
     logger,
     mqtt: {
@@ -57,9 +62,9 @@ function ingestFor(now: Date, options: { lockKey?: bigint; clientId?: string } =
       topicPrefix: "lintel/pressure",
     },
     now: () => now,
-    batchMs: 50,
     lockKey: options.lockKey ?? BigInt(randomInt(1, 2 ** 40)),
     lockRetryMs: 150,
+    retryMs: 100,
   });
   running.push(ingest);
   return ingest;
@@ -209,5 +214,44 @@ describe("ingesting readings from the broker", () => {
     );
     expect(second.counts().stored).toBeGreaterThanOrEqual(2);
     expect((await stored(monitor)).map((row) => row.pa)).toEqual([-5, -5.5, -6]);
+  });
+
+  it("when the database is away, then no reading is acknowledged, and after a stop the next process gets it from the broker and stores it", async () => {
+    const clock = ownClock();
+    const lockKey = BigInt(randomInt(1, 2 ** 40));
+    const clientId = `lintel-${randomUUID()}`;
+    // A database address where nothing listens: the store fails the way it does when PostgreSQL
+    // is down, while the ingest lock (its own connection) still works.
+    const port = await new Promise<number>((resolve) => {
+      const probe = createServer().listen(0, "127.0.0.1", () => {
+        const { port } = probe.address() as { port: number };
+        probe.close(() => resolve(port));
+      });
+    });
+    const away = new URL(testEnv().DATABASE_URL);
+    away.port = String(port);
+    const unreachable = connectDatabase(away.toString(), { connectionTimeoutMs: 500 });
+    try {
+      const first = ingestFor(clock.now, { lockKey, clientId, db: unreachable.db });
+      await first.start();
+      await subscribed(first);
+      const monitor = `m-${randomUUID().slice(0, 8)}`;
+      await publish(monitor, {
+        measuredAt: clock.at(-15).toISOString(),
+        pressure: -6.5,
+        unit: "Pa",
+      });
+      // Several failed tries while the process keeps running.
+      await new Promise((resolve) => setTimeout(resolve, 600));
+      expect(first.counts().stored).toBe(0);
+      await first.stop();
+
+      const second = ingestFor(clock.now, { lockKey, clientId });
+      await second.start();
+      await until(async () => (await stored(monitor)).length === 1, "the reading redelivered");
+      expect(await stored(monitor)).toEqual([{ at: clock.at(-15).toISOString(), pa: -6.5 }]);
+    } finally {
+      await unreachable.close();
+    }
   });
 });

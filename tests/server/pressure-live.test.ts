@@ -66,7 +66,6 @@ describe("live room pressure from the broker to the alarm", () => {
         topicPrefix: "lintel/pressure",
       },
       now: () => clock,
-      batchMs: 50,
       lockKey: BigInt(randomInt(1, 2 ** 40)),
       lockRetryMs: 150,
       onStored: createOnStored({ ...testApp().deps, env: testEnv(), notifyOutbox: () => {} }),

@@ -337,6 +337,47 @@ describe("gaps and a monitor that stops", () => {
     expect(stopped.noReadingsSince).toEqual(at(200));
   });
 
+  it("when Lintel began listening again lately (a restart, its database or broker back), then an old last reading is not a silence until 10 minutes after that; the alarm then runs from the last reading", () => {
+    // Last stored reading at 300; Lintel was away and began listening again at 1200.
+    const readings = every(0, 300, IN);
+    const options = { listeningSince: at(1200) };
+    // Clock 1799: 599 s since listening began → no alarm (without the option: silent since 900).
+    expect(analysePressure(readings, at(1799)).now).toBe("no_readings");
+    const early = analysePressure(readings, at(1799), defaultExcursionPolicy, options);
+    expect(early.now).toBe("in_range");
+    expect(early.silences).toEqual([]);
+    // Clock 1800: 600 s since listening began and still nothing → silent since the last reading.
+    const late = analysePressure(readings, at(1800), defaultExcursionPolicy, options);
+    expect(late.now).toBe("no_readings");
+    expect(late.noReadingsSince).toEqual(at(300));
+    // Listening that began after the clock (a skewed clock) changes nothing.
+    expect(
+      analysePressure(readings, at(900), defaultExcursionPolicy, { listeningSince: at(1000) }).now,
+    ).toBe("no_readings");
+  });
+
+  it("when an excursion is open and Lintel began listening again lately, then it is not ended by the silence; the backlog arriving carries it on", () => {
+    // Out of range 0..200; listening began again at 700; clock 1000 (800 s since the last).
+    const options = { listeningSince: at(700) };
+    const waiting = analysePressure(every(0, 200, OUT), at(1000), defaultExcursionPolicy, options);
+    expect(waiting.excursions).toEqual([expect.objectContaining({ status: "open", end: null })]);
+    expect(waiting.now).toBe("excursion");
+    // The backlog arrives: out of range every 10 s to 400, back in range at 410.
+    const backlog = [...every(0, 400, OUT), reading(410, IN)];
+    const after = analysePressure(backlog, at(1000), defaultExcursionPolicy, options);
+    expect(after.excursions).toEqual([
+      expect.objectContaining({ end: at(410), endedBy: "recovered", durationMs: 410_000 }),
+    ]);
+  });
+
+  it("when the backlog itself has a gap of 10 minutes, then that gap is a silence whatever listening says", () => {
+    const readings = [...every(0, 100, IN), ...every(800, 900, IN)];
+    const options = { listeningSince: at(950) };
+    const analysis = analysePressure(readings, at(1000), defaultExcursionPolicy, options);
+    expect(analysis.silences).toEqual([{ from: at(100), to: at(800) }]);
+    expect(analysis.now).toBe("in_range");
+  });
+
   it("when a mapped monitor has never reported, then it is silent from when it was mapped, once 10 minutes have passed", () => {
     const options = { watchingSince: at(0) };
     expect(analysePressure([], at(599), defaultExcursionPolicy, options).now).toBe(

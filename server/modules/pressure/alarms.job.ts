@@ -15,6 +15,7 @@ import type { Env } from "../../env";
 import type { Actor } from "../../lib/change-log";
 import { isDatabaseUnavailable } from "../../lib/database-errors";
 import { enqueueMail } from "../../outbox/outbox.repository";
+import { listeningClock } from "./listening";
 import { recordPressureFinding, type FailedItem } from "../actions/actions.service";
 import { checklistItemsOf, latestPublishedVersion } from "../checklists/checklists.service";
 import * as mails from "./alarms.emails";
@@ -79,6 +80,7 @@ async function snapshotsOf(
   db: Database | Tx,
   monitors: readonly repo.WatchedMonitor[],
   now: Date,
+  listeningSince: Date | undefined,
 ): Promise<Snapshot[]> {
   if (monitors.length === 0) return [];
   const openSince = await repo.earliestOpenAlarms(
@@ -117,7 +119,12 @@ async function snapshotsOf(
     const inWindow = readings.get(monitor.monitorId) ?? [];
     const all = previous ? [previous, ...inWindow] : inWindow;
     // Without a reading before the window, the window reaches back to the mapping.
-    const analysis = analysePressure(all, now, policy, previous ? {} : { watchingSince });
+    const analysis = analysePressure(
+      all,
+      now,
+      policy,
+      previous ? { listeningSince } : { watchingSince, listeningSince },
+    );
     return {
       monitor,
       policy,
@@ -333,9 +340,14 @@ async function applySteps(
  */
 export async function evaluatePressureAlarms(
   deps: AlarmJobDeps,
-  options: { now: Date; monitorIds?: readonly string[] },
+  options: {
+    now: Date;
+    monitorIds?: readonly string[];
+    /** When this process began (again) to receive readings: see `listeningClock`. */
+    listeningSince?: Date;
+  },
 ): Promise<AlarmRound> {
-  const { now } = options;
+  const { now, listeningSince } = options;
   const monitors = await repo.watchedMonitors(deps.db, options.monitorIds);
   const round: AlarmRound = { monitors: monitors.length, changed: 0, queued: 0 };
   const retired = monitors.filter((monitor) => monitor.spaceRetiredAt);
@@ -353,13 +365,14 @@ export async function evaluatePressureAlarms(
     deps.db,
     monitors.filter((monitor) => !monitor.spaceRetiredAt),
     now,
+    listeningSince,
   );
   for (const first of snapshots) {
     if (stepsOf(first).length === 0) continue;
     const queued = await deps.db.transaction(async (tx) => {
       const locked = await repo.lockMonitor(tx, first.monitor.id);
       if (!locked || locked.spaceRetiredAt) return 0;
-      const [snapshot] = await snapshotsOf(tx, [locked], now);
+      const [snapshot] = await snapshotsOf(tx, [locked], now, listeningSince);
       const steps = stepsOf(snapshot!);
       if (steps.length === 0) return 0;
       round.changed += 1;
@@ -405,9 +418,16 @@ export function createPressureAlarmTimer(options: AlarmTimerOptions) {
   let round: Promise<unknown> | null = null;
   let databaseAway = false;
 
+  const listening = listeningClock(options.db);
+
   async function safeRound() {
     try {
-      await evaluatePressureAlarms(options, { now: new Date() });
+      await evaluatePressureAlarms(options, {
+        now: new Date(),
+        listeningSince: listening.since(),
+      });
+      // Back after the database was away: readings held meanwhile are only now arriving.
+      if (databaseAway) listening.begin(new Date());
       databaseAway = false;
     } catch (error) {
       if (!isDatabaseUnavailable(error)) {

@@ -3,6 +3,7 @@ import type { Logger } from "pino";
 import type { Database } from "../../db/client";
 import type { Env } from "../../env";
 import { evaluatePressureAlarms } from "./alarms.job";
+import { listeningClock } from "./listening";
 import type { StoreOutcome } from "./readings.repository";
 
 /** The readings one batch actually inserted (never duplicates), in time order per monitor. */
@@ -47,7 +48,11 @@ function alarmRunner(deps: OnStoredDeps): AlarmRunner {
       const monitorIds = [...waiting];
       waiting.clear();
       try {
-        await evaluatePressureAlarms(deps, { now: clock, monitorIds });
+        await evaluatePressureAlarms(deps, {
+          now: clock,
+          monitorIds,
+          listeningSince: listeningClock(deps.db).since(),
+        });
       } catch (err) {
         // The timer's round picks the monitors up again: no reading is judged only once.
         deps.logger.error({ err }, "after storing pressure readings, the alarm round failed");

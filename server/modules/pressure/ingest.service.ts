@@ -1,6 +1,6 @@
 import { readFileSync } from "node:fs";
 
-import mqtt, { type IClientOptions, type MqttClient } from "mqtt";
+import mqtt, { type IClientOptions, type IPublishPacket, type MqttClient } from "mqtt";
 import pg from "pg";
 import type { Logger } from "pino";
 
@@ -14,7 +14,8 @@ import {
 import type { Database } from "../../db/client";
 import type { Env } from "../../env";
 import type { OnStored } from "./ingest.hook";
-import { storeReadings, tally } from "./readings.repository";
+import { listeningClock } from "./listening";
+import { storeReadings, tally, type StoreOutcome } from "./readings.repository";
 
 /**
  * The one key every Lintel process tries for the ingest lock (a PostgreSQL session advisory lock):
@@ -43,9 +44,8 @@ export interface PressureIngestOptions {
   /** Called with what each batch inserted (never with duplicates): the alarm job's hook. */
   onStored?: OnStored;
   now?: () => Date;
-  /** A batch is stored after this long or at `batchMax` readings, whichever comes first. */
-  batchMs?: number;
-  batchMax?: number;
+  /** How long to wait before trying again when the database refuses a reading. */
+  retryMs?: number;
   /** The advisory lock's key; every process of one installation uses the same (the default). */
   lockKey?: bigint;
   /** How often a process without the lock tries it again (and the holder checks it still has it). */
@@ -77,6 +77,14 @@ export function safeBrokerAddress(url: string): string {
   }
 }
 
+/** Whether PostgreSQL refused a statement for its data (classes 22 and 23), not for being away. */
+function refusedAsData(err: unknown): boolean {
+  const code =
+    (err as { code?: unknown; cause?: { code?: unknown } }).code ??
+    (err as { cause?: { code?: unknown } }).cause?.code;
+  return typeof code === "string" && /^2[23]/.test(code);
+}
+
 /** The settings from the environment, or null when no broker is configured. */
 export function mqttSettingsFrom(env: Env): MqttSettings | null {
   if (!env.LINTEL_MQTT_URL) return null;
@@ -92,29 +100,39 @@ export function mqttSettingsFrom(env: Env): MqttSettings | null {
 }
 
 /**
- * Listens to every monitor's topic and stores the readings, a short batch at a time. Messages come
- * at least once (QoS 1, a kept session, so a broker holds them while no Lintel process listens);
- * storing is idempotent on monitor and time, so a redelivery or an out-of-order message is stored
- * once, in time order. A message that is not a reading is counted and logged (topic and fields at
- * fault, never the payload) and never stops ingestion.
+ * Listens to every monitor's topic and stores the readings. Messages come at least once (QoS 1, a
+ * kept session, so a broker holds them while no Lintel process listens), and each is acknowledged
+ * to the broker only once it is stored: a process killed mid-way, or a database that is away,
+ * leaves the message with the broker, which delivers it again. The client hands over one message
+ * at a time and the next only after the acknowledgement, so the broker's queue is the only buffer
+ * and a slow database slows delivery instead of filling memory. Storing is idempotent on monitor
+ * and time, so a redelivery or an out-of-order message is stored once, in time order. A message
+ * that is not a reading is counted and logged (topic and fields at fault, never the payload) and
+ * never stops ingestion.
  */
 export function createPressureIngest(options: PressureIngestOptions) {
   const { logger } = options;
   const now = options.now ?? (() => new Date());
-  const batchMs = options.batchMs ?? 200;
-  const batchMax = options.batchMax ?? 500;
+  const retryMs = options.retryMs ?? 1_000;
   const lockRetryMs = options.lockRetryMs ?? 5_000;
   const prefix = options.mqtt.topicPrefix || defaultPressureTopicPrefix;
   const broker = safeBrokerAddress(options.mqtt.url);
   const counts: IngestCounts = { received: 0, stored: 0, duplicates: 0, future: 0, invalid: 0 };
+  const listening = listeningClock(options.db);
+  let storeFailing = false;
+
+  /** A message received and not yet stored, with what tells the broker it is. */
+  interface Waiting {
+    reading: PressureReading | null;
+    acknowledge: () => void;
+  }
 
   let state = "stopped" as IngestState;
   let lockClient: pg.Client | null = null;
   let client: MqttClient | null = null;
   let lockTimer: NodeJS.Timeout | null = null;
-  let batchTimer: NodeJS.Timeout | null = null;
-  let pending: PressureReading[] = [];
-  let invalidPending = 0;
+  let retryTimer: NodeJS.Timeout | null = null;
+  let pending: Waiting[] = [];
   let flushing: Promise<void> = Promise.resolve();
   let attempt: Promise<void> | null = null;
   const listeners = new Set<(state: IngestState) => void>();
@@ -125,73 +143,94 @@ export function createPressureIngest(options: PressureIngestOptions) {
     for (const listener of listeners) listener(next);
   };
 
-  function scheduleFlush() {
-    if (pending.length >= batchMax) {
-      void flush();
-      return;
-    }
-    batchTimer ??= setTimeout(() => void flush(), batchMs);
-  }
-
-  /** Stores what is waiting; batches run one after another, never two at once. */
+  /**
+   * Stores what is waiting, one message at a time (the client hands over no more than that), and
+   * acknowledges each once stored; stores run one after another, never two at once. When the
+   * database is away, nothing more is acknowledged and the store is tried again soon.
+   */
   function flush(): Promise<void> {
-    if (batchTimer) clearTimeout(batchTimer);
-    batchTimer = null;
+    if (retryTimer) clearTimeout(retryTimer);
+    retryTimer = null;
     flushing = flushing.then(async () => {
-      const batch = pending;
-      const invalid = invalidPending;
-      pending = [];
-      invalidPending = 0;
-      if (batch.length === 0 && invalid === 0) return;
-      const at = now();
-      try {
-        if (invalid > 0) await tally(options.db, { source: "mqtt", now: at }, { invalid });
-        if (batch.length === 0) return;
-        const outcome = await storeReadings(options.db, batch, { source: "mqtt", now: at });
-        counts.stored += outcome.stored;
-        counts.duplicates += outcome.duplicates;
-        counts.future += outcome.future.length;
-        if (outcome.future.length > 0)
+      while (pending.length > 0) {
+        const waiting = pending[0]!;
+        const at = now();
+        let outcome: StoreOutcome | null;
+        try {
+          outcome = await storeOne(waiting, at);
+        } catch (err) {
+          // If this process stops meanwhile, the broker delivers the message to the next one.
           logger.warn(
-            {
-              future: outcome.future.length,
-              monitors: [...new Set(outcome.future.map((r) => r.monitorId))].slice(0, 10),
-            },
-            "pressure readings dated in the future refused (check the monitors' clocks)",
+            { err: { message: (err as Error).message }, waiting: pending.length },
+            "pressure readings could not be stored yet; retrying",
           );
-        if (outcome.inserted.length > 0 && options.onStored) {
-          try {
-            await options.onStored(outcome.inserted, at);
-          } catch (err) {
-            logger.error({ err }, "after storing pressure readings, the alarm hook failed");
-          }
+          if (state !== "stopped") retryTimer ??= setTimeout(() => void flush(), retryMs);
+          storeFailing = true;
+          return;
         }
-      } catch (err) {
-        // The database is away: keep the readings (they were acknowledged) and try again soon.
-        logger.warn(
-          { err: { message: (err as Error).message }, waiting: batch.length },
-          "pressure readings could not be stored yet; retrying",
-        );
-        pending = [...batch, ...pending];
-        invalidPending += invalid;
-        if (state !== "stopped") batchTimer ??= setTimeout(() => void flush(), 1_000);
+        // The database is back: what the broker held meanwhile is only now arriving.
+        if (storeFailing) listening.begin(at);
+        storeFailing = false;
+        pending.shift();
+        waiting.acknowledge();
+        if (outcome) await afterStored(outcome, at);
       }
     });
     return flushing;
   }
 
-  function onMessage(topic: string, payload: Buffer) {
-    counts.received += 1;
-    const parsed = parsePressureMessage(topic, payload, prefix);
-    if (parsed.ok) {
-      pending.push(parsed.reading);
-    } else {
-      counts.invalid += 1;
-      invalidPending += 1;
-      // The topic and what is wrong, by field; the payload itself may carry a gateway's secrets.
-      logger.warn({ topic, problems: parsed.problems }, "pressure message refused");
+  /**
+   * Stores one message's reading, or counts it invalid. A reading the database itself refuses as
+   * data (an SQLSTATE of class 22 or 23, which the message checks should never let through) is
+   * counted invalid too, so one bad message cannot hold up every later one.
+   */
+  async function storeOne(waiting: Waiting, at: Date): Promise<StoreOutcome | null> {
+    if (waiting.reading) {
+      try {
+        return await storeReadings(options.db, [waiting.reading], { source: "mqtt", now: at });
+      } catch (err) {
+        if (!refusedAsData(err)) throw err;
+        logger.error(
+          { err: { message: (err as Error).message }, monitor: waiting.reading.monitorId },
+          "pressure reading refused by the database; counted as invalid",
+        );
+        counts.invalid += 1;
+      }
     }
-    scheduleFlush();
+    await tally(options.db, { source: "mqtt", now: at }, { invalid: 1 });
+    return null;
+  }
+
+  async function afterStored(outcome: StoreOutcome, at: Date) {
+    counts.stored += outcome.stored;
+    counts.duplicates += outcome.duplicates;
+    counts.future += outcome.future.length;
+    if (outcome.future.length > 0)
+      logger.warn(
+        { future: outcome.future.length, monitor: outcome.future[0]!.monitorId },
+        "pressure reading dated in the future refused (check the monitor's clock)",
+      );
+    if (outcome.inserted.length > 0 && options.onStored) {
+      try {
+        await options.onStored(outcome.inserted, at);
+      } catch (err) {
+        logger.error({ err }, "after storing pressure readings, the alarm hook failed");
+      }
+    }
+  }
+
+  /** The client's hook for each incoming message; `done` sends the acknowledgement. */
+  function onMessage(packet: IPublishPacket, done: () => void) {
+    counts.received += 1;
+    const payload = Buffer.isBuffer(packet.payload) ? packet.payload : Buffer.from(packet.payload);
+    const parsed = parsePressureMessage(packet.topic, payload, prefix);
+    if (!parsed.ok) {
+      counts.invalid += 1;
+      // The topic and what is wrong, by field; the payload itself may carry a gateway's secrets.
+      logger.warn({ topic: packet.topic, problems: parsed.problems }, "pressure message refused");
+    }
+    pending.push({ reading: parsed.ok ? parsed.reading : null, acknowledge: () => done() });
+    void flush();
   }
 
   function connectBroker(): MqttClient {
@@ -208,6 +247,8 @@ export function createPressureIngest(options: PressureIngestOptions) {
     };
     const next = mqtt.connect(options.mqtt.url, settings);
     next.on("connect", () => {
+      // The broker hands over what it kept for this session while Lintel was not listening.
+      listening.begin(now());
       logger.info({ broker }, "pressure ingest connected to the broker");
       next.subscribe(pressureTopicFilter(prefix), { qos: 1 }, (err) => {
         if (err)
@@ -217,7 +258,7 @@ export function createPressureIngest(options: PressureIngestOptions) {
           );
       });
     });
-    next.on("message", onMessage);
+    next.handleMessage = onMessage;
     next.on("error", (err) =>
       logger.warn({ err: { message: err.message }, broker }, "pressure broker connection problem"),
     );
@@ -230,11 +271,18 @@ export function createPressureIngest(options: PressureIngestOptions) {
     if (held) await held.end().catch(() => undefined);
   }
 
+  /**
+   * Lets the store under way finish and be acknowledged, then leaves the broker. Whatever is not
+   * stored by then stays unacknowledged, and the broker keeps it for the next process.
+   */
   async function stopListening() {
     const listening = client;
-    client = null;
-    if (listening) await listening.endAsync().catch(() => undefined);
     await flush();
+    client = null;
+    pending = [];
+    if (retryTimer) clearTimeout(retryTimer);
+    retryTimer = null;
+    if (listening) await listening.endAsync().catch(() => undefined);
   }
 
   /** The lock's connection failed: another process may take over; stop listening at once. */
