@@ -2,6 +2,7 @@ import { fileURLToPath } from "node:url";
 
 import { drizzle, type NodePgDatabase } from "drizzle-orm/node-postgres";
 import { migrate } from "drizzle-orm/node-postgres/migrator";
+import { PgTransaction } from "drizzle-orm/pg-core";
 import pg from "pg";
 
 import * as schema from "./schema/index";
@@ -10,6 +11,24 @@ export type Database = NodePgDatabase<typeof schema>;
 /** A transaction handle; repositories accept either so services can compose them in one transaction. */
 export type Tx = Parameters<Parameters<Database["transaction"]>[0]>[0];
 export type DbOrTx = Database | Tx;
+
+/**
+ * Runs independent reads: side by side on the pool, one after another inside a transaction. A
+ * transaction is one connection, which takes one statement at a time; sending the next before
+ * the last is answered is what pg deprecates (and the api tests refuse). Use this, never
+ * `Promise.all`, for reads that may be given a transaction.
+ */
+export async function readTogether<const T extends readonly unknown[]>(
+  db: DbOrTx,
+  reads: { [K in keyof T]: () => Promise<T[K]> },
+): Promise<T> {
+  const list = reads as readonly (() => Promise<unknown>)[];
+  if (!(db instanceof PgTransaction))
+    return (await Promise.all(list.map((read) => read()))) as unknown as T;
+  const results: unknown[] = [];
+  for (const read of list) results.push(await read());
+  return results as unknown as T;
+}
 
 export interface DatabaseHandle {
   db: Database;

@@ -69,12 +69,11 @@ export async function createDemoAuditHistory(
   // The year of history was audited on version 1 of the defaults; a later step brings version 2.
   await ensureDefaultChecklists(tx, networkId, 1);
   const random = mulberry32(20261202);
-  const [auditor, auditor2] = await Promise.all(
-    ["auditor@example.org", "auditor2@example.org"].map(
-      async (email) =>
-        (await tx.select({ id: users.id }).from(users).where(eq(users.email, email)))[0]!.id,
-    ),
-  );
+  // One after another: a transaction's connection takes one statement at a time.
+  const idOf = async (email: string) =>
+    (await tx.select({ id: users.id }).from(users).where(eq(users.email, email)))[0]!.id;
+  const auditor = await idOf("auditor@example.org");
+  const auditor2 = await idOf("auditor2@example.org");
   const versions = new Map<ZoneType, { id: string; items: ChecklistItem[] }>();
   for (const zoneType of Object.keys(cadence) as ZoneType[]) {
     const version = (await latestPublishedVersion(tx, networkId, zoneType))!;

@@ -22,7 +22,7 @@ import {
   type TimelineKind,
 } from "@shared/workflow/action-workflow";
 
-import type { Database, DbOrTx, Tx } from "../../db/client";
+import { readTogether, type Database, type DbOrTx, type Tx } from "../../db/client";
 import type { Env } from "../../env";
 import { AppError, notFound } from "../../lib/app-error";
 import { recordChange, type Actor } from "../../lib/change-log";
@@ -136,11 +136,11 @@ function timelineEntry(row: Awaited<ReturnType<typeof repo.timelineOf>>[number])
 export async function actionDetail(db: DbOrTx, actionId: string): Promise<ActionDetail> {
   const row = await repo.findAction(db, actionId);
   if (!row) throw notFound("That corrective action");
-  const [findingRows, proofRows, timelineRows, plan] = await Promise.all([
-    repo.findingsOf(db, actionId),
-    repo.proofsOf(db, actionId),
-    repo.timelineOf(db, actionId),
-    repo.planOf(db, row.floorId, row.spaceId),
+  const [findingRows, proofRows, timelineRows, plan] = await readTogether(db, [
+    () => repo.findingsOf(db, actionId),
+    () => repo.proofsOf(db, actionId),
+    () => repo.timelineOf(db, actionId),
+    () => repo.planOf(db, row.floorId, row.spaceId),
   ]);
   return {
     action: toSummary(row),

@@ -2,7 +2,7 @@ import { and, asc, count, desc, eq, inArray, isNotNull, isNull, or, sql } from "
 
 import type { Answer, Audit } from "@shared/schemas/audits";
 
-import type { DbOrTx } from "../../db/client";
+import { readTogether, type DbOrTx } from "../../db/client";
 import {
   actionProofs,
   auditAnswers,
@@ -189,18 +189,20 @@ export async function findPhoto(db: DbOrTx, photoId: string) {
 
 /** The audits whose photos show the image, and whether anything else (a plan, a proof) does. */
 export async function usesOfImage(db: DbOrTx, imageId: string) {
-  const [inAudits, inProofs, inPlans] = await Promise.all([
-    db
-      .select({ status: audits.status, auditorId: audits.auditorId })
-      .from(auditPhotos)
-      .innerJoin(audits, eq(audits.id, auditPhotos.auditId))
-      .where(eq(auditPhotos.imageId, imageId)),
-    db
-      .select({ id: actionProofs.id })
-      .from(actionProofs)
-      .where(eq(actionProofs.imageId, imageId))
-      .limit(1),
-    db.select({ id: floors.id }).from(floors).where(eq(floors.planImageId, imageId)).limit(1),
+  const [inAudits, inProofs, inPlans] = await readTogether(db, [
+    () =>
+      db
+        .select({ status: audits.status, auditorId: audits.auditorId })
+        .from(auditPhotos)
+        .innerJoin(audits, eq(audits.id, auditPhotos.auditId))
+        .where(eq(auditPhotos.imageId, imageId)),
+    () =>
+      db
+        .select({ id: actionProofs.id })
+        .from(actionProofs)
+        .where(eq(actionProofs.imageId, imageId))
+        .limit(1),
+    () => db.select({ id: floors.id }).from(floors).where(eq(floors.planImageId, imageId)).limit(1),
   ]);
   return { audits: inAudits, elsewhere: inProofs.length > 0 || inPlans.length > 0 };
 }

@@ -20,7 +20,7 @@ import type {
 import type { ChecklistItem } from "@shared/schemas/checklists";
 import type { ZoneType } from "@shared/zones";
 
-import type { Database, DbOrTx, Tx } from "../../db/client";
+import { readTogether, type Database, type DbOrTx, type Tx } from "../../db/client";
 import { AppError, forbidden, notFound } from "../../lib/app-error";
 import { recordChange, type Actor } from "../../lib/change-log";
 import { databaseCodeOf } from "../../lib/database-errors";
@@ -79,11 +79,11 @@ async function roomOf(db: DbOrTx, spaceId: string): Promise<AuditDetail["room"]>
 export async function auditDetail(db: DbOrTx, auditId: string): Promise<AuditDetail> {
   const audit = await repo.findAudit(db, auditId);
   if (!audit) throw notFound("That audit");
-  const [items, answers, photos, room] = await Promise.all([
-    checklistItemsOf(db, audit.checklistVersionId),
-    repo.answersOf(db, auditId),
-    repo.photosOf(db, auditId),
-    roomOf(db, audit.spaceId),
+  const [items, answers, photos, room] = await readTogether(db, [
+    () => checklistItemsOf(db, audit.checklistVersionId),
+    () => repo.answersOf(db, auditId),
+    () => repo.photosOf(db, auditId),
+    () => roomOf(db, audit.spaceId),
   ]);
   return { audit, items, answers, photos, room };
 }
@@ -263,9 +263,9 @@ export async function saveAnswer(
 ) {
   return withLockedAudit(deps.db, auth, auditId, async (tx, audit) => {
     requireAuditor(audit, auth);
-    const [items, room] = await Promise.all([
-      checklistItemsOf(tx, audit.checklistVersionId),
-      roomOf(tx, audit.spaceId),
+    const [items, room] = await readTogether(tx, [
+      () => checklistItemsOf(tx, audit.checklistVersionId),
+      () => roomOf(tx, audit.spaceId),
     ]);
     const item = items.find((candidate) => candidate.id === itemId);
     if (!item) throw notFound("That checklist item in this audit");

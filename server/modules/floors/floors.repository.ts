@@ -2,7 +2,7 @@ import { and, asc, desc, eq, isNotNull, isNull, type SQL } from "drizzle-orm";
 
 import type { Fixture, Floor, Space, Suite } from "@shared/schemas/floors";
 
-import type { DbOrTx } from "../../db/client";
+import { readTogether, type DbOrTx } from "../../db/client";
 import { fixtures, floors, spaces, suites, users } from "../../db/schema/index";
 
 type FloorRow = typeof floors.$inferSelect;
@@ -87,24 +87,27 @@ export async function floorContents(
   db: DbOrTx,
   floorId: string,
 ): Promise<{ suites: Suite[]; spaces: Space[]; fixtures: Fixture[] }> {
-  const [suiteRows, spaceRows, fixtureRows] = await Promise.all([
-    db
-      .select(suiteColumns)
-      .from(suites)
-      .where(eq(suites.floorId, floorId))
-      .orderBy(asc(suites.name)),
+  const [suiteRows, spaceRows, fixtureRows] = await readTogether(db, [
+    () =>
+      db
+        .select(suiteColumns)
+        .from(suites)
+        .where(eq(suites.floorId, floorId))
+        .orderBy(asc(suites.name)),
     // Retired spaces leave the map; their history is read through their audits and actions.
-    db
-      .select(spaceColumns)
-      .from(spaces)
-      .where(and(eq(spaces.floorId, floorId), isNull(spaces.retiredAt)))
-      .orderBy(asc(spaces.name)),
-    db
-      .select(fixtureColumns)
-      .from(fixtures)
-      .innerJoin(spaces, eq(spaces.id, fixtures.spaceId))
-      .where(and(eq(spaces.floorId, floorId), isNull(spaces.retiredAt)))
-      .orderBy(asc(fixtures.createdAt)),
+    () =>
+      db
+        .select(spaceColumns)
+        .from(spaces)
+        .where(and(eq(spaces.floorId, floorId), isNull(spaces.retiredAt)))
+        .orderBy(asc(spaces.name)),
+    () =>
+      db
+        .select(fixtureColumns)
+        .from(fixtures)
+        .innerJoin(spaces, eq(spaces.id, fixtures.spaceId))
+        .where(and(eq(spaces.floorId, floorId), isNull(spaces.retiredAt)))
+        .orderBy(asc(fixtures.createdAt)),
   ]);
   return { suites: suiteRows, spaces: spaceRows, fixtures: fixtureRows };
 }
@@ -269,36 +272,38 @@ export async function deleteFloor(db: DbOrTx, floorId: string): Promise<void> {
 }
 
 export async function retiredPlacesOfSite(db: DbOrTx, siteId: string) {
-  const [floorRows, spaceRows] = await Promise.all([
-    db
-      .select({
-        id: floors.id,
-        name: floors.name,
-        building: floors.building,
-        level: floors.level,
-        retiredAt: floors.retiredAt,
-        retiredByName: users.displayName,
-      })
-      .from(floors)
-      .leftJoin(users, eq(users.id, floors.retiredBy))
-      .where(and(eq(floors.siteId, siteId), isNotNull(floors.retiredAt)))
-      .orderBy(desc(floors.retiredAt), asc(floors.name)),
-    db
-      .select({
-        id: spaces.id,
-        name: spaces.name,
-        zoneType: spaces.zoneType,
-        floorId: spaces.floorId,
-        floorName: floors.name,
-        floorRetiredAt: floors.retiredAt,
-        retiredAt: spaces.retiredAt,
-        retiredByName: users.displayName,
-      })
-      .from(spaces)
-      .innerJoin(floors, eq(floors.id, spaces.floorId))
-      .leftJoin(users, eq(users.id, spaces.retiredBy))
-      .where(and(eq(spaces.siteId, siteId), isNotNull(spaces.retiredAt)))
-      .orderBy(desc(spaces.retiredAt), asc(spaces.name)),
+  const [floorRows, spaceRows] = await readTogether(db, [
+    () =>
+      db
+        .select({
+          id: floors.id,
+          name: floors.name,
+          building: floors.building,
+          level: floors.level,
+          retiredAt: floors.retiredAt,
+          retiredByName: users.displayName,
+        })
+        .from(floors)
+        .leftJoin(users, eq(users.id, floors.retiredBy))
+        .where(and(eq(floors.siteId, siteId), isNotNull(floors.retiredAt)))
+        .orderBy(desc(floors.retiredAt), asc(floors.name)),
+    () =>
+      db
+        .select({
+          id: spaces.id,
+          name: spaces.name,
+          zoneType: spaces.zoneType,
+          floorId: spaces.floorId,
+          floorName: floors.name,
+          floorRetiredAt: floors.retiredAt,
+          retiredAt: spaces.retiredAt,
+          retiredByName: users.displayName,
+        })
+        .from(spaces)
+        .innerJoin(floors, eq(floors.id, spaces.floorId))
+        .leftJoin(users, eq(users.id, spaces.retiredBy))
+        .where(and(eq(spaces.siteId, siteId), isNotNull(spaces.retiredAt)))
+        .orderBy(desc(spaces.retiredAt), asc(spaces.name)),
   ]);
   return { floorRows, spaceRows };
 }

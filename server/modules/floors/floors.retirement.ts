@@ -5,7 +5,7 @@ import type {
   RetirementResult,
 } from "@shared/schemas/retirement";
 
-import type { Database, Tx } from "../../db/client";
+import { readTogether, type Database, type Tx } from "../../db/client";
 import { AppError, notFound } from "../../lib/app-error";
 import { recordChange, type Actor } from "../../lib/change-log";
 import {
@@ -31,9 +31,9 @@ function newRetirement(actor: Actor): repo.Retirement {
 
 /** Audits (drafts too) and corrective actions of the spaces: any at all is history. */
 async function historyOf(tx: Tx, spaceIds: readonly string[]) {
-  const [audits, actions] = await Promise.all([
-    countAuditsOfSpaces(tx, spaceIds),
-    countActionsOfSpaces(tx, spaceIds),
+  const [audits, actions] = await readTogether(tx, [
+    () => countAuditsOfSpaces(tx, spaceIds),
+    () => countActionsOfSpaces(tx, spaceIds),
   ]);
   return { audits, actions };
 }

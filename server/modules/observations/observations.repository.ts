@@ -2,7 +2,7 @@ import { and, asc, desc, eq, inArray, isNotNull, sql, type SQL } from "drizzle-o
 
 import { defaultRetentionDays } from "@shared/schemas/observations";
 
-import type { DbOrTx } from "../../db/client";
+import { readTogether, type DbOrTx } from "../../db/client";
 import {
   observationBreaches,
   observationSettings,
@@ -91,28 +91,32 @@ export async function observationRows(db: DbOrTx, where: SQL | undefined, limit?
   const rows = limit ? await query.limit(limit) : await query;
   if (rows.length === 0) return [];
   const ids = rows.map((row) => row.observation.id);
-  const [breachedSteps, findings] = await Promise.all([
-    db
-      .select({
-        observationId: observationSteps.observationId,
-        position: observationSteps.position,
-      })
-      .from(observationSteps)
-      .where(and(inArray(observationSteps.observationId, ids), eq(observationSteps.breached, true)))
-      .orderBy(asc(observationSteps.position)),
-    db
-      .selectDistinct({
-        observationId: observationBreaches.observationId,
-        spaceProblem: observationBreaches.spaceProblem,
-        actionId: observationBreaches.actionId,
-      })
-      .from(observationBreaches)
-      .where(
-        and(
-          inArray(observationBreaches.observationId, ids),
-          isNotNull(observationBreaches.actionId),
+  const [breachedSteps, findings] = await readTogether(db, [
+    () =>
+      db
+        .select({
+          observationId: observationSteps.observationId,
+          position: observationSteps.position,
+        })
+        .from(observationSteps)
+        .where(
+          and(inArray(observationSteps.observationId, ids), eq(observationSteps.breached, true)),
+        )
+        .orderBy(asc(observationSteps.position)),
+    () =>
+      db
+        .selectDistinct({
+          observationId: observationBreaches.observationId,
+          spaceProblem: observationBreaches.spaceProblem,
+          actionId: observationBreaches.actionId,
+        })
+        .from(observationBreaches)
+        .where(
+          and(
+            inArray(observationBreaches.observationId, ids),
+            isNotNull(observationBreaches.actionId),
+          ),
         ),
-      ),
   ]);
   return rows.map((row) => ({
     ...row,
