@@ -1,41 +1,19 @@
-import { useState } from "react";
-
-import { Button } from "@/components/ui/button";
+import { CopyValue } from "@/components/ui/copy-value";
 
 function CopyableAddress({ label, hint, value }: { label: string; hint: string; value: string }) {
-  const [copied, setCopied] = useState<"yes" | "no" | null>(null);
   return (
     <div className="flex flex-col gap-1.5">
       <p className="font-semibold">{label}</p>
       <p className="text-sm text-ink-muted">{hint}</p>
-      <p className="rounded-lg border border-surface-line bg-surface-sunken px-3 py-2 font-mono text-sm break-all select-all">
-        {value}
-      </p>
-      <div className="flex flex-wrap items-center gap-3">
-        <Button
-          variant="secondary"
-          onClick={() => {
-            const clipboard = typeof navigator === "undefined" ? undefined : navigator.clipboard;
-            if (!clipboard) {
-              setCopied("no");
-              return;
-            }
-            clipboard.writeText(value).then(
-              () => setCopied("yes"),
-              () => setCopied("no"),
-            );
-          }}
-        >
-          Copy <span className="sr-only">{label.toLowerCase()}</span>
-        </Button>
-        <span role="status" className="text-sm text-ink-muted">
-          {copied === "yes"
-            ? "Copied."
-            : copied === "no"
-              ? "This browser did not allow copying: select the address and copy it."
-              : null}
-        </span>
-      </div>
+      <CopyValue
+        value={value}
+        noun="address"
+        copyLabel={
+          <>
+            Copy <span className="sr-only">{label.toLowerCase()}</span>
+          </>
+        }
+      />
     </div>
   );
 }

@@ -5,6 +5,7 @@ import { Alert } from "@/components/ui/alert";
 import { Badge } from "@/components/ui/badge";
 import { Button } from "@/components/ui/button";
 import { ConfirmStep } from "@/components/ui/confirm-step";
+import { CopyValue } from "@/components/ui/copy-value";
 import { SpinnerGlyph } from "@/components/ui/spinner";
 import { TextField } from "@/components/ui/text-field";
 import { isApiError } from "@/lib/api-client";
@@ -16,44 +17,17 @@ import { useRevokeUploadToken } from "../api/revoke-upload-token";
 
 /** The token just made, shown this once with a way to copy it. */
 function NewToken({ name, secret, onDone }: { name: string; secret: string; onDone: () => void }) {
-  const [copied, setCopied] = useState<"yes" | "no" | null>(null);
   return (
     <Alert tone="success" title={`Token for ${name} made`}>
-      <p>
+      <p className="mb-2">
         Copy it now and keep it with the gateway or script that uploads. Lintel keeps only a
         fingerprint of it: it is not shown again.
       </p>
-      <p className="mt-2 rounded-lg border border-surface-line bg-surface px-3 py-2 font-mono text-sm break-all select-all">
-        {secret}
-      </p>
-      <div className="mt-3 flex flex-wrap items-center gap-3">
-        <Button
-          variant="secondary"
-          onClick={() => {
-            const clipboard = typeof navigator === "undefined" ? undefined : navigator.clipboard;
-            if (!clipboard) {
-              setCopied("no");
-              return;
-            }
-            clipboard.writeText(secret).then(
-              () => setCopied("yes"),
-              () => setCopied("no"),
-            );
-          }}
-        >
-          Copy token
-        </Button>
+      <CopyValue value={secret} noun="token" copyLabel="Copy token">
         <Button variant="quiet" onClick={onDone}>
           Done
         </Button>
-        <span role="status" className="text-sm">
-          {copied === "yes"
-            ? "Copied."
-            : copied === "no"
-              ? "This browser did not allow copying: select the token and copy it."
-              : null}
-        </span>
-      </div>
+      </CopyValue>
     </Alert>
   );
 }
