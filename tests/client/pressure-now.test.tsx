@@ -9,7 +9,7 @@ import { Pressure24hPanel } from "@/features/pressure-now/components/pressure-24
 import { PressureAlarmCards } from "@/features/pressure-now/components/pressure-alarm-cards";
 import { liveStateOf } from "@/features/pressure-now/components/room-live-state";
 import { pressurePins } from "@/features/pressure-now/lib/pressure-pins";
-import { DueList } from "@/features/walkthroughs/components/due-list";
+import { DueList, DueSection } from "@/features/walkthroughs/components/due-list";
 
 import { jsonResponse, stubApi } from "./support/api-stub";
 
@@ -202,6 +202,55 @@ describe("the due list", () => {
     expect(within(item).getByText("Not negative now")).toBeTruthy();
     expect(within(item).getByText("Not negative for 6 min, worst +1.2 Pa")).toBeTruthy();
     expect(within(item).getByText(/Last audit:/)).toBeTruthy();
+  });
+});
+
+describe("the site page's short due list", () => {
+  it("when a room whose audit is up to date is not negative now, then it comes first, ahead of the overdue spaces, with its state in words", async () => {
+    const hot = room({ state: "excursion", alarm: openAlarm });
+    const entry = (spaceId: string, spaceName: string, state: "ok" | "overdue") => ({
+      spaceId,
+      spaceName,
+      zoneType: "isolation_room" as const,
+      floorId,
+      floorName: "Ground floor",
+      cadenceDays: 7,
+      lastAuditAt: asOf,
+      dueAt: state === "ok" ? "2026-12-09T10:00:00.000Z" : "2026-11-30T10:00:00.000Z",
+      state,
+      verdict: "all_clear" as const,
+      lastAuditorName: "Rafael Dunmore",
+    });
+    stubApi({
+      [`GET /api/sites/${siteId}/schedule`]: () =>
+        jsonResponse({
+          entries: [
+            entry(crypto.randomUUID(), "Room 2.01", "overdue"),
+            entry(crypto.randomUUID(), "Room 2.02", "overdue"),
+            entry(hot.spaceId, "Room 2.14", "ok"),
+          ],
+        }),
+    });
+    wrap(
+      <DueSection
+        siteId={siteId}
+        canStart={false}
+        allHref="/all"
+        startHref={String}
+        historyHref={String}
+        liveState={liveStateOf(site([hot]))}
+        limit={2}
+      />,
+    );
+    const list = await screen.findByRole("list", { name: "Spaces due for audit" });
+    const items = within(list).getAllByRole("listitem");
+    expect(items.map((item) => item.getAttribute("aria-labelledby") && item.textContent)).toEqual([
+      expect.stringContaining("Room 2.14"),
+      expect.stringContaining("Room 2.01"),
+    ]);
+    expect(within(items[0]!).getByText("Not negative now")).toBeTruthy();
+    // The count above the list is still of what is due for audit.
+    expect(screen.getByText("2 overdue · 2 due")).toBeTruthy();
   });
 });
 

@@ -16,6 +16,11 @@ import { floorsQueryOptions } from "@/features/floor-plans/api/get-floors";
 import { retiredPlacesQueryOptions } from "@/features/floor-plans/api/get-retired-places";
 import { FloorsSection } from "@/features/floor-plans/components/floors-section";
 import { RetiredPlacesSection } from "@/features/floor-plans/components/retired-places-section";
+import {
+  pressureNowQueryOptions,
+  usePressureNow,
+} from "@/features/pressure-now/api/get-pressure-now";
+import { liveStateOf } from "@/features/pressure-now/components/room-live-state";
 import { siteQueryOptions, useSite } from "@/features/sites/api/get-site";
 import { SiteDetails } from "@/features/sites/components/site-details";
 import { siteScheduleQueryOptions } from "@/features/walkthroughs/api/get-site-schedule";
@@ -34,6 +39,7 @@ export function siteLoader(queryClient: QueryClient) {
       void queryClient.prefetchQuery(siteQueryOptions(parsed.data.siteId));
       void queryClient.prefetchQuery(floorsQueryOptions(parsed.data.siteId));
       void queryClient.prefetchQuery(siteScheduleQueryOptions(parsed.data.siteId));
+      void queryClient.prefetchQuery(pressureNowQueryOptions(parsed.data.siteId));
       void queryClient.prefetchQuery(
         siteActionsQueryOptions(parsed.data.siteId, { state: "unfinished" }),
       );
@@ -60,12 +66,14 @@ function SiteOverview({ siteId }: { siteId: string }) {
   const me = useSignedInPerson();
   const { can } = useAuthorization();
   const site = useSite(siteId);
+  const pressure = usePressureNow(siteId);
   const canEdit = can("update:site:site", siteId);
   const notice = (useLocation().state as { notice?: string } | null)?.notice;
   // Each section loads on its own; shown together, none pushes the next down the screen.
   const settled = useSettled([
     siteQueryOptions(siteId),
     siteScheduleQueryOptions(siteId),
+    pressureNowQueryOptions(siteId),
     floorsQueryOptions(siteId),
     siteActionsQueryOptions(siteId, { state: "unfinished" }),
     canEdit && retiredPlacesQueryOptions(siteId),
@@ -130,6 +138,7 @@ function SiteOverview({ siteId }: { siteId: string }) {
           startHref={paths.startAudit.getHref}
           historyHref={paths.spaceAudits.getHref}
           observeHref={paths.startObservation.getHref}
+          liveState={liveStateOf(pressure.data)}
           actions={
             canEdit ? (
               <TextLink

@@ -268,6 +268,9 @@ export function DueSection({
   const schedule = useSiteSchedule(siteId);
   const due = schedule.data ? dueNow(schedule.data) : [];
   const overdue = due.filter((entry) => entry.state === "overdue").length;
+  // A room that needs someone now (its pressure) comes first, whatever its last audit said.
+  const live = (schedule.data ?? []).filter((entry) => links.liveState?.(entry.spaceId) != null);
+  const shown = [...live, ...due.filter((entry) => !live.includes(entry))].slice(0, limit);
 
   return (
     <Card>
@@ -294,13 +297,13 @@ export function DueSection({
         {schedule.isError && schedule.data === undefined ? (
           <ScheduleProblem error={schedule.error} retry={() => void schedule.refetch()} />
         ) : null}
-        {schedule.data && due.length === 0 ? (
+        {schedule.data && shown.length === 0 ? (
           <p className="text-ink-muted">Nothing is due: every space here has a recent audit.</p>
         ) : null}
-        {due.length > 0 ? (
+        {shown.length > 0 ? (
           <DueList
             siteId={siteId}
-            entries={due.slice(0, limit)}
+            entries={shown}
             canStart={canStart}
             label="Spaces due for audit"
             {...links}
