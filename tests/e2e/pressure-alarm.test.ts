@@ -144,6 +144,18 @@ describe("a Wexley room drifting positive, on the facilities lead's phone (390×
     expect(await pageWidth(page)).toBeLessThanOrEqual(390);
     await shot(page, "due-list-facilities-lead");
 
+    // The site's page: the short list of what to audit next starts with that room.
+    await page.goto(`${baseUrl()}/sites/${drifting.siteId}`);
+    const shortList = page.getByRole("list", { name: "Spaces due for audit" });
+    const first = shortList.getByRole("listitem").first();
+    await first.getByText("Not negative now").waitFor();
+    const named = await shortList
+      .getByRole("listitem", { name: "Isolation room 2", exact: true })
+      .elementHandle();
+    expect(await first.evaluate((item, other) => item === other, named)).toBe(true);
+    expect(await pageWidth(page)).toBeLessThanOrEqual(390);
+    await shot(page, "site-page-facilities-lead");
+
     // Back home: acknowledge with a note, and the card shows who and what.
     await page.goto(`${baseUrl()}/`);
     await card.waitFor();
@@ -216,6 +228,14 @@ describe("a Wexley room drifting positive, on the facilities lead's phone (390×
     await page.getByRole("heading", { level: 1, name: "My sites" }).waitFor();
     await page.getByRole("list", { name: "Room pressure alarms" }).waitFor();
     await shot(page, "home-auditor");
+    await page.goto(`${baseUrl()}/sites/${drifting.siteId}`);
+    await page
+      .getByRole("list", { name: "Spaces due for audit" })
+      .getByRole("listitem", { name: "Isolation room 2", exact: true })
+      .getByText("Not negative now")
+      .waitFor();
+    expect(await pageWidth(page)).toBeLessThanOrEqual(390);
+    await shot(page, "site-page-auditor");
     await page.goto(`${baseUrl()}/spaces/${drifting.spaceId}/audit`);
     await page.getByRole("heading", { level: 1, name: "Isolation room 2" }).waitFor();
     const total = Number(
