@@ -165,8 +165,9 @@ export const committeeQueries = {
   /**
    * The comparison in one statement: the sites the person may read (every site of the network
    * for a network-wide grant, else `onlyIds`; retired ones too, since their audits happened), the
-   * network's name, each site's audit counts and its answer counts by item group, one row per site
-   * and item group (a site without answers has one row whose group is null), in site-name order.
+   * network's name, each site's audit counts and its answer counts by item group as one JSON array
+   * of `[group, applicable, passed]`, one row per site in site-name order (40 rows for 40 sites, not
+   * one per site and group: the driver reads each row's fields one by one, a JSON column at once).
    */
   comparison: (networkId: string, onlyIds: readonly string[] | null, period: Period) => {
     // A few granted sites are read through the index by id; a whole network by joining its sites.
@@ -188,18 +189,22 @@ export const committeeQueries = {
          ${zoneFilter(period.zoneType)}
        group by site_id
     ), categories as (
-      select site_id, category, sum(applicable)::int as applicable, sum(passed)::int as passed
-        from answer_month_stats
-       where ${scope}
-         and month between ${firstDay(period.from)}::date and ${firstDay(period.to)}::date
-         ${zoneFilter(period.zoneType)}
-       group by site_id, category
+      select site_id, json_agg(json_build_array(category, applicable, passed)) as groups
+        from (
+          select site_id, category, sum(applicable)::int as applicable, sum(passed)::int as passed
+            from answer_month_stats
+           where ${scope}
+             and month between ${firstDay(period.from)}::date and ${firstDay(period.to)}::date
+             ${zoneFilter(period.zoneType)}
+           group by site_id, category
+        ) by_group
+       group by site_id
     )
     select r.id as site_id, r.name as site_name,
            (select name from networks where id = ${networkId}) as network_name,
            coalesce(a.audits, 0) as audits, coalesce(a.all_clear, 0) as all_clear,
            coalesce(a.gaps_to_fix, 0) as gaps_to_fix, coalesce(a.hold, 0) as hold,
-           c.category, c.applicable, c.passed
+           coalesce(c.groups, '[]'::json) as groups
       from readable r
       left join readiness a on a.site_id = r.id
       left join categories c on c.site_id = r.id
@@ -254,9 +259,8 @@ export type ComparisonRow = {
   all_clear: number;
   gaps_to_fix: number;
   hold: number;
-  category: string | null;
-  applicable: number | null;
-  passed: number | null;
+  /** Each item group with answers: `[group, applicable, passed]`. */
+  groups: [string, number, number][];
 };
 
 export async function comparisonRows(

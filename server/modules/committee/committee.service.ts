@@ -55,30 +55,23 @@ export async function comparison(
   // One round trip: the readable sites, the network's name and both sets of counts together.
   const found = await repo.comparisonRows(db, networkId, grantedSiteIds(grants), query);
   const name = found[0]?.network_name ?? (await networkName(db, networkId));
-  const rows: ComparisonSite[] = [];
-  const groupsOf: Map<string, { applicable: number; passed: number }>[] = [];
-  // The rows come one per site and item group, in site-name order: a site's rows are adjacent.
-  for (const row of found) {
-    if (rows.at(-1)?.siteId !== row.site_id) {
-      rows.push({
-        siteId: row.site_id,
-        siteName: row.site_name,
-        readiness: proportion(row.all_clear, row.audits),
-        verdicts: { all_clear: row.all_clear, gaps_to_fix: row.gaps_to_fix, hold: row.hold },
-        categories: [],
-        rank: null,
-      });
-      groupsOf.push(new Map());
-    }
-    if (row.category !== null)
-      groupsOf.at(-1)!.set(row.category, { applicable: row.applicable!, passed: row.passed! });
-  }
-  rows.forEach((site, index) => {
-    for (const category of itemCategories) {
-      const counts = groupsOf[index]!.get(category);
-      if (counts && counts.applicable > 0)
-        site.categories.push({ category, ...proportion(counts.passed, counts.applicable) });
-    }
+  const rows: ComparisonSite[] = found.map((row) => {
+    const groups = new Map(
+      row.groups.map(([group, applicable, passed]) => [group, { applicable, passed }]),
+    );
+    return {
+      siteId: row.site_id,
+      siteName: row.site_name,
+      readiness: proportion(row.all_clear, row.audits),
+      verdicts: { all_clear: row.all_clear, gaps_to_fix: row.gaps_to_fix, hold: row.hold },
+      categories: itemCategories.flatMap((category) => {
+        const counts = groups.get(category);
+        return counts && counts.applicable > 0
+          ? [{ category, ...proportion(counts.passed, counts.applicable) }]
+          : [];
+      }),
+      rank: null,
+    };
   });
   // Only sites with enough audits are ranked; the others keep their interval and a flag.
   const ranked = rows
