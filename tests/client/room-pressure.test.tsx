@@ -292,6 +292,26 @@ describe("the room's pressure on its space page", () => {
     });
   });
 
+  it("when an administrator unmaps the monitor, then nothing is sent until it is confirmed, and the step says the open alarm ends", async () => {
+    const { calls } = stubPressure(
+      administrator,
+      { "24h": () => jsonResponse(room()) },
+      { [`DELETE /api/spaces/${spaceId}/monitor`]: () => new Response(null, { status: 204 }) },
+    );
+    const { user } = renderApp(`/spaces/${spaceId}/audits`);
+    const section = await screen.findByRole("region", { name: "Room pressure" });
+    await user.click(within(section).getByText("Change or unmap the monitor"));
+    await user.click(within(section).getByRole("button", { name: "Unmap the monitor" }));
+    expect(calls.filter((call) => call.method === "DELETE")).toHaveLength(0);
+    expect(section.textContent).toContain("an alarm still open ends");
+
+    await user.click(within(section).getByRole("button", { name: "Cancel" }));
+    expect(calls.filter((call) => call.method === "DELETE")).toHaveLength(0);
+    await user.click(within(section).getByRole("button", { name: "Unmap the monitor" }));
+    await user.click(within(section).getByRole("button", { name: "Unmap" }));
+    await waitFor(() => expect(calls.filter((call) => call.method === "DELETE")).toHaveLength(1));
+  });
+
   it("when the space is not an isolation room and has no monitor, then there is no pressure section", async () => {
     stubPressure(auditor, {
       "24h": () =>

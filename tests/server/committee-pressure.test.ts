@@ -1,11 +1,13 @@
 import { randomUUID } from "node:crypto";
 
+import { asc, eq, inArray } from "drizzle-orm";
 import { beforeAll, describe, expect, it } from "vitest";
 
 import type { CommitteePressureResponse } from "@shared/schemas/committee-pressure";
 import type { PressureReading } from "@shared/schemas/pressure-readings";
 import type { ZoneType } from "@shared/zones";
 
+import { pressureMonitorMappings, pressureMonitors } from "../../server/db/schema/index";
 import { pressureFigures } from "../../server/modules/committee/pressure.service";
 import { storeReadings } from "../../server/modules/pressure/readings.repository";
 import { insertFloor, insertSpace } from "../factories/audits";
@@ -455,5 +457,95 @@ describe("committee room-pressure figures", () => {
         expect(item.right, where).toBeLessThanOrEqual(page.width - 48 + 0.5);
       }
     }
+  });
+});
+
+describe("a monitor that moved between rooms", () => {
+  const db = () => testApp().deps.db;
+
+  it("when the mapping changes (a new id, taken off, mapped again), then the history records each room's stretch, and a re-used id starts at the change", async () => {
+    const networkId = (await insertNetwork(db())).id;
+    const site = await insertSite(db(), networkId);
+    const floor = await insertFloor(db(), site.id);
+    const roomA = await insertSpace(db(), floor, "isolation_room");
+    const roomB = await insertSpace(db(), floor, "isolation_room");
+    const admin = await signInAs(networkId, [{ role: "administrator", siteId: site.id }]);
+    const put = (spaceId: string, monitorId: string) =>
+      api(undefined, { cookie: admin.cookie })
+        .put(`/api/spaces/${spaceId}/monitor`)
+        .send({ monitorId, thresholdPa: null });
+    const tag = randomUUID().slice(0, 6);
+    const [x, y] = [`move-x-${tag}`, `move-y-${tag}`];
+
+    expect((await put(roomA.id, x)).status).toBe(200);
+    expect((await put(roomA.id, y)).status).toBe(200); // a new id on room A
+    const off = await api(undefined, { cookie: admin.cookie }).delete(
+      `/api/spaces/${roomA.id}/monitor`,
+    );
+    expect(off.status).toBe(204);
+    expect((await put(roomB.id, x)).status).toBe(200); // x moves to room B
+
+    const rows = await db()
+      .select()
+      .from(pressureMonitorMappings)
+      .where(inArray(pressureMonitorMappings.monitorId, [x, y]))
+      .orderBy(asc(pressureMonitorMappings.monitorId), asc(pressureMonitorMappings.mappedAt));
+    const shown = rows.map((row) => ({
+      monitorId: row.monitorId,
+      spaceId: row.spaceId,
+      fromStart: !Number.isFinite(row.mappedAt.getTime()),
+      open: row.unmappedAt === null,
+    }));
+    expect(shown).toEqual([
+      // First mapped ids reach back to their first reading; a re-used one starts at the move.
+      { monitorId: x, spaceId: roomA.id, fromStart: true, open: false },
+      { monitorId: x, spaceId: roomB.id, fromStart: false, open: true },
+      { monitorId: y, spaceId: roomA.id, fromStart: true, open: false },
+    ]);
+  });
+
+  it("when a monitor moved from one room to another on 1 February, then its January hours stay with the first room and its February hours go to the second", async () => {
+    const networkId = (await insertNetwork(db())).id;
+    const site = await insertSite(db(), networkId, { timeZone: "UTC" });
+    const floor = await insertFloor(db(), site.id);
+    const roomA = await insertSpace(db(), floor, "isolation_room");
+    const roomB = await insertSpace(db(), floor, "isolation_room");
+    const monitorId = `moved-${randomUUID().slice(0, 8)}`;
+    const mapped = await insertMonitorH5(db(), roomA, monitorId);
+    // Moved: off room A, onto room B; the stretches then dated to the move on 1 February.
+    await db().delete(pressureMonitors).where(eq(pressureMonitors.id, mapped.id));
+    await insertMonitorH5(db(), roomB, monitorId);
+    const move = new Date("2026-02-01T00:00:00Z");
+    await db()
+      .update(pressureMonitorMappings)
+      .set({ unmappedAt: move })
+      .where(eq(pressureMonitorMappings.spaceId, roomA.id));
+    await db()
+      .update(pressureMonitorMappings)
+      .set({ mappedAt: move })
+      .where(eq(pressureMonitorMappings.spaceId, roomB.id));
+    // An hour of readings a minute apart in each month.
+    await storeReadings(
+      db(),
+      [
+        ...every(monitorId, "2026-01-10T10:00:00Z", "2026-01-10T11:00:00Z", 60),
+        ...every(monitorId, "2026-02-10T10:00:00Z", "2026-02-10T11:00:00Z", 60),
+      ],
+      { source: "upload", now: new Date("2026-03-01T00:00:00Z") },
+    );
+
+    const body = await pressureFigures(
+      db(),
+      networkId,
+      [{ role: "committee_member", siteId: null }],
+      { from: "2026-01", to: "2026-02" },
+      new Date("2026-03-01T00:00:00Z"),
+    );
+    const [january, february] = body.sites[0]!.months;
+    const hours = (month: typeof january, spaceId: string) =>
+      month!.rooms.find((room) => room.spaceId === spaceId)?.monitoredHours ?? 0;
+    expect(body.sites[0]!.monitors).toBe(1);
+    expect([hours(january, roomA.id), hours(january, roomB.id)]).toEqual([1, 0]);
+    expect([hours(february, roomA.id), hours(february, roomB.id)]).toEqual([0, 1]);
   });
 });

@@ -3,7 +3,7 @@ import { describe, expect, it } from "vitest";
 
 import { pressureSpaceResponseSchema } from "@shared/schemas/pressure-space";
 
-import { changeLog, pressureMonitors, spaces } from "../../server/db/schema/index";
+import { changeLog, pressureAlarms, pressureMonitors, spaces } from "../../server/db/schema/index";
 import { rollUpQuery } from "../../server/modules/pressure/space.repository";
 import { insertFloor, insertSpace } from "../factories/audits";
 import {
@@ -430,7 +430,7 @@ describe("mapping a monitor to a room", () => {
     );
   });
 
-  it("when the monitor is unmapped, then it is gone and logged; with alarms in the log it stays and 409 says why", async () => {
+  it("when the monitor is unmapped, then it is gone and logged; with alarms, they end and stay in the room's log, and the id can move to another room", async () => {
     const { admin, site, room } = await adminAndRoom();
     await put(admin.cookie, room.id, { monitorId: freshMonitorId() });
     const gone = await api(undefined, { cookie: admin.cookie }).delete(
@@ -452,16 +452,35 @@ describe("mapping a monitor to a room", () => {
         .status,
     ).toBe(404);
 
+    // A monitor with alarms comes off too (it moved): its open alarm ends, the room's log keeps
+    // both, and the same id can then go to another room.
     const alarmed = await insertMonitoredRoom(db(), site.id);
     await insertPressureAlarm(db(), alarmed.monitor, {
-      startedAt: new Date(Date.now() - hour),
-      endedAt: new Date(),
+      startedAt: new Date(Date.now() - 3 * hour),
+      endedAt: new Date(Date.now() - 2 * hour),
     });
-    const kept = await api(undefined, { cookie: admin.cookie }).delete(
+    const open = await insertPressureAlarm(db(), alarmed.monitor, {
+      startedAt: new Date(Date.now() - hour),
+    });
+    const moved = await api(undefined, { cookie: admin.cookie }).delete(
       `/api/spaces/${alarmed.space.id}/monitor`,
     );
-    expect(kept.status).toBe(409);
-    expect(kept.body.error.fields).toHaveProperty("monitorId");
+    expect(moved.status).toBe(204);
+    const log = await db()
+      .select()
+      .from(pressureAlarms)
+      .where(eq(pressureAlarms.spaceId, alarmed.space.id));
+    expect(log).toHaveLength(2);
+    expect(log.every((alarm) => alarm.endedAt !== null && alarm.monitorRowId === null)).toBe(true);
+    expect(log.find((alarm) => alarm.id === open.id)!.endedAt!.getTime()).toBeGreaterThan(
+      open.startedAt.getTime(),
+    );
+    const page = await read(admin.cookie, alarmed.space.id);
+    expect(page.body.monitor).toBeNull();
+    expect(page.body.alarmCount).toBe(2);
+    expect(
+      (await put(admin.cookie, room.id, { monitorId: alarmed.monitor.monitorId })).status,
+    ).toBe(200);
   });
 
   it("when two rooms map the same monitor at the same moment, then one wins and the other gets a 409 naming the field", async () => {

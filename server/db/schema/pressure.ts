@@ -71,6 +71,34 @@ export const pressureMonitors = pgTable(
   ],
 );
 
+/**
+ * Which room a monitor id watched, and when. Kept by a trigger on `pressure_monitors` (migration
+ * 0019): each mapping opens a row, a change of id or room closes it and opens the next, taking the
+ * monitor off closes it. The committee counts a monitor's hours for the room it watched at the
+ * time, so a replaced or moved monitor leaves its past with the room it was in. A monitor id's
+ * first mapping reaches back to its first reading (`mapped_at` is -infinity): readings kept
+ * before anyone mapped it count for the room it was then mapped to.
+ */
+export const pressureMonitorMappings = pgTable(
+  "pressure_monitor_mappings",
+  {
+    id: uuid("id").primaryKey().defaultRandom(),
+    monitorId: varchar("monitor_id", { length: 64 }).notNull(),
+    siteId: uuid("site_id")
+      .notNull()
+      .references(() => sites.id, { onDelete: "cascade" }),
+    spaceId: uuid("space_id")
+      .notNull()
+      .references(() => spaces.id, { onDelete: "cascade" }),
+    mappedAt: timestamp("mapped_at", { withTimezone: true }).notNull(),
+    unmappedAt: timestamp("unmapped_at", { withTimezone: true }),
+  },
+  (table) => [
+    index("pressure_monitor_mappings_site_idx").on(table.siteId, table.monitorId),
+    index("pressure_monitor_mappings_monitor_idx").on(table.monitorId),
+  ],
+);
+
 /** A site's alarm settings; no row means Lintel's defaults (shared/calc/pressure-excursions.ts). */
 export const pressureSiteSettings = pgTable(
   "pressure_site_settings",
@@ -118,9 +146,10 @@ export const pressureAlarms = pgTable(
   "pressure_alarms",
   {
     id: uuid("id").primaryKey().defaultRandom(),
-    monitorRowId: uuid("monitor_row_id")
-      .notNull()
-      .references(() => pressureMonitors.id, { onDelete: "restrict" }),
+    /** The mapping that raised it; null once the monitor was taken off the room. */
+    monitorRowId: uuid("monitor_row_id").references(() => pressureMonitors.id, {
+      onDelete: "set null",
+    }),
     monitorId: varchar("monitor_id", { length: 64 }).notNull(),
     siteId: uuid("site_id")
       .notNull()

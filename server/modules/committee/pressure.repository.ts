@@ -45,17 +45,20 @@ export const pressureQueries = {
        cross join generate_series(${`${period.from}-01`}::date, ${`${period.to}-01`}::date,
                                   interval '1 month') as m(month)
     ), monitors as (
-      select pm.site_id, pm.space_id, pm.monitor_id
-        from pressure_monitors pm
+      select pm.site_id, pm.space_id, pm.monitor_id, pm.mapped_at,
+             coalesce(pm.unmapped_at, 'infinity'::timestamptz) as unmapped_at
+        from pressure_monitor_mappings pm
         join spaces sp on sp.id = pm.space_id ${zone}
        where pm.site_id in (select id from readable)
     ), monitored as (
+      -- A monitor's hours count for the room it watched in that hour.
       select mo.site_id, mo.space_id, m.month, sum(ph.minutes_with_readings)::int as minutes
         from monitors mo
         join months m on m.site_id = mo.site_id
         join pressure_hours ph
           on ph.monitor_id = mo.monitor_id
-         and ph.bucket_start >= m.starts and ph.bucket_start < m.ends
+         and ph.bucket_start >= greatest(m.starts, mo.mapped_at)
+         and ph.bucket_start < least(m.ends, mo.unmapped_at)
        group by mo.site_id, mo.space_id, m.month
     ), excursions as (
       select pa.site_id, pa.space_id, m.month,
@@ -78,7 +81,8 @@ export const pressureQueries = {
     select
       (select coalesce(json_agg(json_build_object(
                 'site_id', r.id, 'site_name', r.name,
-                'monitors', (select count(*) from monitors mo where mo.site_id = r.id))
+                'monitors', (select count(*) from monitors mo
+                              where mo.site_id = r.id and mo.unmapped_at = 'infinity'))
               order by r.name, r.id), '[]')
          from readable r) as sites,
       (select coalesce(json_agg(json_build_object(

@@ -211,7 +211,7 @@ export async function earliestOpenAlarms(
       and(inArray(pressureAlarms.monitorRowId, [...monitorRowIds]), isNull(pressureAlarms.endedAt)),
     )
     .groupBy(pressureAlarms.monitorRowId);
-  for (const row of rows) found.set(row.monitorRowId, new Date(row.at));
+  for (const row of rows) if (row.monitorRowId) found.set(row.monitorRowId, new Date(row.at));
   return found;
 }
 
@@ -249,7 +249,10 @@ export async function updateAlarm(
     .where(eq(pressureAlarms.id, id));
 }
 
-/** A retired room's open alarms end at its retirement, quietly: its monitor no longer alarms. */
+/**
+ * A monitor's open alarms end at `retiredAt`, quietly: its room was retired, or the monitor was
+ * taken off the room, so it no longer alarms there.
+ */
 export async function endAlarmsOfRetiredSpace(
   db: DbOrTx,
   monitorRowId: string,

@@ -81,16 +81,6 @@ export async function deleteMonitor(db: DbOrTx, id: string): Promise<void> {
   await db.delete(pressureMonitors).where(eq(pressureMonitors.id, id));
 }
 
-/** Whether any alarm names the monitor's row (the alarm log keeps it). */
-export async function monitorHasAlarms(db: DbOrTx, monitorRowId: string): Promise<boolean> {
-  const [row] = await db
-    .select({ id: pressureAlarms.id })
-    .from(pressureAlarms)
-    .where(eq(pressureAlarms.monitorRowId, monitorRowId))
-    .limit(1);
-  return row !== undefined;
-}
-
 /** The monitor's latest reading at or before `now` (a reading a little ahead is not yet shown). */
 export async function latestReading(db: DbOrTx, monitorId: string, now: Date) {
   const [row] = await db

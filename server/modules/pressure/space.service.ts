@@ -18,6 +18,7 @@ import type { Database, DbOrTx } from "../../db/client";
 import { AppError, notFound } from "../../lib/app-error";
 import { recordChange, type Actor } from "../../lib/change-log";
 import { databaseCodeOf } from "../../lib/database-errors";
+import { endAlarmsOfRetiredSpace } from "./alarms.repository";
 import * as repo from "./space.repository";
 
 const minute = 60_000;
@@ -352,8 +353,9 @@ function mappedElsewhere(
 }
 
 /**
- * Takes the monitor off the room. A monitor with alarms in the room's log stays mapped (the log
- * names it): map another id to replace it, or retire the room.
+ * Takes the monitor off the room (it moved, or the room no longer has one). Its open alarms end
+ * now, quietly; the room's alarm log keeps every alarm, and the mapping history keeps the hours it
+ * watched this room for the committee. The same id can then be mapped to another room.
  */
 export async function unmapMonitor(db: Database, spaceId: string, actor: Actor): Promise<void> {
   await db.transaction(async (tx: DbOrTx) => {
@@ -361,11 +363,7 @@ export async function unmapMonitor(db: Database, spaceId: string, actor: Actor):
     if (!space) throw notFound("That space");
     const before = await repo.findMonitorOfSpace(tx, spaceId);
     if (!before) throw notFound("A monitor on this room");
-    if (await repo.monitorHasAlarms(tx, before.id))
-      throw conflict(
-        "This monitor has alarms in the room's log, which stay linked to it. Map another monitor id to replace it.",
-        "monitorId",
-      );
+    await endAlarmsOfRetiredSpace(tx, before.id, new Date());
     await repo.deleteMonitor(tx, before.id);
     await recordChange(tx, actor, {
       action: "pressure-monitor.unmapped",

@@ -1,8 +1,9 @@
 import { monitorMappingBodySchema, type PressureMonitor } from "@shared/schemas/pressure-space";
-import { type FormEvent, useState } from "react";
+import { type FormEvent, useRef, useState } from "react";
 
 import { Alert } from "@/components/ui/alert";
 import { Button } from "@/components/ui/button";
+import { ConfirmStep } from "@/components/ui/confirm-step";
 import { TextField } from "@/components/ui/text-field";
 import { isApiError } from "@/lib/api-client";
 import { cn } from "@/lib/cn";
@@ -34,6 +35,8 @@ export function MonitorForm({ spaceId, monitor, className }: MonitorFormProps) {
   const [saved, setSaved] = useState<string | null>(null);
   const map = useMapMonitor(spaceId);
   const unmap = useUnmapMonitor(spaceId);
+  const [confirming, setConfirming] = useState(false);
+  const unmapButton = useRef<HTMLButtonElement>(null);
 
   function submit(event: FormEvent) {
     event.preventDefault();
@@ -108,25 +111,44 @@ export function MonitorForm({ spaceId, monitor, className }: MonitorFormProps) {
         </Button>
         {monitor ? (
           <Button
+            ref={unmapButton}
             variant="secondary"
-            disabled={unmap.isPending}
+            disabled={unmap.isPending || confirming}
             onClick={() => {
               setSaved(null);
               setMessage(null);
-              unmap.mutate(undefined, {
-                onError: (error) =>
-                  setMessage(
-                    isApiError(error)
-                      ? (error.fieldError("monitorId") ?? error.message)
-                      : "Lintel could not unmap the monitor. Try again.",
-                  ),
-              });
+              setConfirming(true);
             }}
           >
             Unmap the monitor
           </Button>
         ) : null}
       </div>
+      {monitor && confirming ? (
+        <ConfirmStep
+          title={`Unmap ${monitor.monitorId}?`}
+          confirmLabel="Unmap"
+          pending={unmap.isPending}
+          returnFocusRef={unmapButton}
+          onCancel={() => setConfirming(false)}
+          onConfirm={() =>
+            unmap.mutate(undefined, {
+              onSettled: () => setConfirming(false),
+              onError: (error) =>
+                setMessage(
+                  isApiError(error)
+                    ? (error.fieldError("monitorId") ?? error.message)
+                    : "Lintel could not unmap the monitor. Try again.",
+                ),
+            })
+          }
+        >
+          <p>
+            The room stops alarming now, and an alarm still open ends. Its alarm log and the hours
+            the monitor watched it stay with the room; the id can then be mapped to another room.
+          </p>
+        </ConfirmStep>
+      ) : null}
     </form>
   );
 }
