@@ -3,10 +3,17 @@ import { describe, expect, it } from "vitest";
 
 import type { PressureReading } from "@shared/schemas/pressure-readings";
 
-import { correctiveActions, outbox, pressureAlarms, spaces } from "../../server/db/schema/index";
+import {
+  correctiveActions,
+  outbox,
+  pressureAlarms,
+  pressureMonitors,
+  spaces,
+} from "../../server/db/schema/index";
 import { evaluatePressureAlarms } from "../../server/modules/pressure/alarms.job";
 import { storeReadings } from "../../server/modules/pressure/readings.repository";
 import { insertMonitoredRoom, timeline } from "../factories/pressure-h2";
+import { insertSpace } from "../factories/audits";
 import { insertGrant, insertUser } from "../factories/records";
 import { testApp } from "../helpers/app";
 
@@ -271,6 +278,54 @@ describe("room-pressure alarms", () => {
     const [alarm] = await alarmsOf(room);
     expect(alarm).toMatchObject({ kind: "no_readings", startedAt: held.at(-1)!.measuredAt });
     expect(topics(await mailsFor(room), "pressure_alarm_started")).toEqual(["auditor", "lead"]);
+  });
+
+  it("when three rooms of a site fall silent together and report again together, then each has its alarm and each recipient gets one e-mail listing the rooms for each", async () => {
+    const start = newStart();
+    const room = await insertMonitoredRoom(db(), { mappedAt: start });
+    const others = await Promise.all(
+      [1, 2].map(async () => {
+        const space = await insertSpace(db(), room.floor, "isolation_room");
+        const [monitor] = await db()
+          .insert(pressureMonitors)
+          .values({
+            monitorId: `h2-${space.id.slice(0, 8)}`,
+            siteId: room.site.id,
+            spaceId: space.id,
+            createdAt: start,
+          })
+          .returning();
+        return { ...monitor!, spaceName: space.name };
+      }),
+    );
+    const ids = [room.monitorId, ...others.map((monitor) => monitor.monitorId)];
+    // All three report for 5 minutes, say nothing for 20 (the gateway is down), then report.
+    for (const id of ids) {
+      const before = timeline(id, start, 5 * 60, 10, () => -5);
+      const after = timeline(id, at(start, 25), 5 * 60, 10, () => -5);
+      await storeReadings(db(), [...before, ...after], { source: "mqtt", now: at(start, 30) });
+    }
+    for (const minutes of [10, 16, 26]) {
+      await evaluatePressureAlarms(deps(), { now: at(start, minutes), monitorIds: ids });
+    }
+    const alarms = await db()
+      .select()
+      .from(pressureAlarms)
+      .where(eq(pressureAlarms.siteId, room.site.id));
+    expect(alarms).toHaveLength(3);
+    expect(alarms.every((alarm) => alarm.kind === "no_readings" && alarm.endedAt !== null)).toBe(
+      true,
+    );
+    const mails = await mailsFor(room);
+    expect(topics(mails, "pressure_alarm_started")).toEqual(["auditor", "lead"]);
+    expect(topics(mails, "pressure_alarm_ended")).toEqual(["auditor", "lead"]);
+    const started = mails.find((mail) => mail.topic === "pressure_alarm_started")!;
+    expect(started.subject).toBe(`No pressure readings: 3 rooms, ${room.site.name}`);
+    for (const name of [room.space.name, ...others.map((other) => other.spaceName)])
+      expect(started.text).toContain(`${name}: no reading since`);
+    const ended = mails.find((mail) => mail.topic === "pressure_alarm_ended")!;
+    expect(ended.subject).toBe(`Pressure readings back: 3 rooms, ${room.site.name}`);
+    expect(ended.text).toContain(`${others[0]!.spaceName}: reported again at`);
   });
 
   it("when an excursion passes the action limit, then it becomes a critical finding on room.pressure, and a second one joins the same unfinished action", async () => {

@@ -113,3 +113,56 @@ export function alarmEndedMail(
     ],
   );
 }
+
+/** One room in a digest of silences that started (or ended) together at a site. */
+export interface SilenceDigestRoom {
+  roomName: string;
+  /** The room's last reading before the silence. */
+  since: Date;
+  /** When it reported again (a digest of ends). */
+  endedAt: Date | null;
+}
+
+/**
+ * Several rooms of one site falling silent (or reporting again) in the same round: usually the
+ * building's gateway or network, not each monitor. One e-mail lists them all instead of one per
+ * room, so a recipient can see at once that it is one fault.
+ */
+export function silenceDigestMail(facts: {
+  to: string;
+  name: string;
+  kind: "started" | "ended";
+  siteName: string;
+  timeZone: string;
+  rooms: SilenceDigestRoom[];
+  link: string;
+}): NewMail {
+  const count = `${facts.rooms.length} ${facts.rooms.length === 1 ? "room" : "rooms"}`;
+  const started = facts.kind === "started";
+  const subject = started
+    ? `No pressure readings: ${count}, ${facts.siteName}`
+    : `Pressure readings back: ${count}, ${facts.siteName}`;
+  const lines = facts.rooms.map((room) =>
+    started
+      ? `${room.roomName}: no reading since ${formatInZone(room.since, facts.timeZone)}`
+      : `${room.roomName}: reported again at ${formatInZone(room.endedAt!, facts.timeZone)}, after ${formatDuration(room.endedAt!.getTime() - room.since.getTime())} without a reading`,
+  );
+  const paragraphs = [
+    `Hello ${facts.name},`,
+    started
+      ? `The pressure monitors of ${count} at ${facts.siteName} have sent nothing for 10 minutes or more (times are the site's). Many rooms at once usually means the building's gateway or its network, not each monitor.`
+      : `The pressure monitors of ${count} at ${facts.siteName} are reporting again (times are the site's).`,
+    ...lines,
+    started
+      ? "Until they report again, Lintel cannot tell whether these rooms are negative. Check the gateway, then the rooms."
+      : "Each room's page has its readings and its alarm log.",
+  ];
+  const button = "Open the site";
+  return {
+    topic: started ? "pressure_alarm_started" : "pressure_alarm_ended",
+    to: facts.to,
+    subject,
+    text: `${paragraphs.join("\n\n")}\n\n${button}: ${facts.link}\n\n${footnote}\n`,
+    html: mailLayout(subject, paragraphs, { label: button, href: facts.link }, footnote),
+  };
+}

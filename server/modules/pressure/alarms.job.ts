@@ -201,12 +201,19 @@ async function pressureItem(
 }
 
 /** Writes the steps for one monitor inside its lock; returns the e-mails queued. */
+/** Silences that started or ended in a round, gathered for one e-mail per site. */
+interface SilenceDigest {
+  started: mails.SilenceDigestRoom[];
+  ended: mails.SilenceDigestRoom[];
+}
+
 async function applySteps(
   tx: Tx,
   deps: AlarmJobDeps,
   snapshot: Snapshot,
   steps: Step[],
   now: Date,
+  digest?: SilenceDigest,
 ): Promise<number> {
   const { monitor, policy } = snapshot;
   let recipients: repo.Person[] | null = null;
@@ -247,14 +254,23 @@ async function applySteps(
           startMailedAt: now,
         });
         if (!row) continue;
-        await tell(mails.alarmStartedMail, facts);
+        if (digest)
+          digest.started.push({ roomName: monitor.spaceName, since: silence.from, endedAt: null });
+        else await tell(mails.alarmStartedMail, facts);
       }
       if (silence.to !== null) {
         await repo.updateAlarm(tx, row.id, { endedAt: silence.to, endMailedAt: now });
-        await tell(
-          (full) => mails.alarmEndedMail({ ...full, endedAt: silence.to!, endedBy: "recovered" }),
-          facts,
-        );
+        if (digest)
+          digest.ended.push({
+            roomName: monitor.spaceName,
+            since: row.startedAt,
+            endedAt: silence.to,
+          });
+        else
+          await tell(
+            (full) => mails.alarmEndedMail({ ...full, endedAt: silence.to!, endedBy: "recovered" }),
+            facts,
+          );
       }
       continue;
     }
@@ -330,6 +346,63 @@ async function applySteps(
   return queued;
 }
 
+/** From this many rooms of one site changing silence in a round, one e-mail tells of them all. */
+export const silenceDigestFrom = 3;
+
+/**
+ * A site's monitors with silences to write, in one transaction: each locked in id order (so two
+ * rounds at once never deadlock), read again and written as alone, except that the silences'
+ * e-mails are gathered into one "started" and one "ended" e-mail per recipient, queued in the
+ * same transaction as the alarms they tell of.
+ */
+async function digestRound(
+  deps: AlarmJobDeps,
+  group: readonly Snapshot[],
+  now: Date,
+  listeningSince: Date | undefined,
+): Promise<{ queued: number; changed: number }> {
+  return deps.db.transaction(async (tx) => {
+    const digest: SilenceDigest = { started: [], ended: [] };
+    let queued = 0;
+    let changed = 0;
+    const sorted = [...group].sort((a, b) => a.monitor.id.localeCompare(b.monitor.id));
+    for (const first of sorted) {
+      const locked = await repo.lockMonitor(tx, first.monitor.id);
+      if (!locked || locked.spaceRetiredAt) continue;
+      const [snapshot] = await snapshotsOf(tx, [locked], now, listeningSince);
+      const steps = stepsOf(snapshot!);
+      if (steps.length === 0) continue;
+      changed += 1;
+      queued += await applySteps(tx, deps, snapshot!, steps, now, digest);
+    }
+    const { siteId, siteName, timeZone } = group[0]!.monitor;
+    const link = new URL(`/sites/${encodeURIComponent(siteId)}`, deps.env.publicUrl).toString();
+    const recipients = await alarmRecipients(tx, siteId);
+    for (const kind of ["started", "ended"] as const) {
+      const rooms = digest[kind];
+      if (rooms.length === 0) continue;
+      // Fewer than the digest's size after all (another round wrote some): still one e-mail.
+      for (const person of recipients) {
+        await enqueueMail(
+          tx,
+          mails.silenceDigestMail({
+            to: person.email,
+            name: person.name,
+            kind,
+            siteName,
+            timeZone,
+            rooms: [...rooms].sort((a, b) => a.roomName.localeCompare(b.roomName)),
+            link,
+          }),
+          person,
+        );
+        queued += 1;
+      }
+    }
+    return { queued, changed };
+  });
+}
+
 /**
  * Decides each mapped monitor's alarms as of `now` from its readings (the readings' own
  * timestamps) and writes what changed: new alarms with their start e-mail, ends with their end
@@ -367,8 +440,26 @@ export async function evaluatePressureAlarms(
     now,
     listeningSince,
   );
+  // Several rooms of a site falling silent (or reporting again) in the same round are written
+  // together and told in one e-mail per recipient: usually one fault, the gateway's.
+  const bySite = new Map<string, Snapshot[]>();
+  for (const snapshot of snapshots) {
+    if (!stepsOf(snapshot).some((step) => step.kind === "silence")) continue;
+    const group = bySite.get(snapshot.monitor.siteId) ?? [];
+    group.push(snapshot);
+    bySite.set(snapshot.monitor.siteId, group);
+  }
+  const together = new Set<string>();
+  for (const group of bySite.values()) {
+    if (group.length < silenceDigestFrom) continue;
+    const { queued, changed } = await digestRound(deps, group, now, listeningSince);
+    round.queued += queued;
+    round.changed += changed;
+    for (const snapshot of group) together.add(snapshot.monitor.id);
+  }
+
   for (const first of snapshots) {
-    if (stepsOf(first).length === 0) continue;
+    if (together.has(first.monitor.id) || stepsOf(first).length === 0) continue;
     const queued = await deps.db.transaction(async (tx) => {
       const locked = await repo.lockMonitor(tx, first.monitor.id);
       if (!locked || locked.spaceRetiredAt) return 0;
