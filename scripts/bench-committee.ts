@@ -11,8 +11,7 @@ import pg from "pg";
 import { defaultChecklists } from "../shared/checklists/defaults";
 import { zoneTypes } from "../shared/zones";
 import { hashPassword } from "../server/auth/password";
-import { connectDatabase, migrateDatabase } from "../server/db/client";
-import { parseEnv } from "../server/env";
+import { connectDatabase } from "../server/db/client";
 import {
   committeeQueries,
   observationQueries,
@@ -21,11 +20,9 @@ import {
   type Period,
 } from "../server/modules/committee/committee.repository";
 import { ensureDefaultSequences } from "../server/modules/observations/sequences.service";
-import { startServer } from "../server/server";
 import { agent, browserGet, httpTimes, percentile } from "./lib/bench-http";
-import { runBenchAlone } from "./lib/bench-standalone";
+import { benchDatabase, runBenchAlone, startBenchServer } from "./lib/bench-standalone";
 import type { Cluster } from "./lib/postgres";
-import { freePort } from "./lib/process";
 
 /**
  * The committee's comparison and trends at network scale: 40 sites × 60 spaces × weekly audits
@@ -254,24 +251,10 @@ interface ScaleResult {
 
 export async function benchCommittee(cluster: Cluster, s3Endpoint: string): Promise<void> {
   const database = "lintel_bench_committee";
-  cluster.createDatabase(database);
-  const url = cluster.urlFor(database);
-  await migrateDatabase(url);
+  const url = await benchDatabase(cluster, database);
   const client = new pg.Client({ connectionString: url });
   await client.connect();
-  const server = await startServer(
-    parseEnv({
-      DATABASE_URL: url,
-      PORT: String(await freePort()),
-      LOG_LEVEL: "warn",
-      LINTEL_DEMO: "0",
-      LINTEL_OUTBOX_WORKER: "0",
-      LINTEL_ACTION_NOTICES: "0",
-      S3_ENDPOINT: s3Endpoint,
-      LINTEL_LOGIN_LIMIT_ACCOUNT: "100000",
-      LINTEL_LOGIN_LIMIT_ADDRESS: "100000",
-    }),
-  );
+  const server = await startBenchServer(url, s3Endpoint);
   try {
     const { rows: network } = await client.query<{ id: string }>(
       "insert into networks (name) values ('Bench Network') returning id",

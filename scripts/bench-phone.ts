@@ -6,14 +6,10 @@ import { pathToFileURL } from "node:url";
 import { chromium, type Browser, type BrowserContext } from "playwright-core";
 
 import { demoPassword } from "../server/demo/people";
-import { migrateDatabase } from "../server/db/client";
-import { parseEnv } from "../server/env";
-import { startServer } from "../server/server";
 import { chromiumArgs, ensureChromium } from "./lib/chromium";
+import { benchDatabase, runBenchAlone, startBenchServer } from "./lib/bench-standalone";
 import { buildClient } from "./lib/client-build";
-import { prepareCluster, type Cluster } from "./lib/postgres";
-import { freePort } from "./lib/process";
-import { startS3Fake } from "./lib/s3-fake";
+import type { Cluster } from "./lib/postgres";
 
 /**
  * The phone figures: the built app in chromium at 390×844 on a slow phone with one bar of signal
@@ -293,24 +289,13 @@ async function demoSpace(origin: string): Promise<string> {
  * and prints the phone figures beside their targets.
  */
 export async function benchPhone(cluster: Cluster, s3Endpoint: string): Promise<void> {
-  cluster.createDatabase("lintel_bench_phone");
-  const url = cluster.urlFor("lintel_bench_phone");
-  await migrateDatabase(url);
+  const url = await benchDatabase(cluster, "lintel_bench_phone");
   const clientDir = mkdtempSync(path.join(os.tmpdir(), "lintel-bench-phone-"));
   await buildClient(clientDir);
-  const server = await startServer(
-    parseEnv({
-      DATABASE_URL: url,
-      PORT: String(await freePort()),
-      LOG_LEVEL: "warn",
-      LINTEL_DEMO: "1",
-      LINTEL_OUTBOX_WORKER: "0",
-      LINTEL_LOGIN_LIMIT_ACCOUNT: "100000",
-      LINTEL_LOGIN_LIMIT_ADDRESS: "100000",
-      LINTEL_CLIENT_DIR: clientDir,
-      S3_ENDPOINT: s3Endpoint,
-    }),
-  );
+  const server = await startBenchServer(url, s3Endpoint, {
+    LINTEL_DEMO: "1",
+    LINTEL_CLIENT_DIR: clientDir,
+  });
   const browser = await chromium.launch({
     executablePath: await ensureChromium(),
     args: chromiumArgs,
@@ -389,17 +374,5 @@ export async function benchPhone(cluster: Cluster, s3Endpoint: string): Promise<
 }
 
 // `npx tsx scripts/bench-phone.ts`: the phone figures alone, on a throwaway cluster.
-if (import.meta.url === pathToFileURL(process.argv[1] ?? "").href) {
-  const folder = mkdtempSync(path.join(os.tmpdir(), "lintel-bench-phone-db-"));
-  const s3Dir = mkdtempSync(path.join(os.tmpdir(), "lintel-bench-phone-s3-"));
-  const cluster = await prepareCluster({ folder, port: await freePort(), throwaway: true });
-  await cluster.start();
-  const s3 = await startS3Fake({ dir: s3Dir });
-  try {
-    await benchPhone(cluster, s3.endpoint);
-  } finally {
-    await s3.stop();
-    cluster.destroy();
-    rmSync(s3Dir, { recursive: true, force: true });
-  }
-}
+if (import.meta.url === pathToFileURL(process.argv[1] ?? "").href)
+  await runBenchAlone("phone", benchPhone);

@@ -3,13 +3,9 @@ import { pathToFileURL } from "node:url";
 import pg from "pg";
 
 import { hashPassword } from "../server/auth/password";
-import { migrateDatabase } from "../server/db/client";
-import { parseEnv } from "../server/env";
-import { startServer } from "../server/server";
 import { agent, browserGet, httpTimes, percentile } from "./lib/bench-http";
-import { runBenchAlone } from "./lib/bench-standalone";
+import { benchDatabase, runBenchAlone, startBenchServer } from "./lib/bench-standalone";
 import type { Cluster } from "./lib/postgres";
-import { freePort } from "./lib/process";
 
 /**
  * A room's pressure charts at scale: 500 monitored isolation rooms with one day of raw readings
@@ -57,23 +53,10 @@ async function seed(client: pg.Client, spaceIds: string[]) {
 }
 
 export async function benchPressureChart(cluster: Cluster, s3Endpoint: string): Promise<void> {
-  const database = "lintel_bench_pressure";
-  cluster.createDatabase(database);
-  const url = cluster.urlFor(database);
-  await migrateDatabase(url);
+  const url = await benchDatabase(cluster, "lintel_bench_pressure");
   const client = new pg.Client({ connectionString: url });
   await client.connect();
-  const server = await startServer(
-    parseEnv({
-      DATABASE_URL: url,
-      PORT: String(await freePort()),
-      LOG_LEVEL: "warn",
-      LINTEL_DEMO: "0",
-      LINTEL_OUTBOX_WORKER: "0",
-      LINTEL_ACTION_NOTICES: "0",
-      S3_ENDPOINT: s3Endpoint,
-    }),
-  );
+  const server = await startBenchServer(url, s3Endpoint);
   try {
     const t0 = performance.now();
     const { rows: network } = await client.query<{ id: string }>(

@@ -5,9 +5,9 @@ import type pg from "pg";
 import { pino } from "pino";
 
 import { pressureTopic } from "../shared/schemas/pressure-readings";
-import { connectDatabase, migrateDatabase } from "../server/db/client";
+import { connectDatabase } from "../server/db/client";
 import { createPressureIngest } from "../server/modules/pressure/ingest.service";
-import { runBenchAlone } from "./lib/bench-standalone";
+import { benchDatabase, runBenchAlone } from "./lib/bench-standalone";
 import { startMqttBroker } from "./lib/mqtt-broker";
 import type { Cluster } from "./lib/postgres";
 
@@ -24,9 +24,7 @@ export async function benchPressureIngest(cluster: Cluster): Promise<void> {
   const periodMs = 5_000;
   const gateways = 10;
 
-  cluster.createDatabase("lintel_bench_pressure");
-  const url = cluster.urlFor("lintel_bench_pressure");
-  await migrateDatabase(url);
+  const url = await benchDatabase(cluster, "lintel_bench_pressure");
   const database = connectDatabase(url);
   const broker = await startMqttBroker();
   const ingest = createPressureIngest({

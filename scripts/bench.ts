@@ -1,17 +1,11 @@
-import { mkdtempSync, rmSync } from "node:fs";
 import os from "node:os";
-import path from "node:path";
 
 import sharp from "sharp";
 
-import { startS3Fake } from "./lib/s3-fake";
 import { demoPassword } from "../server/demo/people";
-import { migrateDatabase } from "../server/db/client";
-import { parseEnv } from "../server/env";
 import { processImage } from "../server/lib/images";
-import { startServer } from "../server/server";
-import { prepareCluster } from "./lib/postgres";
-import { freePort } from "./lib/process";
+import type { Cluster } from "./lib/postgres";
+import { benchDatabase, runBenchAlone, startBenchServer } from "./lib/bench-standalone";
 import { benchCommittee } from "./bench-committee";
 import { benchPhone } from "./bench-phone";
 import { benchPressureChart } from "./bench-pressure-chart";
@@ -75,27 +69,9 @@ async function timed(request: () => Promise<Response>, label: string): Promise<n
   return performance.now() - t0;
 }
 
-async function main() {
-  const folder = mkdtempSync(path.join(os.tmpdir(), "lintel-bench-"));
-  const s3Dir = mkdtempSync(path.join(os.tmpdir(), "lintel-bench-s3-"));
-  const cluster = await prepareCluster({ folder, port: await freePort(), throwaway: true });
-  await cluster.start();
-  cluster.createDatabase("lintel_bench");
-  const url = cluster.urlFor("lintel_bench");
-  await migrateDatabase(url);
-  const s3 = await startS3Fake({ dir: s3Dir });
-  const server = await startServer(
-    parseEnv({
-      DATABASE_URL: url,
-      PORT: String(await freePort()),
-      LOG_LEVEL: "warn",
-      LINTEL_DEMO: "1",
-      LINTEL_OUTBOX_WORKER: "0",
-      LINTEL_LOGIN_LIMIT_ACCOUNT: "100000",
-      LINTEL_LOGIN_LIMIT_ADDRESS: "100000",
-      S3_ENDPOINT: s3.endpoint,
-    }),
-  );
+async function benchAll(cluster: Cluster, s3Endpoint: string) {
+  const url = await benchDatabase(cluster, "lintel_bench");
+  const server = await startBenchServer(url, s3Endpoint, { LINTEL_DEMO: "1" });
   try {
     const origin = server.url;
     const signIn = () =>
@@ -250,18 +226,15 @@ async function main() {
     for (const line of await clientBundleReport()) console.log(`  ${line}`);
 
     console.log("\nCommittee view at network scale:");
-    await benchCommittee(cluster, s3.endpoint);
-    await benchPhone(cluster, s3.endpoint);
+    await benchCommittee(cluster, s3Endpoint);
+    await benchPhone(cluster, s3Endpoint);
     console.log("\nLive room pressure, ingestion through the broker:");
     await benchPressureIngest(cluster);
     console.log("\nLive room pressure, a room's charts at 500 monitors:");
-    await benchPressureChart(cluster, s3.endpoint);
+    await benchPressureChart(cluster, s3Endpoint);
   } finally {
     await server.close();
-    await s3.stop();
-    cluster.destroy();
-    rmSync(s3Dir, { recursive: true, force: true });
   }
 }
 
-void main();
+void runBenchAlone("all", benchAll);
