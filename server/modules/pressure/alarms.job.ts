@@ -346,6 +346,27 @@ async function applySteps(
   return queued;
 }
 
+/**
+ * Locks one monitor (`FOR UPDATE` on its row), reads it again and writes what changed; null when
+ * there was nothing to write after all (another round wrote it, or its room was retired). The
+ * number is the e-mails queued.
+ */
+async function writeMonitor(
+  tx: Tx,
+  deps: AlarmJobDeps,
+  monitorRowId: string,
+  now: Date,
+  listeningSince: Date | undefined,
+  digest?: SilenceDigest,
+): Promise<number | null> {
+  const locked = await repo.lockMonitor(tx, monitorRowId);
+  if (!locked || locked.spaceRetiredAt) return null;
+  const [snapshot] = await snapshotsOf(tx, [locked], now, listeningSince);
+  const steps = stepsOf(snapshot!);
+  if (steps.length === 0) return null;
+  return applySteps(tx, deps, snapshot!, steps, now, digest);
+}
+
 /** From this many rooms of one site changing silence in a round, one e-mail tells of them all. */
 export const silenceDigestFrom = 3;
 
@@ -367,13 +388,10 @@ async function digestRound(
     let changed = 0;
     const sorted = [...group].sort((a, b) => a.monitor.id.localeCompare(b.monitor.id));
     for (const first of sorted) {
-      const locked = await repo.lockMonitor(tx, first.monitor.id);
-      if (!locked || locked.spaceRetiredAt) continue;
-      const [snapshot] = await snapshotsOf(tx, [locked], now, listeningSince);
-      const steps = stepsOf(snapshot!);
-      if (steps.length === 0) continue;
+      const written = await writeMonitor(tx, deps, first.monitor.id, now, listeningSince, digest);
+      if (written === null) continue;
       changed += 1;
-      queued += await applySteps(tx, deps, snapshot!, steps, now, digest);
+      queued += written;
     }
     const { siteId, siteName, timeZone } = group[0]!.monitor;
     const link = new URL(`/sites/${encodeURIComponent(siteId)}`, deps.env.publicUrl).toString();
@@ -460,16 +478,12 @@ export async function evaluatePressureAlarms(
 
   for (const first of snapshots) {
     if (together.has(first.monitor.id) || stepsOf(first).length === 0) continue;
-    const queued = await deps.db.transaction(async (tx) => {
-      const locked = await repo.lockMonitor(tx, first.monitor.id);
-      if (!locked || locked.spaceRetiredAt) return 0;
-      const [snapshot] = await snapshotsOf(tx, [locked], now, listeningSince);
-      const steps = stepsOf(snapshot!);
-      if (steps.length === 0) return 0;
-      round.changed += 1;
-      return applySteps(tx, deps, snapshot!, steps, now);
-    });
-    round.queued += queued;
+    const written = await deps.db.transaction((tx) =>
+      writeMonitor(tx, deps, first.monitor.id, now, listeningSince),
+    );
+    if (written === null) continue;
+    round.changed += 1;
+    round.queued += written;
   }
   await repo.markManyEvaluated(
     deps.db,
