@@ -12,6 +12,7 @@ import {
 } from "@shared/schemas/pressure-readings";
 
 import type { Database } from "../../db/client";
+import { databaseCodeOf } from "../../lib/database-errors";
 import type { Env } from "../../env";
 import type { OnStored } from "./ingest.hook";
 import { listeningClock } from "./listening";
@@ -79,10 +80,7 @@ export function safeBrokerAddress(url: string): string {
 
 /** Whether PostgreSQL refused a statement for its data (classes 22 and 23), not for being away. */
 function refusedAsData(err: unknown): boolean {
-  const code =
-    (err as { code?: unknown; cause?: { code?: unknown } }).code ??
-    (err as { cause?: { code?: unknown } }).cause?.code;
-  return typeof code === "string" && /^2[23]/.test(code);
+  return /^2[23]/.test(databaseCodeOf(err) ?? "");
 }
 
 /** The settings from the environment, or null when no broker is configured. */
