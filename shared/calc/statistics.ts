@@ -22,11 +22,23 @@ function assertProportionInput(successes: number, n: number): void {
   if (successes > n) throw new RangeError("The count cannot exceed the sample size.");
 }
 
+/**
+ * Quantiles already worked out, by confidence level. The committee's figures ask for the same one
+ * or two levels hundreds of times a request, and each inversion allocates as it iterates.
+ */
+const quantiles = new Map<number, number>();
+
 /** The two-sided normal quantile for a confidence level, e.g. 1.959964 for 0.95. */
 export function normalQuantile(confidence: number): number {
+  const known = quantiles.get(confidence);
+  if (known !== undefined) return known;
   if (!(confidence > 0 && confidence < 1))
     throw new RangeError("The confidence level must be strictly between 0 and 1.");
-  return jstat.jStat.normal.inv(1 - (1 - confidence) / 2, 0, 1);
+  const z = jstat.jStat.normal.inv(1 - (1 - confidence) / 2, 0, 1);
+  // Bounded: only the levels the product uses reach here, but a caller looping over many
+  // levels must not grow the map without end.
+  if (quantiles.size < 64) quantiles.set(confidence, z);
+  return z;
 }
 
 /** Wilson score interval for successes / n (Newcombe 1998, method 3). */

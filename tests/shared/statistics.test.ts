@@ -57,6 +57,29 @@ describe("Wilson score interval", () => {
     }
   });
 
+  it("when a level is asked for again, then the kept quantile is the one worked out, and a refused level stays refused", () => {
+    // Two-sided standard normal quantiles 1.644854 (90%) and 2.575829 (99%): table values from
+    // memory, cross-checked below with jStat, the library references §7 names.
+    for (const [confidence, z] of [
+      [0.9, 1.6448536269514722],
+      [0.99, 2.5758293035489004],
+    ] as const) {
+      const first = normalQuantile(confidence);
+      expect(first).toBeCloseTo(z, 12);
+      expect(normalQuantile(confidence)).toBe(first);
+    }
+    // A refused level is never kept: asking twice refuses twice.
+    for (const bad of [0, 1, 1.5, Number.NaN]) {
+      expect(() => normalQuantile(bad)).toThrow(RangeError);
+      expect(() => normalQuantile(bad)).toThrow(RangeError);
+    }
+    // Many levels in turn (a caller sweeping them) each get their own quantile.
+    for (let n = 1; n < 200; n += 1) {
+      const confidence = n / 200;
+      expect(normalQuantile(confidence)).toBe(jStat.normal.inv(1 - (1 - confidence) / 2, 0, 1));
+    }
+  });
+
   it("when the confidence level changes, then the interval widens or narrows with it", () => {
     const ninety = wilsonInterval(81, 263, 0.9);
     const ninetyNine = wilsonInterval(81, 263, 0.99);

@@ -46,6 +46,31 @@ export function grantedSiteIds(grants: readonly RoleGrant[]): string[] | null {
 
 type ComparisonSite = ComparisonResponse["sites"][number];
 
+/**
+ * A site's item groups with answers, in the groups' own order, from the statement's
+ * `[group, applicable, passed]` entries. Written as plain loops and object literals of one shape:
+ * this runs for every site and group of every comparison, and the reply is built for each call.
+ */
+function groupProportions(groups: repo.ComparisonRow["groups"]): ComparisonSite["categories"] {
+  const out: ComparisonSite["categories"] = [];
+  for (const category of itemCategories) {
+    for (const [group, applicable, passed] of groups) {
+      if (group !== category || applicable <= 0) continue;
+      const share = proportion(passed, applicable);
+      out.push({
+        category,
+        n: share.n,
+        successes: share.successes,
+        rate: share.rate,
+        interval: share.interval,
+        smallSample: share.smallSample,
+      });
+      break;
+    }
+  }
+  return out;
+}
+
 export async function comparison(
   db: Database,
   networkId: string,
@@ -55,24 +80,14 @@ export async function comparison(
   // One round trip: the readable sites, the network's name and both sets of counts together.
   const found = await repo.comparisonRows(db, networkId, grantedSiteIds(grants), query);
   const name = found[0]?.network_name ?? (await networkName(db, networkId));
-  const rows: ComparisonSite[] = found.map((row) => {
-    const groups = new Map(
-      row.groups.map(([group, applicable, passed]) => [group, { applicable, passed }]),
-    );
-    return {
-      siteId: row.site_id,
-      siteName: row.site_name,
-      readiness: proportion(row.all_clear, row.audits),
-      verdicts: { all_clear: row.all_clear, gaps_to_fix: row.gaps_to_fix, hold: row.hold },
-      categories: itemCategories.flatMap((category) => {
-        const counts = groups.get(category);
-        return counts && counts.applicable > 0
-          ? [{ category, ...proportion(counts.passed, counts.applicable) }]
-          : [];
-      }),
-      rank: null,
-    };
-  });
+  const rows: ComparisonSite[] = found.map((row) => ({
+    siteId: row.site_id,
+    siteName: row.site_name,
+    readiness: proportion(row.all_clear, row.audits),
+    verdicts: { all_clear: row.all_clear, gaps_to_fix: row.gaps_to_fix, hold: row.hold },
+    categories: groupProportions(row.groups),
+    rank: null,
+  }));
   // Only sites with enough audits are ranked; the others keep their interval and a flag.
   const ranked = rows
     .filter((row) => !row.readiness.smallSample)
