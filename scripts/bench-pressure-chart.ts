@@ -53,7 +53,7 @@ async function seed(client: pg.Client, spaceIds: string[]) {
 }
 
 export async function benchPressureChart(cluster: Cluster, s3Endpoint: string): Promise<void> {
-  const url = await benchDatabase(cluster, "lintel_bench_pressure");
+  const url = await benchDatabase(cluster, "lintel_bench_pressure_chart");
   const client = new pg.Client({ connectionString: url });
   await client.connect();
   const server = await startBenchServer(url, s3Endpoint);
