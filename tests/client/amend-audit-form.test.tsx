@@ -70,6 +70,13 @@ afterEach(async () => {
   vi.unstubAllGlobals();
 });
 
+/** Opens the panel; the form's code loads then, so its fields appear a moment later. */
+async function openForm() {
+  expect(screen.queryByLabelText("Reason for the amendment")).toBeNull();
+  await userEvent.click(screen.getByText("Amend an answer"));
+  await screen.findByRole("button", { name: "Record amendment" });
+}
+
 function renderForm() {
   render(
     <QueryClientProvider
@@ -92,7 +99,7 @@ describe("amending a submitted audit", () => {
       return undefined;
     });
     renderForm();
-    await userEvent.click(screen.getByText("Amend an answer"));
+    await openForm();
     await userEvent.click(screen.getByRole("button", { name: "Record amendment" }));
     expect(await screen.findByText("Say why, in a few words.")).toBeTruthy();
     expect(requests).toEqual([]);
@@ -110,7 +117,7 @@ describe("amending a submitted audit", () => {
       },
     });
     renderForm();
-    await userEvent.click(screen.getByText("Amend an answer"));
+    await openForm();
     await userEvent.selectOptions(screen.getByLabelText("Corrected answer"), "pass");
     await userEvent.type(
       screen.getByLabelText("Reason for the amendment"),
@@ -134,7 +141,7 @@ describe("amending a submitted audit", () => {
         }),
     });
     renderForm();
-    await userEvent.click(screen.getByText("Amend an answer"));
+    await openForm();
     await userEvent.type(
       screen.getByLabelText("Reason for the amendment"),
       "Room was closed that day",

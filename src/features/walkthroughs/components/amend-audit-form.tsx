@@ -1,107 +1,55 @@
-import { zodResolver } from "@hookform/resolvers/zod";
-import { type AmendmentBody, amendmentBodySchema, type AuditDetail } from "@shared/schemas/audits";
-import { useState } from "react";
-import { useForm } from "react-hook-form";
+import type { AuditDetail } from "@shared/schemas/audits";
+import { lazy, Suspense, useState } from "react";
 
-import { Alert } from "@/components/ui/alert";
-import { Button } from "@/components/ui/button";
-import { SelectField } from "@/components/ui/select-field";
-import { TextAreaField } from "@/components/ui/text-area-field";
-import { formLevelMessage, showServerFieldErrors } from "@/lib/form-errors";
+/**
+ * The form's code, with the form library it alone uses on the audit screen, loads only when
+ * someone opens the panel: an auditor answering on a phone never needs it. The service worker
+ * keeps it with the rest of the app, so it opens offline too; a failed load says so instead of
+ * breaking the audit screen.
+ */
+const AmendAuditFormBody = lazy(() =>
+  import("./amend-audit-form-body").then(
+    (module) => ({ default: module.AmendAuditFormBody }),
+    () => ({ default: AmendFormUnavailable }),
+  ),
+);
 
-import { useAmendAudit } from "../api/amend-audit";
-
-const fieldNames = ["itemId", "outcome", "note", "reason"] as const;
+function AmendFormUnavailable() {
+  return (
+    <p role="alert" className="mt-3 text-sm text-ink-muted">
+      The amendment form could not be loaded. Amending needs a connection: open this audit again
+      when you have signal.
+    </p>
+  );
+}
 
 /**
  * For administrators: correct one answer of a submitted audit. The reason is kept in the change
  * log with the answer before and after, and the verdict is decided again.
  */
 export function AmendAuditForm({ detail }: { detail: AuditDetail }) {
-  const amend = useAmendAudit(detail.audit.id);
-  const [done, setDone] = useState<string | null>(null);
-  const form = useForm<AmendmentBody>({
-    resolver: zodResolver(amendmentBodySchema),
-    defaultValues: { itemId: detail.items[0]?.id ?? "", outcome: "pass", note: "", reason: "" },
-  });
-  const { errors } = form.formState;
-
-  const onSubmit = form.handleSubmit(async (values) => {
-    setDone(null);
-    try {
-      await amend.mutateAsync({ ...values, note: values.note || null });
-      const item = detail.items.find((candidate) => candidate.id === values.itemId);
-      setDone(
-        `Amended "${item?.text ?? "the item"}". The verdict is now decided from the corrected answer.`,
-      );
-      form.reset({ ...values, reason: "" });
-    } catch (error) {
-      showServerFieldErrors(error, form.setError, fieldNames);
-    }
-  });
-  const formError = formLevelMessage(
-    amend.error,
-    fieldNames,
-    "The amendment could not be saved. Try again.",
-  );
-
+  const [opened, setOpened] = useState(false);
   return (
-    <details className="w-full rounded-card border border-surface-line bg-surface p-4">
+    <details
+      className="w-full rounded-card border border-surface-line bg-surface p-4"
+      onToggle={(event) => {
+        if (event.currentTarget.open) setOpened(true);
+      }}
+    >
       <summary className="min-h-tap cursor-pointer py-2 font-semibold text-brand-800">
         Amend an answer
       </summary>
-      <form onSubmit={onSubmit} noValidate className="mt-3 flex flex-col gap-4">
-        <p className="text-sm text-ink-muted">
-          A submitted audit is not edited in place. A correction is recorded with its reason and who
-          made it; the verdict and score are worked out again.
-        </p>
-        <SelectField
-          label="Item"
-          options={detail.items.map((item, index) => ({
-            value: item.id,
-            label: `${index + 1}. ${item.text}`,
-          }))}
-          error={errors.itemId?.message}
-          {...form.register("itemId")}
-        />
-        <SelectField
-          label="Corrected answer"
-          options={[
-            { value: "pass", label: "Pass" },
-            { value: "fail", label: "Fail" },
-            { value: "not_applicable", label: "Not applicable" },
-          ]}
-          error={errors.outcome?.message}
-          {...form.register("outcome")}
-        />
-        <TextAreaField
-          label="Note (optional)"
-          rows={2}
-          error={errors.note?.message}
-          {...form.register("note")}
-        />
-        <TextAreaField
-          label="Reason for the amendment"
-          rows={2}
-          error={errors.reason?.message}
-          {...form.register("reason")}
-        />
-        {formError ? (
-          <Alert tone="error" title="Not amended" role="alert">
-            <p>{formError}</p>
-          </Alert>
-        ) : null}
-        {done ? (
-          <p role="status" className="text-sm font-semibold text-verdict-ready">
-            {done}
-          </p>
-        ) : null}
-        <div>
-          <Button type="submit" disabled={amend.isPending}>
-            Record amendment
-          </Button>
-        </div>
-      </form>
+      {opened ? (
+        <Suspense
+          fallback={
+            <p role="status" className="mt-3 text-sm text-ink-muted">
+              Opening the form…
+            </p>
+          }
+        >
+          <AmendAuditFormBody detail={detail} />
+        </Suspense>
+      ) : null}
     </details>
   );
 }
