@@ -1,7 +1,7 @@
 import type { AddressInfo } from "node:net";
-import { createServer } from "node:http";
 
 import { createApp } from "./app";
+import { createAppServer } from "./lib/app-server";
 import { connectDatabase, migrateDatabase } from "./db/client";
 import { followDemoIssuer, realIssuerConfigured } from "./demo/identity-provider";
 import { runDemoSteps, type DemoIdentityProvider } from "./demo/run-demo-steps";
@@ -154,7 +154,7 @@ export async function startServer(env: Env, options: StartOptions = {}): Promise
       mailCatcherDir: options.mailCatcherDir ?? null,
     }),
   );
-  const server = createServer(app);
+  const server = createAppServer(app);
   await new Promise<void>((resolve, reject) => {
     server.once("error", reject);
     server.listen(env.PORT, env.HOST, () => resolve());
