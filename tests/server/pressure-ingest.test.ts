@@ -15,6 +15,7 @@ import {
 import { createLogger } from "../../server/lib/logger";
 import { startMqttBroker, type MqttBroker } from "../../scripts/lib/mqtt-broker";
 import { testApp } from "../helpers/app";
+import { ingestDay } from "../helpers/made-up-dates";
 import { testEnv } from "../helpers/test-env";
 
 const db = () => testApp().deps.db;
@@ -38,7 +39,7 @@ afterAll(async () => {
 
 /** A day of its own, far ahead, so this test's tallies are not shared with another's. */
 function ownClock() {
-  const day = Date.UTC(2040, 0, 1) + randomInt(0, 3650) * 86_400_000;
+  const day = ingestDay();
   const now = new Date(day + 12 * 3_600_000);
   return {
     now,

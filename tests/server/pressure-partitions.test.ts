@@ -1,4 +1,4 @@
-import { randomInt, randomUUID } from "node:crypto";
+import { randomUUID } from "node:crypto";
 
 import { sql } from "drizzle-orm";
 import { describe, expect, it } from "vitest";
@@ -11,6 +11,7 @@ import {
   storeReadings,
 } from "../../server/modules/pressure/readings.repository";
 import { testApp } from "../helpers/app";
+import { partitionJobYear } from "../helpers/made-up-dates";
 
 const db = () => testApp().deps.db;
 
@@ -44,10 +45,7 @@ async function readingsOf(monitorId: string) {
 
 describe("the pressure partition job", () => {
   it("when a month is wholly older than the raw-reading limit, then its partition is dropped, later months and the DEFAULT partition's readings are kept, and the roll-ups stay", async () => {
-    // A year of its own before 2000: the api test files share one database, the other test that
-    // makes partitions for made-up months keeps to 2001 onwards (pressure-storage), and this
-    // round drops only months older than this year's March, so neither reaches the other's.
-    const year = 1981 + randomInt(0, 18);
+    const year = partitionJobYear();
     const monitor = `part-${randomUUID().slice(0, 8)}`;
     await ensureReadingPartitions(db(), new Date(Date.UTC(year, 0, 1)), 2);
     const now = new Date(Date.UTC(year, 5, 15));
